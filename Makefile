@@ -1,0 +1,27 @@
+# Every target does its own set-up from a fresh clone: it creates .venv and installs what it needs.
+PYTHON ?= python3
+VENV := .venv
+BIN := $(VENV)/bin
+STAMP := $(VENV)/.installed
+
+.PHONY: install test demo bench clean
+
+$(STAMP): pyproject.toml
+	$(PYTHON) -m venv $(VENV)
+	$(BIN)/python -m pip install --quiet --upgrade pip
+	$(BIN)/python -m pip install --quiet -e ".[test]"
+	touch $(STAMP)
+
+install: $(STAMP)
+
+test: $(STAMP)
+	$(BIN)/python -m pytest
+
+demo: $(STAMP)
+	$(BIN)/boresize size examples/demo-unit/lines.csv --criteria examples/demo-unit/criteria.toml
+
+bench: $(STAMP)
+	$(BIN)/python benchmarks/bench_sizing.py
+
+clean:
+	rm -rf $(VENV) build *.egg-info src/*.egg-info .pytest_cache

@@ -1,0 +1,94 @@
+"""The error tree of boresize.
+
+Every fault boresize raises is a ``BoresizeError``. The subclasses are also builtins
+(``ValueError``, ``LookupError``, ``RuntimeError``) so that callers who catch those keep working.
+Messages name the value given, the field it came from and what was expected; the line tag is
+added by the engine when the error is tied to a line.
+"""
+
+from __future__ import annotations
+
+__all__ = [
+    "BoresizeError",
+    "InputError",
+    "UnitError",
+    "CatalogueError",
+    "CriteriaFileError",
+    "PropertyError",
+    "PluginError",
+]
+
+
+class BoresizeError(Exception):
+    """Root of every error boresize raises on purpose."""
+
+
+class InputError(BoresizeError, ValueError):
+    """A value given by the user is not usable.
+
+    :param message: what is wrong, in plain words
+    :param field: the input field (column, option or key) at fault
+    :param value: the value as given
+    :param expected: what would have been accepted
+    :param tag: the line tag, when the error belongs to one line
+    """
+
+    def __init__(
+        self,
+        message: str,
+        *,
+        field: str | None = None,
+        value: object = None,
+        expected: str | None = None,
+        tag: str | None = None,
+    ) -> None:
+        self.message = message
+        self.field = field
+        self.value = value
+        self.expected = expected
+        self.tag = tag
+        super().__init__(self._render())
+
+    def _render(self) -> str:
+        parts = []
+        if self.tag:
+            parts.append(f"line {self.tag}: ")
+        if self.field:
+            parts.append(f"{self.field}: ")
+        parts.append(self.message)
+        if self.expected:
+            parts.append(f"; expected {self.expected}")
+        return "".join(parts)
+
+    def for_line(self, tag: str) -> InputError:
+        """Return a copy of this error tied to the line ``tag`` (same class)."""
+        clone = type(self).__new__(type(self))
+        InputError.__init__(
+            clone,
+            self.message,
+            field=self.field,
+            value=self.value,
+            expected=self.expected,
+            tag=tag,
+        )
+        return clone
+
+
+class UnitError(InputError):
+    """A quantity whose unit is missing, unknown or of the wrong dimension."""
+
+
+class CriteriaFileError(InputError):
+    """The criteria file names an unknown criterion, option, service or pipe class."""
+
+
+class CatalogueError(BoresizeError, LookupError):
+    """A pipe size, schedule or class that the catalogue does not hold, or bad catalogue data."""
+
+
+class PropertyError(BoresizeError, RuntimeError):
+    """A property backend failed, or returned a value outside a physical range."""
+
+
+class PluginError(BoresizeError, RuntimeError):
+    """A plugin could not be loaded or registered (for example a duplicate id)."""

@@ -1,0 +1,208 @@
+"""The data that flows through boresize, as frozen dataclasses.
+
+Inside boresize every number is a plain float in SI units (kg, m, s, Pa absolute, K).
+Conversion from what the user typed happens once, in :mod:`boresize.units` and
+:mod:`boresize.lines`.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass, field
+from typing import Literal
+
+__all__ = [
+    "Flow",
+    "Line",
+    "FluidState",
+    "Candidate",
+    "Hydraulics",
+    "Verdict",
+    "CandidateResult",
+    "LineResult",
+    "VerdictStatus",
+    "Phase",
+]
+
+VerdictStatus = Literal["pass", "fail", "warn", "not-applicable", "error"]
+Phase = Literal["liquid", "gas", "two-phase", "supercritical"]
+FlowBasis = Literal["mass", "volume", "standard-volume"]
+
+
+@dataclass(frozen=True)
+class Flow:
+    """A flow as the user gave it, in SI.
+
+    :param basis: ``mass`` [kg/s], ``volume`` (actual, at line conditions) [m3/s] or
+        ``standard-volume`` [m3/s at the reference conditions]
+    :param value: the flow in the SI unit of its basis
+    :param reference_t: reference temperature of a standard volume [K]
+    :param reference_p: reference pressure of a standard volume [Pa abs]
+    :param reference_name: a label for the reference conditions (e.g. "15 degC, 1.01325 bar")
+    """
+
+    basis: FlowBasis
+    value: float
+    reference_t: float | None = None
+    reference_p: float | None = None
+    reference_name: str | None = None
+
+
+@dataclass(frozen=True)
+class Line:
+    """One line case, validated and in SI.
+
+    :param pressure: inlet pressure [Pa abs]
+    :param temperature: [K]
+    :param length: straight length [m]
+    :param density: given density [kg/m3] (replaces the backend when given with viscosity)
+    :param viscosity: given dynamic viscosity [Pa s]
+    :param design_margin: fraction added to the flow for sizing (0.1 = 10 %)
+    :param phase: the phase the user says the line carries ("liquid"/"gas"), or None
+    """
+
+    tag: str
+    fluid: str
+    flow: Flow
+    pressure: float
+    temperature: float
+    length: float = 100.0
+    service: str | None = None
+    pipe_class: str | None = None
+    nps: str | None = None
+    density: float | None = None
+    viscosity: float | None = None
+    design_margin: float | None = None
+    phase: Literal["liquid", "gas"] | None = None
+    backend: str | None = None
+    extra: tuple[tuple[str, str], ...] = ()
+
+
+@dataclass(frozen=True)
+class FluidState:
+    """Properties of the fluid at the line's inlet conditions.
+
+    :param density: [kg/m3]
+    :param viscosity: dynamic viscosity [Pa s]
+    :param vapour_pressure: saturation (pure) or bubble (mixture) pressure at T [Pa abs], if known
+    :param speed_of_sound: [m/s], if known
+    :param source: the backend id ("coolprop", "table", ...)
+    :param model: the model or equation of state used, with the backend version
+    """
+
+    density: float
+    viscosity: float
+    phase: Phase
+    source: str
+    model: str
+    vapour_fraction: float | None = None
+    vapour_pressure: float | None = None
+    speed_of_sound: float | None = None
+    molar_mass: float | None = None
+    fluid_name: str | None = None
+
+
+@dataclass(frozen=True)
+class Candidate:
+    """A pipe size the pipe class allows.
+
+    :param nps: nominal pipe size as written in the trade ("1-1/2", "4")
+    :param outside_diameter: [m]
+    :param wall: [m]
+    :param inside_diameter: [m]
+    :param roughness: absolute roughness [m]
+    """
+
+    nps: str
+    nps_value: float
+    schedule: str
+    outside_diameter: float
+    wall: float
+    inside_diameter: float
+    roughness: float
+    pipe_class: str = "default"
+
+
+@dataclass(frozen=True)
+class Hydraulics:
+    """Single-phase hydraulics of one candidate at the sizing flow (all SI).
+
+    :param mass_flow: [kg/s]; :param volume_flow: [m3/s]; :param velocity: [m/s]
+    :param friction_factor: Darcy friction factor [-]
+    :param drop_per_length: frictional pressure drop per metre [Pa/m]
+    :param drop: frictional drop over the line length [Pa]
+    :param momentum: rho*v^2 [Pa]
+    """
+
+    mass_flow: float
+    volume_flow: float
+    velocity: float
+    reynolds: float
+    friction_factor: float
+    regime: Literal["laminar", "transition", "turbulent"]
+    drop_per_length: float
+    drop: float
+    momentum: float
+    mach: float | None = None
+
+
+@dataclass(frozen=True)
+class Verdict:
+    """One criterion's judgement of one candidate.
+
+    ``value`` and ``limit`` are in ``unit`` (a display unit such as "m/s" or "kPa/100 m");
+    ``utilisation`` is value/limit oriented so that 1.0 is the limit and more is worse.
+    """
+
+    criterion: str
+    status: VerdictStatus
+    reasons: tuple[str, ...]
+    source: str
+    value: float | None = None
+    limit: float | None = None
+    unit: str = ""
+    utilisation: float | None = None
+
+    @property
+    def reason(self) -> str:
+        return " ".join(self.reasons)
+
+
+@dataclass(frozen=True)
+class CandidateResult:
+    """A candidate with its hydraulics and every verdict on it."""
+
+    candidate: Candidate
+    hydraulics: Hydraulics
+    verdicts: tuple[Verdict, ...]
+
+    @property
+    def passed(self) -> bool:
+        return all(v.status in ("pass", "warn", "not-applicable") for v in self.verdicts)
+
+    @property
+    def worst(self) -> Verdict | None:
+        """The verdict with the highest utilisation (the one closest to, or furthest past, its limit)."""
+        rated = [v for v in self.verdicts if v.utilisation is not None]
+        return max(rated, key=lambda v: v.utilisation or 0.0, default=None)
+
+
+@dataclass(frozen=True)
+class LineResult:
+    """The outcome for one line: selected size, its verdicts, or the error that stopped it."""
+
+    tag: str
+    status: Literal["pass", "fail", "error"]
+    mode: Literal["size", "check"]
+    line: Line | None = None
+    state: FluidState | None = None
+    selected: CandidateResult | None = None
+    candidates: tuple[CandidateResult, ...] = ()
+    controlling: str | None = None
+    error: str | None = None
+    error_field: str | None = None
+    notes: tuple[str, ...] = ()
+    service: str | None = None
+    criteria_set: str | None = None
+    sizing_flow: float | None = None
+    first_guess_diameter: float | None = None
+    raw: dict[str, str] = field(default_factory=dict)
