@@ -1,0 +1,97 @@
+"""The ``boresize`` command: a thin shell over the Python API.
+
+Exit codes: 0 every line passed, 1 a line failed or errored, 2 a usage error (bad option, unreadable
+file, bad criteria file). No Python traceback reaches the user: faults of boresize's own error tree are
+printed as one message; anything else is reported as an internal error with a request to report it.
+"""
+
+from __future__ import annotations
+
+import argparse
+import json
+import os
+import sys
+from collections.abc import Sequence
+
+from boresize import __version__
+from boresize.commands import UsageError
+from boresize.errors import BoresizeError
+
+__all__ = ["main", "build_parser"]
+
+CAUTION_SHORT = ("Screening calculations: check them against the applicable codes and your company's standards "
+                 "(a competent engineer must review them; local codes govern).")
+
+SINGLE_LINE_FIELDS = (
+    ("tag", "line tag (default: LINE-1)"), ("fluid", "fluid name, CoolProp name or CAS number"),
+    ("flow", "flow with its unit: '65 t/h', '120 m3/h', '2 MMSCFD'"),
+    ("pressure", "inlet pressure: '10 barg', '1100 kPa' (bare bar, kPa, psi are absolute)"),
+    ("temperature", "temperature: '40 degC', '313 K', '100 degF'"), ("length", "straight length: '120 m'"),
+    ("service", "criteria set (see 'boresize criteria')"), ("pipe-class", "pipe class (see 'boresize pipes')"),
+    ("nps", "check this NPS instead of sizing"), ("density", "given density: '850 kg/m3'"),
+    ("viscosity", "given viscosity: '1.2 cP'"), ("design-margin", "margin on flow: '10 %'"),
+    ("phase", "liquid or gas: what the line must carry"), ("backend", "property backend id"),
+)
+
+
+def build_parser() -> argparse.ArgumentParser:
+    parser = argparse.ArgumentParser(
+        prog="boresize",
+        description="Size and check process piping lines from stream conditions.",
+        epilog=CAUTION_SHORT,
+    )
+    parser.add_argument("--version", action="version", version=f"boresize {__version__}")
+    sub = parser.add_subparsers(dest="command", metavar="COMMAND")
+    size = sub.add_parser("size", help="size (or check) the lines of a line list, or one line from options",
+                          epilog=CAUTION_SHORT)
+    size.add_argument("lines", nargs="?", help="line list CSV (omit to give one line with the options below)")
+    size.add_argument("--criteria", metavar="FILE.toml", help="criteria sets and pipe classes to use")
+    size.add_argument("--json", action="store_true", help="print one JSON document instead of the table")
+    size.add_argument("--no-plugins", action="store_true", help="use only boresize's built-in plugins")
+    single = size.add_argument_group("one line from options")
+    for name, text in SINGLE_LINE_FIELDS:
+        single.add_argument(f"--{name}", help=text)
+    crit = sub.add_parser("criteria", help="list the installed criteria and the criteria sets by service")
+    crit.add_argument("--criteria", metavar="FILE.toml", help="a criteria file to list as well")
+    crit.add_argument("--no-plugins", action="store_true", help="use only boresize's built-in plugins")
+    pipes = sub.add_parser("pipes", help="list pipe classes, or the catalogue sizes of one NPS")
+    pipes.add_argument("--criteria", metavar="FILE.toml", help="a criteria file whose pipe classes to list")
+    pipes.add_argument("--nps", help="show every schedule of this NPS (ASME B36.10M / B36.19M)")
+    pipes.add_argument("--no-plugins", action="store_true", help="use only boresize's built-in plugins")
+    return parser
+
+
+def main(argv: Sequence[str] | None = None) -> int:
+    parser = build_parser()
+    args = parser.parse_args(argv)
+    if args.command is None:
+        parser.print_help()
+        return 2
+    try:
+        from boresize import commands
+
+        return int(getattr(commands, f"run_{args.command}")(args))
+    except UsageError as exc:
+        print(f"boresize: error: {exc}", file=sys.stderr)
+        return 2
+    except BoresizeError as exc:
+        print(f"boresize: error: {exc}", file=sys.stderr)
+        return 2
+    except KeyboardInterrupt:
+        print("boresize: interrupted", file=sys.stderr)
+        return 130
+    except Exception as exc:  # the last guard: no traceback reaches the user
+        print(f"boresize: internal error {type(exc).__name__}: {exc}\nPlease report it with the input that "
+              f"caused it; run with BORESIZE_DEBUG=1 for the traceback.", file=sys.stderr)
+        if os.environ.get("BORESIZE_DEBUG"):
+            raise
+        return 2
+
+
+def print_json(payload: object) -> None:
+    json.dump(payload, sys.stdout, indent=2, ensure_ascii=False)
+    sys.stdout.write("\n")
+
+
+if __name__ == "__main__":  # pragma: no cover
+    sys.exit(main())

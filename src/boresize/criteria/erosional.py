@@ -1,0 +1,64 @@
+"""``erosional``: velocity below the API RP 14E erosional velocity v_e = C / sqrt(rho_m)."""
+
+from __future__ import annotations
+
+import math
+
+from boresize.criteria.base import CriterionContext, Criterion, OptionSpec, verdict
+from boresize.errors import CriteriaFileError
+from boresize.model import Verdict
+
+__all__ = ["C_US_TO_SI", "ErosionalVelocity", "erosional_velocity"]
+
+# C in US units is (ft/s)*(lb/ft3)^0.5. 1 ft = 0.3048 m and 1 lb = 0.45359237 kg exactly (NIST SP 811),
+# so 1 lb/ft3 = 0.45359237 / 0.3048**3 kg/m3 and C_SI = C_US * 0.3048 * sqrt(lb/ft3 in kg/m3) = 1.2199 C_US.
+C_US_TO_SI = 0.3048 * math.sqrt(0.45359237 / 0.3048**3)
+
+
+def erosional_velocity(density: float, c_si: float) -> float:
+    """API RP 14E (5th ed., 1991, section 2.5) erosional velocity [m/s].
+
+    :param density: fluid (or homogeneous mixture) density [kg/m3]
+    :param c_si: empirical constant in SI form, (m/s)*(kg/m3)^0.5; C_US = 100 gives C_SI = 121.99
+
+    >>> round(erosional_velocity(1000.0, 100 * C_US_TO_SI), 3)
+    3.858
+    """
+    return c_si / math.sqrt(density)
+
+
+class ErosionalVelocity(Criterion):
+    id = "erosional"
+    title = "Erosional velocity (API RP 14E)"
+    source = "API RP 14E, 5th ed. (1991), eq. 2.14: v_e = C/sqrt(rho); C = 100 (US units) for continuous service"
+    options = (
+        OptionSpec("c_us", "dimensionless", None, None, "C in (ft/s)(lb/ft3)^0.5; 100 continuous, 125 intermittent"),
+        OptionSpec("c_si", "dimensionless", None, None, "C in (m/s)(kg/m3)^0.5 (= 1.2199 x C in US units)"),
+    )
+
+    def check_options(self, values: dict[str, float], where: str) -> None:
+        if "c_us" in values and "c_si" in values:
+            raise CriteriaFileError(
+                "give C once", field=where, value="c_us and c_si", expected="either c_us or c_si"
+            )
+        for name, value in values.items():
+            if not value > 0:
+                raise CriteriaFileError(f"C must be positive, got {value:g}", field=f"{where}.{name}", value=value,
+                                        expected="a positive number such as c_us = 100")
+
+    def c_si(self, options: dict[str, float] | object) -> float:
+        opts = dict(options)  # type: ignore[call-overload]
+        if "c_si" in opts:
+            return float(opts["c_si"])
+        return float(opts.get("c_us", 100.0)) * C_US_TO_SI
+
+    def evaluate(self, context: CriterionContext) -> Verdict:
+        c_si = self.c_si(context.options)
+        limit = erosional_velocity(context.state.density, c_si)
+        v = context.hydraulics.velocity
+        ok = v <= limit
+        reason = (
+            f"velocity {v:.3g} m/s {'within' if ok else 'above'} the erosional velocity "
+            f"{limit:.3g} m/s (C = {c_si / C_US_TO_SI:.4g} US units, rho = {context.state.density:.4g} kg/m3)"
+        )
+        return verdict(self, "pass" if ok else "fail", reason, value=v, limit=limit, unit="m/s", utilisation=v / limit)

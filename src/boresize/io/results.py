@@ -1,0 +1,108 @@
+"""Results as plain dictionaries: the JSON contract of DESIGN.md, plus the calculation record."""
+
+from __future__ import annotations
+
+from collections.abc import Sequence
+from typing import Any
+
+from boresize import __version__
+from boresize.model import CandidateResult, LineResult, Verdict
+
+__all__ = ["CAUTION", "document", "result_to_dict", "verdict_to_dict", "candidate_to_dict"]
+
+CAUTION = (
+    "boresize results are screening calculations. They must be checked by a competent engineer against the "
+    "applicable codes and the company's standards before use; local codes govern."
+)
+
+
+def _r(value: float | None, digits: int = 6) -> float | None:
+    """Round to ``digits`` significant figures so that the JSON reads well and compares byte for byte."""
+    if value is None:
+        return None
+    return float(f"{value:.{digits}g}")
+
+
+def verdict_to_dict(v: Verdict) -> dict[str, Any]:
+    return {
+        "criterion": v.criterion, "status": v.status, "value": _r(v.value), "limit": _r(v.limit), "unit": v.unit,
+        "utilisation": _r(v.utilisation, 4), "reason": v.reason, "source": v.source,
+    }
+
+
+def candidate_to_dict(c: CandidateResult) -> dict[str, Any]:
+    h = c.hydraulics
+    return {
+        "nps": c.candidate.nps, "schedule": c.candidate.schedule,
+        "inside_diameter_mm": _r(c.candidate.inside_diameter * 1e3), "velocity_m_s": _r(h.velocity),
+        "dp_kpa_per_100m": _r(h.drop_per_length / 10.0), "reynolds": _r(h.reynolds),
+        "friction_factor": _r(h.friction_factor), "regime": h.regime, "passed": c.passed,
+    }
+
+
+def result_to_dict(result: LineResult) -> dict[str, Any]:
+    """One line's entry in the JSON document (keys of DESIGN.md's contract first)."""
+    sel, state, line = result.selected, result.state, result.line
+    h = sel.hydraulics if sel else None
+    entry: dict[str, Any] = {
+        "tag": result.tag,
+        "status": result.status,
+        "mode": result.mode,
+        "nps": sel.candidate.nps if sel else None,
+        "schedule": sel.candidate.schedule if sel else None,
+        "inside_diameter_mm": _r(sel.candidate.inside_diameter * 1e3) if sel else None,
+        "velocity_m_s": _r(h.velocity) if h else None,
+        "dp_kpa_per_100m": _r(h.drop_per_length / 10.0) if h else None,
+        "density_kg_m3": _r(state.density) if state else None,
+        "viscosity_mpa_s": _r(state.viscosity * 1e3) if state else None,
+        "controlling": result.controlling,
+        "utilisation": _r(sel.worst.utilisation, 4) if sel and sel.worst else None,
+        "verdicts": [verdict_to_dict(v) for v in sel.verdicts] if sel else [],
+    }
+    if result.error:
+        entry["error"] = result.error
+        entry["error_field"] = result.error_field
+    entry.update(_record(result))
+    return entry
+
+
+def _record(result: LineResult) -> dict[str, Any]:
+    """What a checker needs to follow the calculation."""
+    sel, state, line = result.selected, result.state, result.line
+    record: dict[str, Any] = {
+        "service": result.service,
+        "criteria_set": result.criteria_set,
+        "notes": list(result.notes),
+    }
+    if line is not None:
+        record.update({
+            "fluid": line.fluid, "pressure_bar_abs": _r(line.pressure / 1e5), "temperature_c": _r(line.temperature - 273.15),
+            "length_m": _r(line.length), "pipe_class": sel.candidate.pipe_class if sel else line.pipe_class,
+            "design_margin": line.design_margin,
+        })
+    if state is not None:
+        record.update({"phase": state.phase, "property_source": state.source, "property_model": state.model,
+                       "vapour_pressure_bar_abs": _r(state.vapour_pressure / 1e5) if state.vapour_pressure else None})
+    if sel is not None:
+        h = sel.hydraulics
+        record.update({
+            "sizing_mass_flow_kg_h": _r(h.mass_flow * 3600.0), "volume_flow_m3_h": _r(h.volume_flow * 3600.0),
+            "reynolds": _r(h.reynolds), "friction_factor": _r(h.friction_factor), "regime": h.regime,
+            "drop_kpa": _r(h.drop / 1e3), "momentum_pa": _r(h.momentum),
+            "first_guess_id_mm": _r(result.first_guess_diameter * 1e3) if result.first_guess_diameter else None,
+            "candidates": [candidate_to_dict(c) for c in result.candidates],
+        })
+    return record
+
+
+def document(results: Sequence[LineResult], *, criteria_source: str, lines_source: str) -> dict[str, Any]:
+    """The whole JSON document: lines in input order, a summary, and the caution."""
+    counts = {status: sum(1 for r in results if r.status == status) for status in ("pass", "fail", "error")}
+    return {
+        "boresize_version": __version__,
+        "lines_source": lines_source,
+        "criteria_source": criteria_source,
+        "summary": {"lines": len(results), **counts},
+        "caution": CAUTION,
+        "lines": [result_to_dict(r) for r in results],
+    }

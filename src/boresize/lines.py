@@ -1,0 +1,138 @@
+"""Turning one line-list row (text cells) into a validated :class:`~boresize.model.Line` in SI.
+
+Header names are case-insensitive and may carry a default unit in brackets (``flow [t/h]``).
+A cell may carry its own unit (``65 t/h``), which wins over the header's. Every dimensional
+field needs a unit from one of the two: a bare number is an error, never a guess.
+"""
+
+from __future__ import annotations
+
+import math
+import re
+from collections.abc import Mapping
+from dataclasses import dataclass
+
+from boresize.errors import InputError
+from boresize.model import Flow, Line
+from boresize.pipes import normalise_nps
+from boresize.units import parse_flow, parse_quantity
+
+__all__ = ["COLUMNS", "Header", "parse_header", "line_from_row", "DEFAULT_LENGTH_M"]
+
+COLUMNS = (
+    "tag", "fluid", "flow", "pressure", "temperature", "length", "service", "pipe_class", "nps",
+    "density", "viscosity", "design_margin", "phase", "backend",
+)
+REQUIRED = ("tag", "fluid", "flow", "pressure", "temperature")
+DEFAULT_LENGTH_M = 100.0
+_HEADER = re.compile(r"^\s*([^\[\]]*?)\s*(?:\[(.*)\])?\s*$")
+
+
+@dataclass(frozen=True)
+class Header:
+    """A column: the field it feeds (lower case, spaces and dashes as ``_``) and its default unit."""
+
+    field: str
+    unit: str | None
+    text: str
+
+
+def parse_header(text: str) -> Header:
+    """``"Flow [t/h]"`` -> Header("flow", "t/h"); ``"Pipe Class"`` -> Header("pipe_class", None)."""
+    match = _HEADER.match(text or "")
+    name = (match.group(1) if match else text).strip().lower()
+    name = re.sub(r"[\s\-]+", "_", name)
+    unit = match.group(2).strip() if match and match.group(2) else None
+    return Header(field=name, unit=unit or None, text=text)
+
+
+def _text(row: Mapping[str, object], name: str) -> str | None:
+    value = row.get(name)
+    if value is None:
+        return None
+    if isinstance(value, float) and math.isnan(value):
+        return None
+    text = str(value).strip()
+    return text or None
+
+
+def _positive(value: float, field: str, raw: object, expected: str) -> float:
+    if not value > 0:
+        raise InputError(f"{raw!r} is not above zero", field=field, value=raw, expected=expected)
+    return value
+
+
+def _flow(raw: str, unit: str | None) -> Flow:
+    flow = parse_flow(raw, "flow", unit)
+    _positive(flow.value, "flow", raw, "a flow above zero, e.g. '65 t/h'")
+    return flow
+
+
+def _optional_quantity(row: Mapping[str, object], units: Mapping[str, str | None], name: str,
+                       kind: str, expected: str) -> float | None:
+    raw = _text(row, name)
+    if raw is None:
+        return None
+    value = parse_quantity(raw, name, kind, units.get(name))  # type: ignore[arg-type]
+    return _positive(value, name, raw, expected)
+
+
+def _choice(row: Mapping[str, object], name: str, allowed: tuple[str, ...]) -> str | None:
+    raw = _text(row, name)
+    if raw is None:
+        return None
+    if raw.lower() not in allowed:
+        raise InputError(f"unknown {name} {raw!r}", field=name, value=raw, expected=f"one of {', '.join(allowed)}")
+    return raw.lower()
+
+
+def line_from_row(row: Mapping[str, object], units: Mapping[str, str | None] | None = None,
+                  position: int | None = None) -> Line:
+    """Validate one row (field name -> cell) into a Line.
+
+    :param units: default unit per field, from the header brackets
+    :param position: 1-based row number, used to name a line that has no tag
+    :raises InputError: naming the line, the field, the value and what was expected
+    """
+    units = units or {}
+    tag = _text(row, "tag") or (f"row {position}" if position is not None else "(untagged)")
+    try:
+        for name in REQUIRED:
+            if _text(row, name) is None:
+                raise InputError("missing value", field=name, value="", expected=_EXPECTED[name])
+        length = _optional_quantity(row, units, "length", "length", "a length above zero, e.g. '120 m'")
+        margin_raw = _text(row, "design_margin")
+        margin = parse_quantity(margin_raw, "design_margin", "dimensionless") if margin_raw else None
+        if margin is not None and not 0 <= margin < 1:
+            raise InputError(f"{margin_raw!r} is outside 0 to 100 %", field="design_margin", value=margin_raw,
+                             expected="a fraction of the flow such as '10 %' or 0.1")
+        nps_raw = _text(row, "nps")
+        return Line(
+            tag=tag,
+            fluid=str(_text(row, "fluid")),
+            flow=_flow(str(_text(row, "flow")), units.get("flow")),
+            pressure=parse_quantity(_text(row, "pressure"), "pressure", "pressure", units.get("pressure")),
+            temperature=parse_quantity(_text(row, "temperature"), "temperature", "temperature",
+                                       units.get("temperature")),
+            length=length if length is not None else DEFAULT_LENGTH_M,
+            service=_text(row, "service"),
+            pipe_class=_text(row, "pipe_class"),
+            nps=normalise_nps(nps_raw) if nps_raw else None,
+            density=_optional_quantity(row, units, "density", "density", "a density above zero, e.g. '850 kg/m3'"),
+            viscosity=_optional_quantity(row, units, "viscosity", "viscosity", "a viscosity above zero, e.g. '1.2 cP'"),
+            design_margin=margin,
+            phase=_choice(row, "phase", ("liquid", "gas")),  # type: ignore[arg-type]
+            backend=_text(row, "backend"),
+            extra=tuple((k, str(v)) for k, v in row.items() if k not in COLUMNS and v not in (None, "")),
+        )
+    except InputError as exc:
+        raise exc.for_line(tag) from None
+
+
+_EXPECTED = {
+    "tag": "a line tag such as '6\"-P-1001'",
+    "fluid": "a fluid name (water, methane), CoolProp name or CAS number",
+    "flow": "a flow with its unit, e.g. '65 t/h', '120 m3/h' or '2 MMSCFD'",
+    "pressure": "an inlet pressure with its unit, e.g. '10 barg' or '1100 kPa' (bare bar/kPa are absolute)",
+    "temperature": "a temperature with its unit, e.g. '40 degC'",
+}

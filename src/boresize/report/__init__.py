@@ -1,0 +1,1 @@
+"""Human-readable output: the line table and the listings of criteria and pipes."""

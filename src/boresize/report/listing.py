@@ -1,0 +1,60 @@
+"""Listings for ``boresize criteria`` and ``boresize pipes``."""
+
+from __future__ import annotations
+
+from boresize.config import SizingConfig
+from boresize.plugins import PluginHost
+
+__all__ = ["render_criteria", "render_pipe_classes", "render_nps"]
+
+
+def _fmt(value: float) -> str:
+    return f"{value:.4g}"
+
+
+def render_criteria(host: PluginHost, config: SizingConfig) -> str:
+    out = ["Installed criteria:"]
+    for c in host.criteria:
+        out.append(f"  {c.id:<18} {c.title}  [plugin {host.criteria.owner(c.id)}]")
+        for spec in c.options:
+            unit = f" [{spec.default_unit}]" if spec.default_unit else ""
+            out.append(f"      {spec.name}{unit}: {spec.help}")
+    out.append("")
+    out.append(f"Criteria sets by service (set {config.version}; from {config.origin}):")
+    for name in config.service_names():
+        service = config.services[name]
+        phase = f" ({service.phase})" if service.phase else ""
+        out.append(f"  {name}{phase}: {service.description}")
+        for criterion, options in service.criteria:
+            shown = ", ".join(f"{k}={_fmt(v)} SI" for k, v in options.items()) or "defaults"
+            out.append(f"      {criterion.id}: {shown}")
+    out.append("")
+    out.append("A line without a service gets 'liquid' or 'gas' by its phase.")
+    return "\n".join(out) + "\n"
+
+
+def render_pipe_classes(config: SizingConfig) -> str:
+    out = ["Pipe classes:"]
+    for name in sorted(config.pipe_classes):
+        pc = config.pipe_classes[name]
+        out.append(f"  {name}: {pc.material}, schedule {pc.schedule}, roughness {pc.roughness * 1e3:g} mm")
+        overrides = ", ".join(f"{nps}: {sch}" for nps, sch in pc.schedule_by_nps)
+        if overrides:
+            out.append(f"      schedule overrides: {overrides}")
+        out.append(f"      sizes: {', '.join(pc.sizes)}" + (f" (minimum {pc.min_nps})" if pc.min_nps else ""))
+    out.append("")
+    out.append("Use 'boresize pipes --nps 4' for the schedules of one size (ASME B36.10M / B36.19M).")
+    return "\n".join(out) + "\n"
+
+
+def render_nps(nps: str) -> str:
+    from boresize.pipes import load_catalogue, normalise_nps
+
+    catalogue = load_catalogue()
+    label = normalise_nps(nps)
+    out = [f"NPS {label}:", f"  {'schedule':<9} {'OD mm':>8} {'wall mm':>8} {'ID mm':>8}  standard"]
+    for schedule in catalogue.schedules(label):
+        size = catalogue.get(label, schedule)
+        out.append(f"  {schedule:<9} {size.outside_diameter * 1e3:8.1f} {size.wall * 1e3:8.2f} "
+                   f"{size.inside_diameter * 1e3:8.2f}  {size.standard}")
+    return "\n".join(out) + "\n"

@@ -1,0 +1,431 @@
+"""The one pint registry of boresize, and the parsing of what engineers type into SI floats.
+
+Everything a user types ("65 t/h", "10 barg", "20 °C", "50 kPa/100 m") passes through
+:func:`parse_quantity` or :func:`parse_flow` once, at the edge; inside boresize every number is a
+plain SI float (kg, m, s, Pa absolute, K).
+
+Rules the parser applies (pint alone gets each of them wrong or refuses them):
+
+* The number and the unit are split here, not by pint: offset units (gauge pressures, degC)
+  cannot be multiplied, and pint reads "40 kPa/100 m" as 0.4 kPa*m. A number inside a unit
+  ("/100 m", "/100 ft") divides by the whole group.
+* Pressure: ``bar``, ``kPa``, ``MPa``, ``psi`` without a suffix are ABSOLUTE (as are ``bara``,
+  ``psia`` ...). A ``g`` suffix (``barg``, ``kPa(g)``, ``psig``, ``kg/cm2g``) adds one standard
+  atmosphere, 101325 Pa. A pressure difference or a drop per length takes neither suffix.
+* Temperature: degC, °C, C, degF, °F, F, K, degR; a bare C or F is a degree only in a
+  temperature field (elsewhere C is the coulomb). A temperature difference reads degC and degF
+  as intervals (1 degF = 5/9 K).
+* Standard gas volumes are their own dimensions, one per reference state, so that pint never
+  converts Nm3 to Sm3 without the temperature ratio: ``Sm3`` (15 degC, 101.325 kPa, ISO 13443),
+  ``Nm3`` (0 degC, 101.325 kPa, DIN 1343), ``scf`` (60 degF, 14.696 psia, the oil and gas
+  convention; some US contracts use 14.73 psia: give Sm3 or a mass flow when that matters).
+* Trade spellings: m3, m³, t/h, te/h, mPa.s, mPa·s, cP, gpm (US gallons), bbl (oil barrel,
+  42 US gal), MMSCFD (1e6 scf/d), Mscf (1000 scf, not pint's mega). Spellings that mean two
+  things are refused with a hint: "Mpa"/"mpa"/"MPA" (MPa or mPa?), "ton" (short ton or tonne?),
+  "nm3" (nanometre³ or Nm3?).
+* Decimal commas and thousands separators are refused ("1,5" and "1,500" mean different things
+  in different countries).
+"""
+
+from __future__ import annotations
+
+import functools
+import math
+import numbers
+import re
+from dataclasses import dataclass
+from tokenize import TokenError
+from typing import TYPE_CHECKING, Literal
+
+from boresize.errors import InputError, UnitError
+from boresize.model import Flow
+
+if TYPE_CHECKING:  # pint costs 0.2-0.3 s to import: it loads with the registry, on first use
+    import pint
+
+__all__ = [
+    "ATMOSPHERE",
+    "QuantityKind",
+    "STANDARD_CONDITIONS",
+    "registry",
+    "parse_quantity",
+    "parse_flow",
+    "format_unit_help",
+]
+
+QuantityKind = Literal["mass_flow", "volume_flow", "pressure", "pressure_difference", "temperature",
+                       "temperature_difference", "length", "density", "viscosity", "velocity",
+                       "drop_per_length", "dimensionless"]
+
+ATMOSPHERE = 101325.0  # [Pa] standard atmosphere, exact (NIST SP 811, App. B): the zero of every gauge unit
+_PSI = 6894.757293168361  # [Pa] 1 lbf/in2 = 0.45359237 kg * 9.80665 m/s2 / 0.0254**2 m2 (NIST SP 811, App. B)
+
+#: Reference states of the standard volume units: name -> (T [K], P [Pa abs], label).
+STANDARD_CONDITIONS: dict[str, tuple[float, float, str]] = {
+    "Sm3": (288.15, ATMOSPHERE, "15 degC, 101.325 kPa (ISO 13443 standard conditions)"),
+    "Nm3": (273.15, ATMOSPHERE, "0 degC, 101.325 kPa (DIN 1343 normal conditions)"),
+    "scf": ((60.0 + 459.67) / 1.8, 14.696 * _PSI, "60 degF, 14.696 psia"),
+}
+# pint unit in which each family's SI value (m3 at its own reference state) is expressed
+_STANDARD_SI = {"Sm3": "Sm3/s", "Nm3": "Nm3/s", "scf": "m3_60F/s"}
+
+# kind -> (SI unit for pint, noun, examples)
+_KINDS: dict[str, tuple[str, str, str]] = {
+    "mass_flow": ("kg/s", "a mass flow", "kg/h, t/h, kg/s, lb/h"),
+    "volume_flow": ("m**3/s", "a volume flow", "m3/h, l/min, gpm"),
+    "pressure": ("Pa", "a pressure", "barg, bar, kPag, kPa, psig, psia; bar, kPa, MPa and psi "
+                 "without a g are absolute"),
+    "pressure_difference": ("Pa", "a pressure difference", "bar, kPa, psi, without g or a"),
+    "temperature": ("K", "a temperature", "degC, °C, C, degF, °F, F, K"),
+    "temperature_difference": ("K", "a temperature difference", "K, degC, degF"),
+    "length": ("m", "a length", "m, mm, km, ft, in"),
+    "density": ("kg/m**3", "a density", "kg/m3, g/cm3, lb/ft3"),
+    "viscosity": ("Pa*s", "a dynamic viscosity", "cP, mPa s, Pa s"),
+    "velocity": ("m/s", "a velocity", "m/s, ft/s"),
+    "drop_per_length": ("Pa/m", "a pressure drop per length", "kPa/100 m, bar/km, psi/100 ft, Pa/m"),
+    "dimensionless": ("dimensionless", "a plain number", "0.1, 10 %"),
+}
+_STANDARD_HELP = "a standard gas volume flow (Sm3/h, Nm3/h, MMSCFD)"
+_FLOW_HELP = (f"{_KINDS['mass_flow'][1]} ({_KINDS['mass_flow'][2]}), {_KINDS['volume_flow'][1]} "
+              f"({_KINDS['volume_flow'][2]}) or {_STANDARD_HELP}")
+
+_DEFINITIONS = """
+barg = bar; offset: 1.01325
+bara = bar
+kPag = kPa; offset: 101.325
+kPaa = kPa
+MPag = MPa; offset: 0.101325
+MPaa = MPa
+psig = psi; offset: 14.695948775513449
+psia = psi
+kgcm2g = technical_atmosphere; offset: 1.0332274527998859
+kgcm2a = technical_atmosphere
+standard_cubic_metre = [iso_standard_volume] = Sm3
+normal_cubic_metre = [normal_volume] = Nm3
+cubic_metre_60F = [standard_volume_60F] = m3_60F
+standard_cubic_foot = 0.028316846592 * cubic_metre_60F = scf
+MMSCFD = 1e6 * scf / day = MMscfd
+gpm = gallon / minute
+kPa_per_100m = 10 * Pa / m
+bar_per_km = 100 * Pa / m
+psi_per_100ft = 0.01 * psi / ft
+"""
+_GAUGE = ("barg", "kPag", "MPag", "psig", "kgcm2g")
+_ABSOLUTE = ("bara", "kPaa", "MPaa", "psia", "kgcm2a")
+
+
+@functools.cache
+def registry() -> pint.UnitRegistry:
+    """The process-wide unit registry, built on first call (0.2-0.3 s with the pint import).
+
+    Adds gauge/absolute pressures (barg, bara, kPag, kPaa, MPag, psig, psia, kgcm2g), the
+    standard-volume units (Sm3, Nm3, scf, MMSCFD), m3/m2 spellings, gpm (US), and the display units
+    kPa_per_100m, bar_per_km, psi_per_100ft.
+    """
+    import pint
+
+    try:
+        ureg = pint.UnitRegistry(cache_folder=":auto:")
+    except OSError:  # cache folder not writable: build without it
+        ureg = pint.UnitRegistry()
+    lines = [line for line in _DEFINITIONS.splitlines() if line]
+    for prefix in ("", "d", "c", "m", "u", "k"):  # explicit, or pint reads cm3 as centi-(m3)
+        lines += [f"{prefix}m3 = {prefix}m**3", f"{prefix}m2 = {prefix}m**2"]
+    for line in lines:
+        ureg.define(line)
+    return ureg
+
+
+def format_unit_help(kind: QuantityKind) -> str:
+    """What a field of ``kind`` accepts, for messages: e.g. "a mass flow (kg/h, t/h, kg/s, lb/h)"."""
+    return _help(kind)
+
+
+def _help(kind: str) -> str:
+    if kind == "flow":
+        return _FLOW_HELP
+    _, noun, examples = _KINDS[kind]
+    return f"{noun} ({examples})"
+
+
+# ---------------------------------------------------------------------------------------------
+# Spelling normalisation (text -> pint expression)
+
+_AMBIGUOUS = {
+    "Mpa": "MPa (megapascal, a pressure) or mPa (millipascal, as in mPa s)",
+    "ton": "t for the metric tonne (1000 kg); 'ton' is also the US short ton (907 kg)",
+    "nm3": "Nm3 for normal cubic metres ('nm3' reads as cubic nanometres)",
+}
+_AMBIGUOUS.update({"mpa": _AMBIGUOUS["Mpa"], "MPA": _AMBIGUOUS["Mpa"], "tons": _AMBIGUOUS["ton"]})
+
+_ALIASES: dict[str, str] = {
+    "SM3": "Sm3", "sm3": "Sm3", "NM3": "Nm3", "SCF": "scf",
+    "scfd": "(scf/day)", "scfh": "(scf/hour)", "scfm": "(scf/minute)",
+    "Mscf": "(1000*scf)", "mscf": "(1000*scf)", "MMscf": "(1e6*scf)", "mmscf": "(1e6*scf)",
+    "Mscfd": "(1000*scf/day)", "mscfd": "(1000*scf/day)", "MMSCFD": "(1e6*scf/day)",
+    "MMscfd": "(1e6*scf/day)", "mmscfd": "(1e6*scf/day)", "MMSCMD": "(1e6*Sm3/day)",
+    "MMscmd": "(1e6*Sm3/day)", "mmscmd": "(1e6*Sm3/day)",
+    "te": "t", "tonne": "t", "tonnes": "t", "lbs": "lb", "lbm": "lb", "klbs": "klb",
+    "hr": "hour", "hrs": "hour", "Hr": "hour", "HR": "hour", "KG": "kg", "Kg": "kg", "M3": "m**3",
+    "gpm": "(gallon/minute)", "USgpm": "(gallon/minute)", "usgpm": "(gallon/minute)", "lpm": "(L/minute)",
+    "bbl": "oil_barrel", "bpd": "(oil_barrel/day)", "BPD": "(oil_barrel/day)",
+    "cp": "centipoise", "cP": "centipoise", "CP": "centipoise", "cps": "centipoise",
+    "mPas": "(mPa*s)", "Pas": "(Pa*s)", "pct": "percent", "%": "percent",
+    "kpa": "kPa", "KPa": "kPa", "KPA": "kPa", "Kpa": "kPa", "Bar": "bar", "BAR": "bar",
+    "PSI": "psi", "Psi": "psi",
+}
+for _word in ("SCFD", "SCFH", "SCFM", "MSCF", "MMSCF", "MSCFD", "BBL", "GPM", "USGPM", "LPM"):
+    _ALIASES[_word] = _ALIASES[_word.lower()]
+for _spelling, _stem in [("bar", "bar"), ("Bar", "bar"), ("BAR", "bar"), ("kPa", "kPa"), ("kpa", "kPa"),
+                         ("KPa", "kPa"), ("KPA", "kPa"), ("MPa", "MPa"), ("psi", "psi"), ("PSI", "psi"),
+                         ("Psi", "psi")]:
+    for _suffix, _mark in (("g", "g"), ("G", "g"), ("a", "a"), ("A", "a")):
+        _ALIASES[_spelling + _suffix] = _stem + _mark
+
+_POWER = re.compile(r"(m|dm|cm|mm|um|km|ft|in|yd)([23])")
+_TOKEN = re.compile(r"[A-Za-z_][A-Za-z_0-9]*|%")
+_PER_NUMBER = re.compile(r"/\s*(\d+(?:\.\d+)?(?:[eE][+-]?\d+)?)\s*\*?\s*([A-Za-z_][A-Za-z_0-9]*(?:\*\*\d)?)")
+_MARKED = re.compile(r"^(bar|kpa|mpa|psi|kgf?/cm2)\s*[\(\[]?\s*([ga])\s*[\)\]]?$", re.IGNORECASE)
+_ALLOWED = re.compile(r"[A-Za-z0-9_ */()^.%+-]*")
+_WHOLE_TEMPERATURE = {"C": "degC", "F": "degF", "R": "degR", "celsius": "degC", "fahrenheit": "degF",
+                      "Celsius": "degC", "Fahrenheit": "degF", "kelvin": "K"}
+_DELTA = {"degC": "delta_degC", "degF": "delta_degF"}
+_OFFSET = frozenset(_GAUGE) | {"degC", "degF", "delta_degC", "delta_degF"}
+
+
+@dataclass(frozen=True)
+class _Cell:
+    """What the user gave, for messages: field, raw value, kind and the text as shown."""
+
+    field: str
+    value: object
+    kind: str
+    shown: str = ""
+
+    def error(self, message: str, expected: str | None = None,
+              cls: type[InputError] = UnitError) -> InputError:
+        """An error naming the field and the value; ``expected`` defaults to the kind's help."""
+        return cls(message, field=self.field, value=self.value, expected=expected or _help(self.kind))
+
+
+def _replace_unicode(text: str) -> str:
+    """Unicode the trade types (m³, mPa·s, °C, µm) -> ASCII pint reads; "deg C" -> "degC"."""
+    for old, new in (("³", "3"), ("²", "2"), ("·", "*"), ("⋅", "*"), ("×", "*"), ("µ", "u"),
+                     ("μ", "u"), ("º", "°"), ("℃", "degC"), ("℉", "degF"), ("−", "-"), ("°", "deg")):
+        text = text.replace(old, new)
+    text = re.sub(r"\bdeg\s+([CFR])\b", r"deg\1", text)
+    return re.sub(r"(?<=[A-Za-z)])\.(?=[A-Za-z(])", "*", text)  # mPa.s -> mPa*s
+
+
+def _marked_pressure(unit: str) -> str | None:
+    """"bar(g)", "kPa a", "kg/cm2g" -> barg, kPaa, kgcm2g (ambiguous MPa casings are left alone)."""
+    match = _MARKED.match(unit)
+    if match is None or (match.group(1).lower() == "mpa" and match.group(1) != "MPa"):
+        return None
+    stem = match.group(1).lower()
+    stem = {"kpa": "kPa", "mpa": "MPa"}.get(stem, "kgcm2" if "/" in stem else stem)
+    return stem + match.group(2).lower()
+
+
+def _token(word: str, cell: _Cell) -> str:
+    if word in _AMBIGUOUS:
+        raise cell.error(f"unit '{word}' in '{cell.shown}' is ambiguous", _AMBIGUOUS[word])
+    if word in _ALIASES:
+        return _ALIASES[word]
+    power = _POWER.fullmatch(word)
+    return f"{power.group(1)}**{power.group(2)}" if power else word
+
+
+def _normalise(unit: str, cell: _Cell) -> str:
+    """Turn a trade spelling of a unit into an expression pint reads correctly."""
+    unit = _replace_unicode(unit.strip().strip("[]").strip())
+    marked = _marked_pressure(unit)
+    if marked is not None:
+        return marked
+    if re.fullmatch(r"kgf?/cm2", unit, re.IGNORECASE):
+        return "kgcm2a"
+    if not _ALLOWED.fullmatch(unit):
+        raise cell.error(f"unknown unit in '{cell.shown}'")
+    if cell.kind in ("temperature", "temperature_difference"):
+        unit = _WHOLE_TEMPERATURE.get(unit, unit)
+        return _DELTA.get(unit, unit) if cell.kind == "temperature_difference" else unit
+    if cell.kind == "dimensionless" and unit in ("-", "frac", "fraction"):
+        return "dimensionless"
+    unit = _TOKEN.sub(lambda match: _token(match.group(0), cell), unit)
+    return _PER_NUMBER.sub(r"/(\1*\2)", unit)  # kPa/100 m -> kPa/(100*m)
+
+
+# ---------------------------------------------------------------------------------------------
+# Number and quantity
+
+_NUMBER = re.compile(r"\s*([+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?)(.*)", re.DOTALL)
+_NOT_FINITE = re.compile(r"\s*[+-]?(nan|inf|infinity)\b", re.IGNORECASE)
+_NUMBER_EXAMPLE = {"flow": "65 t/h", "pressure": "10 barg", "temperature": "20 degC"}
+_SEPARATOR_HELP = ("digits with a decimal point and no thousands separator (1500, 1.5); a comma is "
+                   "refused because '1,5' is a decimal comma in much of the world")
+
+
+def _split(text: str, cell: _Cell) -> tuple[float, str]:
+    """Split "65 t/h" into (65.0, "t/h"), refusing separators, NaN and infinity."""
+    match = _NUMBER.fullmatch(text)
+    if match is None:
+        if _NOT_FINITE.match(text):
+            raise cell.error(f"'{cell.shown}' is not a finite number", "a finite number", InputError)
+        raise cell.error(f"'{cell.shown}' does not start with a number", _example(cell.kind), InputError)
+    number, rest = match.group(1), match.group(2).strip()
+    if rest.startswith(",") or rest[:1].isdigit():
+        raise cell.error(f"'{cell.shown}' has a comma or a separator in the number", _SEPARATOR_HELP,
+                         InputError)
+    return _finite(float(number), cell), rest
+
+
+def _example(kind: str) -> str:
+    example = _NUMBER_EXAMPLE.get(kind, f"1 {_KINDS[kind][2].split(',')[0]}" if kind in _KINDS else "1")
+    return f"a number and a unit, e.g. '{example}'"
+
+
+def _finite(number: float, cell: _Cell) -> float:
+    if not math.isfinite(number):
+        raise cell.error(f"'{cell.shown}' is not a finite number", "a finite number", InputError)
+    return number
+
+
+def _number_and_unit(cell: _Cell) -> tuple[float, str, _Cell]:
+    """(number, unit text, cell with the text as shown) of a string or a real number (numpy too)."""
+    value = cell.value
+    if value is None or (isinstance(value, str) and not value.strip()):
+        raise cell.error("no value given", cls=InputError)
+    if isinstance(value, str):
+        cell = _Cell(cell.field, value, cell.kind, value.strip())
+        number, unit = _split(value, cell)
+        return number, unit, cell
+    if isinstance(value, bool) or not isinstance(value, numbers.Real):
+        raise cell.error(f"{value!r} is not a number", _example(cell.kind), InputError)
+    shown = str(int(value)) if isinstance(value, numbers.Integral) else repr(float(value))
+    cell = _Cell(cell.field, value, cell.kind, shown)
+    try:
+        return _finite(float(value), cell), "", cell
+    except OverflowError:  # an int beyond the float range
+        raise cell.error(f"'{shown}' is not a finite number", "a finite number", InputError) from None
+
+
+def _quantity(value: object, field: str, kind: str, default_unit: str | None) -> tuple[pint.Quantity, _Cell]:
+    """Parse a cell into a pint Quantity (the unit in the cell wins over ``default_unit``)."""
+    number, unit, cell = _number_and_unit(_Cell(field, value, kind))
+    default = (default_unit or "").strip().strip("[]").strip()
+    if not unit and default:
+        unit, cell = default, _Cell(field, value, kind, f"{cell.shown} [{default}]")
+    elif not unit and kind == "dimensionless":
+        return registry().Quantity(number, "dimensionless"), cell
+    elif not unit:
+        raise cell.error(f"missing unit in '{cell.shown}'")
+    expression = _normalise(unit, cell)
+    words = set(_TOKEN.findall(expression))
+    if kind in ("pressure_difference", "drop_per_length"):
+        for names, what in ((_GAUGE, "a gauge pressure"), (_ABSOLUTE, "an absolute pressure")):
+            if words.intersection(names):
+                noun = _KINDS[kind][1]
+                raise cell.error(f"'{cell.shown}' is {what}, but {noun} is neither gauge nor absolute")
+    if kind == "viscosity" and "MPa" in words:  # 1 MPa s = 1e6 Pa s: a typo for mPa s
+        raise cell.error(f"'{cell.shown}' is in megapascal-seconds (1 MPa s = 1e6 Pa s)",
+                         f"{_help(kind)}; mPa s with a small m is the millipascal")
+    return _build(number, expression, cell), cell
+
+
+def _build(number: float, expression: str, cell: _Cell) -> pint.Quantity:
+    """``number`` times the unit ``expression``, with pint's faults turned into UnitError."""
+    import pint  # already loaded by registry()
+
+    ureg = registry()
+    try:
+        if expression in _OFFSET:  # offset units are built, never multiplied
+            return ureg.Quantity(number, expression)
+        return ureg.Quantity(number) * ureg.parse_expression(expression)
+    except pint.UndefinedUnitError as exc:
+        names = ", ".join(f"'{name}'" for name in exc.unit_names)
+        raise cell.error(f"unknown unit {names} in '{cell.shown}'") from exc
+    except pint.OffsetUnitCalculusError as exc:
+        raise cell.error(f"'{cell.shown}' combines a gauge or degC/degF unit with other units") from exc
+    except (pint.PintError, TokenError, AssertionError, SyntaxError, TypeError, ValueError) as exc:
+        raise cell.error(f"cannot read the unit of '{cell.shown}'") from exc
+
+
+# ---------------------------------------------------------------------------------------------
+# Dimension check and the public parsers
+
+_DESCRIPTIONS = (("kg/s", "a mass flow"), ("m**3/s", "a volume flow"), ("Pa", "a pressure"),
+                 ("K", "a temperature"), ("m", "a length"), ("kg/m**3", "a density"),
+                 ("Pa*s", "a dynamic viscosity"), ("m**2/s", "a kinematic viscosity"),
+                 ("m/s", "a velocity"), ("Pa/m", "a pressure drop per length"), ("kg", "a mass"),
+                 ("m**3", "a volume"), ("m**2", "an area"), ("s", "a time"), ("1/s", "a rate per time"),
+                 ("dimensionless", "a plain number"), ("Sm3", "a standard gas volume"),
+                 ("Nm3", "a standard gas volume"), ("scf", "a standard gas volume"),
+                 ("Sm3/s", "a standard gas volume flow"), ("Nm3/s", "a standard gas volume flow"),
+                 ("scf/s", "a standard gas volume flow"))
+
+
+@functools.cache
+def _dimension(expression: str) -> object:
+    """The pint dimensionality of a unit expression (cached)."""
+    return registry().parse_expression(expression).dimensionality
+
+
+def _wrong_dimension(quantity: pint.Quantity, noun: str, cell: _Cell) -> InputError:
+    """The error for a quantity of the wrong kind, saying in the trade's words what it is."""
+    found = {_dimension(si): name for si, name in _DESCRIPTIONS}.get(quantity.dimensionality)
+    what = found or f"a quantity of dimension {quantity.dimensionality}"
+    expected = _help(cell.kind)
+    if what == "a kinematic viscosity" and cell.kind == "viscosity":
+        expected += "; multiply a kinematic viscosity by the density to get it"
+    return cell.error(f"'{cell.shown}' is {what}, not {noun}", expected)
+
+
+def parse_quantity(value: str | float | int | None, field: str, kind: QuantityKind,
+                   default_unit: str | None = None) -> float:
+    """Parse a cell such as "10 barg" into an SI float, checking its dimension against ``kind``.
+
+    Returns, by kind: mass_flow [kg/s], volume_flow [m3/s, actual], pressure [Pa ABSOLUTE: a bare
+    bar/kPa/MPa/psi is absolute, a g suffix adds 101325 Pa], pressure_difference [Pa],
+    temperature [K], temperature_difference [K], length [m], density [kg/m3], viscosity [Pa s],
+    velocity [m/s], drop_per_length [Pa/m], dimensionless [-] ("10 %" -> 0.1).
+
+    :param value: the cell ("65 t/h"), or a bare number that takes ``default_unit``
+    :param field: the field name used in error messages
+    :param kind: what the field holds
+    :param default_unit: unit of a bare number, e.g. from a header "flow [t/h]" (brackets allowed)
+    :raises InputError: no value, not a number, NaN/inf, separators, pressure <= 0 Pa abs, T <= 0 K
+    :raises UnitError: missing, unknown or ambiguous unit, wrong dimension, gauge unit on a difference
+    """
+    quantity, cell = _quantity(value, field, kind, default_unit)
+    si, noun, _ = _KINDS[kind]
+    if quantity.dimensionality != _dimension(si):
+        raise _wrong_dimension(quantity, noun, cell)
+    result = float(quantity.to(si).magnitude)
+    if kind == "pressure" and result <= 0.0:
+        raise cell.error(f"absolute pressure must be above zero: '{cell.shown}' is {result:g} Pa abs",
+                         "a pressure above 0 Pa abs (a g suffix adds 101.325 kPa)", InputError)
+    if kind == "temperature" and result <= 0.0:
+        raise cell.error(f"'{cell.shown}' is {result:g} K, at or below absolute zero",
+                         "a temperature above 0 K (-273.15 degC)", InputError)
+    return result
+
+
+def parse_flow(value: str | float | int | None, field: str = "flow", default_unit: str | None = None) -> Flow:
+    """Parse a flow cell into a :class:`~boresize.model.Flow` with its basis.
+
+    mass [kg/s] (kg/h, t/h, lb/h, klb/h, t/d ...), volume [m3/s at line conditions] (m3/h, l/min,
+    gpm, bbl/d, ft3/s ...) or standard-volume [m3/s at the reference state named by the unit,
+    see :data:`STANDARD_CONDITIONS`] (Sm3/h, Nm3/h, scfm, MMSCFD ...). A flow <= 0 is returned
+    as is (the line validator judges it); a wrong dimension raises :class:`UnitError`.
+    """
+    quantity, cell = _quantity(value, field, "flow", default_unit)
+    dimension = quantity.dimensionality
+    if dimension == _dimension("kg/s"):
+        return Flow("mass", float(quantity.to("kg/s").magnitude))
+    if dimension == _dimension("m**3/s"):
+        return Flow("volume", float(quantity.to("m**3/s").magnitude))
+    for name, si in _STANDARD_SI.items():
+        if dimension == _dimension(si):
+            temperature, pressure, label = STANDARD_CONDITIONS[name]
+            return Flow("standard-volume", float(quantity.to(si).magnitude), temperature, pressure, label)
+    raise _wrong_dimension(quantity, "a flow", cell)
