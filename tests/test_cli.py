@@ -111,3 +111,11 @@ def test_console_script_runs_without_traceback(tmp_path):
     assert proc.returncode == 1
     assert "Traceback" not in proc.stderr + proc.stdout
     assert "flow" in proc.stdout
+
+
+@pytest.mark.parametrize("argv", [["--help"], ["size", "--help"], ["criteria", "--help"], ["pipes", "--help"]])
+def test_every_help_page_prints(argv, capsys):
+    with pytest.raises(SystemExit) as info:
+        main(argv)
+    assert info.value.code == 0
+    assert "usage: boresize" in capsys.readouterr().out

@@ -29,7 +29,7 @@ SINGLE_LINE_FIELDS = (
     ("temperature", "temperature: '40 degC', '313 K', '100 degF'"), ("length", "straight length: '120 m'"),
     ("service", "criteria set (see 'boresize criteria')"), ("pipe-class", "pipe class (see 'boresize pipes')"),
     ("nps", "check this NPS instead of sizing"), ("density", "given density: '850 kg/m3'"),
-    ("viscosity", "given viscosity: '1.2 cP'"), ("design-margin", "margin on flow: '10 %'"),
+    ("viscosity", "given viscosity: '1.2 cP'"), ("design-margin", "margin on flow: '10 %%'"),
     ("phase", "liquid or gas: what the line must carry"), ("backend", "property backend id"),
 )
 
@@ -62,19 +62,9 @@ def build_parser() -> argparse.ArgumentParser:
 
 
 def main(argv: Sequence[str] | None = None) -> int:
-    parser = build_parser()
-    args = parser.parse_args(argv)
-    if args.command is None:
-        parser.print_help()
-        return 2
     try:
-        from boresize import commands
-
-        return int(getattr(commands, f"run_{args.command}")(args))
-    except UsageError as exc:
-        print(f"boresize: error: {exc}", file=sys.stderr)
-        return 2
-    except BoresizeError as exc:
+        return _dispatch(build_parser(), argv)
+    except (UsageError, BoresizeError) as exc:
         print(f"boresize: error: {exc}", file=sys.stderr)
         return 2
     except KeyboardInterrupt:
@@ -86,6 +76,16 @@ def main(argv: Sequence[str] | None = None) -> int:
         if os.environ.get("BORESIZE_DEBUG"):
             raise
         return 2
+
+
+def _dispatch(parser: argparse.ArgumentParser, argv: Sequence[str] | None) -> int:
+    args = parser.parse_args(argv)
+    if args.command is None:
+        parser.print_help()
+        return 2
+    from boresize import commands
+
+    return int(getattr(commands, f"run_{args.command}")(args))
 
 
 def print_json(payload: object) -> None:

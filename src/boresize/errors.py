@@ -52,7 +52,7 @@ class InputError(BoresizeError, ValueError):
     def _render(self) -> str:
         parts = []
         if self.tag:
-            parts.append(f"line {self.tag}: ")
+            parts.append(f"{self.tag}: " if self.tag.startswith("row ") else f"line {self.tag}: ")
         if self.field:
             parts.append(f"{self.field}: ")
         parts.append(self.message)

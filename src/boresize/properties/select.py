@@ -28,6 +28,13 @@ def choose_backend(host: PluginHost, line: Line) -> Any:
     for backend in host.backends:
         if backend.id != "table" and backend.handles(line):
             return backend
+    for backend in host.backends:  # let a backend that resolves names explain (close matches)
+        resolve = getattr(backend, "resolve", None)
+        if resolve is not None and line.density is None and line.viscosity is None:
+            try:
+                resolve(line.fluid)
+            except InputError as exc:
+                raise exc.for_line(line.tag) from None
     given = "density" if line.density is not None else "viscosity" if line.viscosity is not None else None
     hint = f"; {given} was given but not both density and viscosity" if given else ""
     raise InputError(f"no property backend knows fluid {line.fluid!r}{hint}", field="fluid", value=line.fluid,
