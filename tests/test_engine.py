@@ -158,3 +158,44 @@ def test_unknown_service_lists_the_known_ones(sizer):
     assert result.status == "error"
     assert result.error.startswith("line S-1: service: unknown service 'slurry'; expected one of ")
     assert "pump-suction" in result.error
+
+
+def test_optional_line_fields_are_parsed_in_si():
+    line = line_from_row(_row("O-1", flow="10 t/h", elevation="-3 m", fittings="elbow-90-lr: 4; gate",
+                              fixed_drop="0.5 bar", min_outlet_pressure="2 barg", source_pressure="0.2 barg",
+                              liquid_level="4 m", npsh_required="3 m", roughness="0.5 mm", case="maximum"))
+    # 0.5 bar = 50 kPa and 2 barg = 301.325 kPa abs (1 bar = 100 kPa, 1 atm = 101.325 kPa by definition)
+    assert (line.elevation, line.fixed_drop, line.min_outlet_pressure) == (-3.0, 50_000.0, pytest.approx(301_325.0))
+    assert line.fittings == (("elbow-90-lr", 4.0), ("gate", 1.0))
+    assert (line.liquid_level, line.npsh_required, line.roughness, line.case) == (4.0, 3.0, pytest.approx(5e-4), "maximum")
+
+
+def test_a_bad_fitting_count_names_the_field():
+    result_error = None
+    try:
+        line_from_row(_row("O-2", flow="10 t/h", fittings="gate: two"))
+    except ValueError as exc:
+        result_error = str(exc)
+    assert result_error == ("line O-2: fittings: count 'two' of 'gate' is not a number; "
+                            "expected items such as 'elbow-90-lr: 4; gate: 2'")
+
+
+def test_static_head_and_allowances_add_to_the_total_drop(sizer):
+    # Static head rho*g*dz with g = 9.80665 m/s2 (standard gravity, CGPM 1901); rise positive.
+    flat = sizer.run(line_from_row(_row("E-0", flow="20 t/h", nps="3")))
+    rising = sizer.run(line_from_row(_row("E-1", flow="20 t/h", nps="3", elevation="10 m", fixed_drop="0.5 bar")))
+    h0, h1 = flat.selected.hydraulics, rising.selected.hydraulics
+    rho = rising.state.density
+    assert h1.static_drop == pytest.approx(rho * 9.80665 * 10.0, rel=1e-12)
+    assert h1.total_drop == pytest.approx(h0.drop + rho * 9.80665 * 10.0 + 50_000.0, rel=1e-12)
+    assert h1.outlet_pressure == pytest.approx(601_325.0 - h1.total_drop, rel=1e-12)
+
+
+def test_a_corroded_roughness_raises_the_drop(sizer):
+    new = sizer.run(line_from_row(_row("R-0", flow="20 t/h", nps="3")))
+    old = sizer.run(line_from_row(_row("R-1", flow="20 t/h", nps="3", roughness="0.5 mm")))
+    rho, mu = _water_props()
+    di = new.selected.candidate.inside_diameter
+    assert old.selected.hydraulics.drop_per_length == pytest.approx(
+        _fluids_drop_per_m(20_000 / 3600, di, rho, mu, rough=5e-4), rel=1e-6)
+    assert old.selected.hydraulics.drop_per_length > new.selected.hydraulics.drop_per_length

@@ -13,7 +13,8 @@ from pathlib import Path
 from boresize.config import Service, SizingConfig, load_config
 from boresize.criteria.base import CriterionContext
 from boresize.errors import BoresizeError, InputError, PropertyError
-from boresize.hydraulics import rate_pipe, swamee_jain_diameter
+from boresize.hydraulics import swamee_jain_diameter
+from boresize.hydraulics.line import rate_line
 from boresize.model import Candidate, CandidateResult, FluidState, Line, LineResult, Verdict
 from boresize.plugins import PluginHost
 from boresize.properties.select import fluid_state, mass_flow_of
@@ -69,8 +70,7 @@ class Sizer:
 
     def _rate(self, line: Line, state: FluidState, service: Service, candidate: Candidate,
               mass_flow: float) -> CandidateResult:
-        hyd = rate_pipe(mass_flow, state.density, state.viscosity, candidate.inside_diameter,
-                        candidate.roughness, line.length, state.speed_of_sound)
+        hyd = rate_line(line, state, candidate, mass_flow)
         verdicts = []
         for criterion, options in service.criteria:
             if state.phase not in criterion.phases and _phase_group(state.phase) not in criterion.phases:

@@ -21,8 +21,19 @@ __all__ = ["COLUMNS", "Header", "parse_header", "line_from_row", "DEFAULT_LENGTH
 
 COLUMNS = (
     "tag", "fluid", "flow", "pressure", "temperature", "length", "service", "pipe_class", "nps",
-    "density", "viscosity", "design_margin", "phase", "backend",
+    "density", "viscosity", "design_margin", "phase", "backend", "eos", "elevation", "fittings", "fixed_drop",
+    "min_outlet_pressure", "source_pressure", "liquid_level", "npsh_required", "roughness", "case",
 )
+# Optional quantities: column -> (quantity kind, must be above zero, example for messages)
+OPTIONAL_QUANTITIES = {
+    "elevation": ("length", False, "outlet minus inlet elevation, rise positive, e.g. '12 m' or '-3 m'"),
+    "fixed_drop": ("pressure_difference", False, "equipment and control-valve allowances, e.g. '0.7 bar'"),
+    "min_outlet_pressure": ("pressure", True, "lowest pressure at the line end, e.g. '2 barg'"),
+    "source_pressure": ("pressure", True, "pressure of the vessel a pump draws from, e.g. '0.5 barg'"),
+    "liquid_level": ("length", False, "liquid level above the pump datum, e.g. '4 m'"),
+    "npsh_required": ("length", True, "NPSH required by the pump, e.g. '3.5 m'"),
+    "roughness": ("length", True, "absolute roughness replacing the pipe class's, e.g. '0.5 mm'"),
+}
 REQUIRED = ("tag", "fluid", "flow", "pressure", "temperature")
 DEFAULT_LENGTH_M = 100.0
 _HEADER = re.compile(r"^\s*([^\[\]]*?)\s*(?:\[(.*)\])?\s*$")
@@ -107,6 +118,7 @@ def line_from_row(row: Mapping[str, object], units: Mapping[str, str | None] | N
             raise InputError(f"{margin_raw!r} is outside 0 to 100 %", field="design_margin", value=margin_raw,
                              expected="a fraction of the flow such as '10 %' or 0.1")
         nps_raw = _text(row, "nps")
+        optional = _optional_fields(row, units)
         return Line(
             tag=tag,
             fluid=str(_text(row, "fluid")),
@@ -123,10 +135,50 @@ def line_from_row(row: Mapping[str, object], units: Mapping[str, str | None] | N
             design_margin=margin,
             phase=_choice(row, "phase", ("liquid", "gas")),  # type: ignore[arg-type]
             backend=_text(row, "backend"),
+            eos=_text(row, "eos"),
+            fittings=parse_fittings(_text(row, "fittings")),
+            case=_text(row, "case"),
+            **optional,
             extra=tuple((k, str(v)) for k, v in row.items() if k not in COLUMNS and v not in (None, "")),
         )
     except InputError as exc:
         raise exc.for_line(tag) from None
+
+
+def _optional_fields(row: Mapping[str, object], units: Mapping[str, str | None]) -> dict[str, float]:
+    values: dict[str, float] = {}
+    for name, (kind, positive, example) in OPTIONAL_QUANTITIES.items():
+        raw = _text(row, name)
+        if raw is None:
+            continue
+        value = parse_quantity(raw, name, kind, units.get(name))  # type: ignore[arg-type]
+        values[name] = _positive(value, name, raw, example) if positive else value
+    return values
+
+
+def parse_fittings(text: str | None) -> tuple[tuple[str, float], ...]:
+    """``"elbow-90-lr: 4; gate: 2"`` (``;`` or ``|`` between items) -> (("elbow-90-lr", 4.0), ("gate", 2.0)).
+
+    A kind without a count counts once. The kinds are checked by the fittings method, not here.
+    """
+    if not text:
+        return ()
+    pairs = []
+    for item in re.split(r"[;|]", text):
+        item = item.strip()
+        if not item:
+            continue
+        kind, _, count = item.partition(":") if ":" in item else item.partition("=")
+        try:
+            number = float(count) if count.strip() else 1.0
+        except ValueError:
+            raise InputError(f"count {count.strip()!r} of {kind.strip()!r} is not a number", field="fittings",
+                             value=text, expected="items such as 'elbow-90-lr: 4; gate: 2'") from None
+        if not (number > 0 and math.isfinite(number)):
+            raise InputError(f"count of {kind.strip()!r} must be above zero", field="fittings", value=text,
+                             expected="items such as 'elbow-90-lr: 4; gate: 2'")
+        pairs.append((kind.strip().lower(), number))
+    return tuple(pairs)
 
 
 _EXPECTED = {

@@ -58,6 +58,16 @@ class Line:
     :param viscosity: given dynamic viscosity [Pa s]
     :param design_margin: fraction added to the flow for sizing (0.1 = 10 %)
     :param phase: the phase the user says the line carries ("liquid"/"gas"), or None
+    :param eos: equation of state or model asked of the backend (e.g. "PR", "SRK"), or None for its default
+    :param elevation: outlet elevation minus inlet elevation [m], rise positive
+    :param fittings: fittings as (kind, count) pairs, e.g. (("elbow-90-lr", 4.0), ("gate", 2.0))
+    :param fixed_drop: equipment and control-valve allowances added to the line drop [Pa]
+    :param min_outlet_pressure: lowest pressure the receiver accepts at the line end [Pa abs]
+    :param source_pressure: pressure in the vessel a pump suction draws from [Pa abs]
+    :param liquid_level: liquid level above the pump datum (suction static head) [m]
+    :param npsh_required: NPSH required by the pump at the sizing flow [m]
+    :param roughness: absolute roughness that replaces the pipe class's (corroded pipe) [m]
+    :param case: operating case name ("normal", "maximum", ...) or None
     """
 
     tag: str
@@ -74,6 +84,16 @@ class Line:
     design_margin: float | None = None
     phase: Literal["liquid", "gas"] | None = None
     backend: str | None = None
+    eos: str | None = None
+    elevation: float = 0.0
+    fittings: tuple[tuple[str, float], ...] = ()
+    fixed_drop: float = 0.0
+    min_outlet_pressure: float | None = None
+    source_pressure: float | None = None
+    liquid_level: float | None = None
+    npsh_required: float | None = None
+    roughness: float | None = None
+    case: str | None = None
     extra: tuple[tuple[str, str], ...] = ()
 
 
@@ -131,6 +151,12 @@ class Hydraulics:
     :param drop_per_length: frictional pressure drop per metre [Pa/m]
     :param drop: frictional drop over the line length [Pa]
     :param momentum: rho*v^2 [Pa]
+    :param fittings_drop: drop across the line's fittings [Pa]
+    :param static_drop: rho*g*elevation [Pa] (negative for a line that falls)
+    :param fixed_drop: equipment and control-valve allowances [Pa]
+    :param total_drop: friction + fittings + static + fixed [Pa]
+    :param outlet_pressure: inlet pressure minus total drop [Pa abs]
+    :param method: how the drop was computed (e.g. "incompressible Darcy-Weisbach")
     """
 
     mass_flow: float
@@ -143,6 +169,12 @@ class Hydraulics:
     drop: float
     momentum: float
     mach: float | None = None
+    fittings_drop: float = 0.0
+    static_drop: float = 0.0
+    fixed_drop: float = 0.0
+    total_drop: float = 0.0
+    outlet_pressure: float | None = None
+    method: str = "incompressible Darcy-Weisbach"
 
 
 @dataclass(frozen=True)

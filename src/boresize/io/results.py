@@ -89,6 +89,10 @@ def _record(result: LineResult) -> dict[str, Any]:
             "sizing_mass_flow_kg_h": _r(h.mass_flow * 3600.0), "volume_flow_m3_h": _r(h.volume_flow * 3600.0),
             "reynolds": _r(h.reynolds), "friction_factor": _r(h.friction_factor), "regime": h.regime,
             "drop_kpa": _r(h.drop / 1e3), "momentum_pa": _r(h.momentum),
+            "fittings_drop_kpa": _r(h.fittings_drop / 1e3), "static_drop_kpa": _r(h.static_drop / 1e3),
+            "fixed_drop_kpa": _r(h.fixed_drop / 1e3), "total_drop_kpa": _r(h.total_drop / 1e3),
+            "outlet_pressure_bar_abs": _r(h.outlet_pressure / 1e5) if h.outlet_pressure is not None else None,
+            "mach": _r(h.mach), "drop_method": h.method,
             "first_guess_id_mm": _r(result.first_guess_diameter * 1e3) if result.first_guess_diameter else None,
             "candidates": [candidate_to_dict(c) for c in result.candidates],
         })
