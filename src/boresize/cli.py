@@ -31,6 +31,7 @@ SINGLE_LINE_FIELDS = (
     ("nps", "check this NPS instead of sizing"), ("density", "given density: '850 kg/m3'"),
     ("viscosity", "given viscosity: '1.2 cP'"), ("design-margin", "margin on flow: '10 %%'"),
     ("phase", "liquid or gas: what the line must carry"), ("backend", "property backend id"),
+    ("schedule", "schedule of the NPS to check (default: the pipe class's)"),
 )
 
 
@@ -44,10 +45,12 @@ def build_parser() -> argparse.ArgumentParser:
     sub = parser.add_subparsers(dest="command", metavar="COMMAND")
     size = sub.add_parser("size", help="size (or check) the lines of a line list, or one line from options",
                           epilog=CAUTION_SHORT)
-    size.add_argument("lines", nargs="?", help="line list CSV (omit to give one line with the options below)")
+    size.add_argument("lines", nargs="?", help="line list: CSV, XLSX or TOML (omit to give one line with the "
+                                               "options below)")
     size.add_argument("--criteria", metavar="FILE.toml", help="criteria sets and pipe classes to use")
     size.add_argument("--json", action="store_true", help="print one JSON document instead of the table")
     size.add_argument("--no-plugins", action="store_true", help="use only boresize's built-in plugins")
+    _add_run_options(size)
     single = size.add_argument_group("one line from options")
     for name, text in SINGLE_LINE_FIELDS:
         single.add_argument(f"--{name}", help=text)
@@ -58,7 +61,31 @@ def build_parser() -> argparse.ArgumentParser:
     pipes.add_argument("--criteria", metavar="FILE.toml", help="a criteria file whose pipe classes to list")
     pipes.add_argument("--nps", help="show every schedule of this NPS (ASME B36.10M / B36.19M)")
     pipes.add_argument("--no-plugins", action="store_true", help="use only boresize's built-in plugins")
+    _add_diff(sub.add_parser("diff", help="compare two revisions: result JSON files, or line lists (sized first)",
+                             epilog="Exit code 0 when nothing changed, 1 when something did, 2 for a usage error."))
     return parser
+
+
+def _add_diff(diff: argparse.ArgumentParser) -> None:
+    diff.add_argument("old", help="the earlier revision: results .json, or a line list (.csv, .xlsx, .toml)")
+    diff.add_argument("new", help="the later revision, likewise")
+    diff.add_argument("--criteria", metavar="FILE.toml", help="criteria for sizing a line list")
+    diff.add_argument("--json", action="store_true", help="print the differences as one JSON document")
+    diff.add_argument("--no-plugins", action="store_true", help="use only boresize's built-in plugins")
+    diff.add_argument("--workers", type=int, default=1, metavar="N", help="worker processes for sizing line lists")
+
+
+def _add_run_options(size: argparse.ArgumentParser) -> None:
+    size.add_argument("--output", "-o", action="append", default=[], metavar="FILE",
+                      help="write the results to FILE: .json, .csv, .xlsx (with a candidates sheet) or .html "
+                           "(the calculation report); repeat for several")
+    size.add_argument("--workers", type=int, default=1, metavar="N",
+                      help="size on N worker processes (default 1: in this process)")
+    size.add_argument("--progress", action=argparse.BooleanOptionalAction, default=None,
+                      help="show a progress bar on stderr (default: on a terminal, for 50 lines or more)")
+    size.add_argument("--corroded-roughness", metavar="LENGTH",
+                      help="check lines that give an NPS with this absolute roughness, e.g. '0.5 mm' "
+                           "(a line's own roughness column wins)")
 
 
 def main(argv: Sequence[str] | None = None) -> int:

@@ -8,7 +8,7 @@ from pathlib import Path
 
 from boresize.errors import BoresizeError
 
-__all__ = ["UsageError", "run_size", "run_criteria", "run_pipes"]
+__all__ = ["UsageError", "run_size", "run_criteria", "run_pipes", "run_diff"]
 
 
 class UsageError(BoresizeError, ValueError):
@@ -30,10 +30,8 @@ def _single_row(args: argparse.Namespace) -> dict[str, str]:
     return row
 
 
-def run_size(args: argparse.Namespace) -> int:
-    from boresize.engine import Sizer
-    from boresize.io import document, read_csv
-    from boresize.report.table import render_table
+def _line_list(args: argparse.Namespace):  # type: ignore[no-untyped-def]
+    from boresize.io import LineList, read_line_list
 
     single = _single_row(args)
     if args.lines and len(single) > 1:
@@ -43,21 +41,97 @@ def run_size(args: argparse.Namespace) -> int:
     if args.criteria and not Path(args.criteria).is_file():
         raise UsageError(f"criteria file {args.criteria!r} not found")
     if args.lines:
-        line_list = read_csv(args.lines)
-        pairs, source = line_list.pairs(), args.lines
-    elif len(single) > 1:
-        pairs, source = [(single, {})], "command line"
-    else:
-        raise UsageError("nothing to size: give a line list (LINES.csv) or --fluid, --flow, --pressure, --temperature")
-    sizer = Sizer(_host(args), criteria_file=args.criteria)
-    results = sizer.run_rows(pairs)
+        return read_line_list(args.lines)
+    if len(single) > 1:
+        return LineList(rows=[single], units={}, source="command line", headers=list(single))
+    raise UsageError("nothing to size: give a line list (LINES.csv) or --fluid, --flow, --pressure, --temperature")
+
+
+def _check_roughness(args: argparse.Namespace) -> float | None:
+    if not getattr(args, "corroded_roughness", None):
+        return None
+    from boresize.units import parse_quantity
+
+    value = parse_quantity(args.corroded_roughness, "corroded-roughness", "length")
+    if not value > 0:
+        raise UsageError(f"--corroded-roughness {args.corroded_roughness!r} is not above zero")
+    return value
+
+
+def _size_list(args: argparse.Namespace, line_list, check_roughness: float | None = None):  # type: ignore[no-untyped-def]
+    """Size a line list on ``args.workers`` processes; returns (sizer of this process, results)."""
+    from boresize.batch import run_batch, spec_for
+    from boresize.engine import Sizer
+
+    if args.workers < 1:
+        raise UsageError(f"--workers {args.workers} is below 1")
+    spec = spec_for(args.criteria, not args.no_plugins, check_roughness)
+    sizer = Sizer(_host(args), criteria_file=args.criteria, check_roughness=check_roughness)
+    results = run_batch(line_list.pairs(), spec, sizer=sizer, workers=args.workers,
+                        progress=getattr(args, "progress", False))
+    return sizer, results
+
+
+def run_size(args: argparse.Namespace) -> int:
+    from boresize.batch import summary
+    from boresize.io import document, write_output
+    from boresize.io.write import check_output
+    from boresize.report.table import render_table
+    from boresize.report.trace import traceability
+
+    outputs = [check_output(path) for path in args.output]
+    line_list = _line_list(args)
+    sizer, results = _size_list(args, line_list, _check_roughness(args))
+    trace = traceability(sizer, lines_source=line_list.source, lines_digest=line_list.digest)
+    for path in outputs:
+        write_output(path, results, line_list=line_list, trace=trace, criteria_source=sizer.config.origin,
+                     lines_source=line_list.source)
+        print(f"boresize: wrote {path}", file=sys.stderr)
     if args.json:
         from boresize.cli import print_json
 
-        print_json(document(results, criteria_source=sizer.config.origin, lines_source=source))
+        print_json(document(results, criteria_source=sizer.config.origin, lines_source=line_list.source,
+                            traceability=trace))
+        print(f"boresize: {summary(results)}", file=sys.stderr)
     else:
         sys.stdout.write(render_table(results, sizer.config))
     return 0 if results and all(r.status == "pass" for r in results) else 1
+
+
+def _revision(path: str, args: argparse.Namespace) -> dict:  # type: ignore[type-arg]
+    """A results document: read from JSON, or made by sizing a line list."""
+    import json
+
+    from boresize.io import document, read_line_list
+
+    if not Path(path).is_file():
+        raise UsageError(f"{path!r} not found")
+    if Path(path).suffix.lower() == ".json":
+        try:
+            doc = json.loads(Path(path).read_text(encoding="utf-8"))
+        except (UnicodeDecodeError, json.JSONDecodeError) as exc:
+            raise UsageError(f"{path} is not a JSON results document: {exc}") from None
+        if not isinstance(doc, dict) or not isinstance(doc.get("lines"), list):
+            raise UsageError(f"{path} is not a boresize results document (no 'lines' list)")
+        return doc
+    line_list = read_line_list(path)
+    sizer, results = _size_list(args, line_list)
+    return document(results, criteria_source=sizer.config.origin, lines_source=path)
+
+
+def run_diff(args: argparse.Namespace) -> int:
+    from boresize.diff import compare, render_diff
+
+    if args.criteria and not Path(args.criteria).is_file():
+        raise UsageError(f"criteria file {args.criteria!r} not found")
+    diff = compare(_revision(args.old, args), _revision(args.new, args))
+    if args.json:
+        from boresize.cli import print_json
+
+        print_json(diff.to_dict())
+    else:
+        sys.stdout.write(render_diff(diff, args.old, args.new))
+    return 0 if diff.empty else 1
 
 
 def run_criteria(args: argparse.Namespace) -> int:

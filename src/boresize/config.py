@@ -4,6 +4,11 @@ A criteria file holds ``[service.NAME]`` tables whose keys are criterion ids wit
 (plus ``phase``, ``design_margin``, ``pipe_class`` and ``description``), and ``[pipe_class.NAME]``
 tables. A service defined in the file replaces the shipped service of the same name whole, so what
 a company writes is exactly what runs.
+
+The shipped sets live in ``criteria/sets/*.toml``, one file per family of services, each with a ``name``
+and a ``version``; a service may carry its own ``version``. Every service knows the set and version it
+came from (:attr:`Service.stamp`), which is stamped on each result. Any criterion may give ``bands`` of
+options by NPS and by pressure (see :mod:`boresize.criteria.bands`).
 """
 
 from __future__ import annotations
@@ -15,7 +20,7 @@ from importlib import resources
 from pathlib import Path
 from typing import Any
 
-from boresize.criteria.base import parse_options
+from boresize.criteria.bands import resolve_criterion
 from boresize.errors import CriteriaFileError, InputError
 from boresize.pipes import PipeClass, pipe_class_from_table
 from boresize.plugins import PluginHost
@@ -28,8 +33,10 @@ else:  # pragma: no cover
 
 __all__ = ["Service", "SizingConfig", "load_config", "read_toml"]
 
-SERVICE_KEYS = ("description", "phase", "design_margin", "pipe_class")
-TOP_KEYS = ("version", "service", "pipe_class")
+SERVICE_KEYS = ("description", "phase", "design_margin", "pipe_class", "version")
+TOP_KEYS = ("name", "version", "service", "pipe_class")
+#: The shipped criteria sets, one file per family, in ``boresize/criteria/sets/``.
+SHIPPED_SETS = ("liquid.toml", "gas.toml")
 
 
 @dataclass(frozen=True)
@@ -43,6 +50,13 @@ class Service:
     pipe_class: str | None = None
     description: str = ""
     origin: str = "built-in"
+    set_name: str = "built-in"
+    version: str = ""
+
+    @property
+    def stamp(self) -> str:
+        """The criteria set a result was judged by: ``"pump-suction (boresize-liquid 2026.1)"``."""
+        return f"{self.name} ({self.set_name} {self.version})" if self.version else f"{self.name} ({self.set_name})"
 
 
 @dataclass
@@ -54,6 +68,7 @@ class SizingConfig:
     version: str
     origin: str = "built-in"
     notes: list[str] = field(default_factory=list)
+    sets: dict[str, str] = field(default_factory=dict)
 
     def service_names(self) -> tuple[str, ...]:
         return tuple(sorted(self.services))
@@ -80,12 +95,22 @@ def read_toml(path: str | Path) -> dict[str, Any]:
                                 expected="a TOML file with [service.NAME] and [pipe_class.NAME] tables") from exc
 
 
-def _builtin_document() -> dict[str, Any]:
-    text = resources.files("boresize.criteria").joinpath("sets/builtin.toml").read_text(encoding="utf-8")
-    return tomllib.loads(text)
+def _shipped_documents() -> list[tuple[str, dict[str, Any]]]:
+    """(file name, document) of every shipped criteria set."""
+    folder = resources.files("boresize.criteria").joinpath("sets")
+    return [(name, tomllib.loads(folder.joinpath(name).read_text(encoding="utf-8"))) for name in SHIPPED_SETS]
 
 
-def _service(name: str, table: Mapping[str, Any], host: PluginHost, origin: str) -> Service:
+def _label(document: Mapping[str, Any], key: str, default: str) -> str:
+    value = document.get(key, default)
+    if not isinstance(value, str) or not value.strip():
+        raise CriteriaFileError(f"{key} must be a non-empty string", field=key, value=value,
+                                expected=f'a {key} such as "ACME-PS-0001" or "rev 3"')
+    return value.strip()
+
+
+def _service(name: str, table: Mapping[str, Any], host: PluginHost, origin: str,
+             set_label: tuple[str, str] = ("built-in", "")) -> Service:
     where = f"service.{name}"
     if not isinstance(table, Mapping):
         raise CriteriaFileError("a service must be a table", field=where, value=table,
@@ -101,42 +126,73 @@ def _service(name: str, table: Mapping[str, Any], host: PluginHost, origin: str)
         if not isinstance(options, Mapping):
             raise CriteriaFileError("criterion options must be a table", field=f"{where}.{key}", value=options,
                                     expected='an inline table such as { max = "3 m/s" }')
-        criterion = host.criteria.get(key)
-        criteria.append((criterion, parse_options(criterion, options, f"{where}.{key}")))
+        criteria.append(resolve_criterion(host.criteria.get(key), options, f"{where}.{key}"))
     phase = table.get("phase")
     if phase not in (None, "liquid", "gas"):
         raise CriteriaFileError(f"unknown phase {phase!r}", field=f"{where}.phase", value=phase,
                                 expected='"liquid" or "gas"')
     margin = parse_quantity(table.get("design_margin", 0.0), f"{where}.design_margin", "dimensionless")
+    if not 0.0 <= margin < 1.0:  # a negative margin would shrink the sizing flow: a silently small size
+        raise CriteriaFileError(f"{table['design_margin']!r} is outside 0 to 100 %", field=f"{where}.design_margin",
+                                value=table["design_margin"], expected='a fraction of the flow such as "10 %" or 0.1')
+    set_name, version = set_label
+    if "version" in table:
+        version = _label(table, "version", version)
     return Service(name=name, criteria=tuple(criteria), phase=phase, design_margin=margin,
-                   pipe_class=table.get("pipe_class"), description=str(table.get("description", "")), origin=origin)
+                   pipe_class=table.get("pipe_class"), description=str(table.get("description", "")), origin=origin,
+                   set_name=set_name, version=version)
 
 
-def _merge(config: SizingConfig, document: Mapping[str, Any], host: PluginHost, origin: str) -> None:
+def _merge(config: SizingConfig, document: Mapping[str, Any], host: PluginHost, origin: str,
+           set_label: tuple[str, str]) -> None:
     unknown = sorted(set(document) - set(TOP_KEYS))
     if unknown:
         raise CriteriaFileError(f"unknown table or key {unknown[0]!r}", field=unknown[0], value=unknown[0],
                                 expected=f"one of {', '.join(TOP_KEYS)}")
+    for key in ("pipe_class", "service"):
+        if not isinstance(document.get(key, {}), Mapping):
+            raise CriteriaFileError(f"{key} = {document[key]!r} is not a table", field=key, value=document[key],
+                                    expected=f"[{key}.NAME] tables")
     for name, table in document.get("pipe_class", {}).items():
         config.pipe_classes[name] = pipe_class_from_table(name, table)
     for name, table in document.get("service", {}).items():
-        config.services[name] = _service(name, table, host, origin)
+        config.services[name] = _service(name, table, host, origin, set_label)
     for service in config.services.values():
         if service.pipe_class is not None and service.pipe_class not in config.pipe_classes:
             raise CriteriaFileError(f"unknown pipe class {service.pipe_class!r}",
                                     field=f"service.{service.name}.pipe_class", value=service.pipe_class,
                                     expected=f"one of {', '.join(sorted(config.pipe_classes))}")
-    if "version" in document:
-        config.version = f"{config.version} + {document['version']}"
+    config.sets[set_label[0]] = set_label[1]
+
+
+def _merge_shipped(config: SizingConfig, host: PluginHost) -> None:
+    """Each shipped set file; a service defined in two of them is a packaging fault, named."""
+    seen: dict[str, str] = {}
+    for file_name, document in _shipped_documents():
+        label = (_label(document, "name", file_name), _label(document, "version", "unversioned"))
+        for service in document.get("service", {}):
+            if service in seen:
+                raise CriteriaFileError(f"service {service!r} is shipped twice, in {seen[service]} and {file_name}",
+                                        field=f"service.{service}", value=service, expected="one file per service")
+            seen[service] = file_name
+        _merge(config, document, host, "built-in", label)
+    config.version = ", ".join(f"{name} {version}" for name, version in config.sets.items())
 
 
 def load_config(host: PluginHost, path: str | Path | None = None) -> SizingConfig:
-    """The shipped criteria sets and pipe classes, then the criteria file at ``path`` if given."""
+    """The shipped criteria sets and pipe classes, then the criteria file at ``path`` if given.
+
+    Services from the file are stamped with the file's ``name`` (else its file name) and ``version``
+    (else "unversioned").
+    """
     classes = {pc.name: pc for pc in host.pipe_classes}
-    builtin = _builtin_document()
-    config = SizingConfig(services={}, pipe_classes=classes, version=str(builtin.get("version", "builtin")))
-    _merge(config, {k: v for k, v in builtin.items() if k != "version"}, host, "built-in")
+    config = SizingConfig(services={}, pipe_classes=classes, version="")
+    _merge_shipped(config, host)
     if path is not None:
-        _merge(config, read_toml(path), host, str(path))
+        document = read_toml(path)
+        label = (_label(document, "name", Path(path).name), _label(document, "version", "unversioned"))
+        _merge(config, document, host, str(path), label)
         config.origin = str(path)
+        if "version" in document:
+            config.version = f"{config.version} + {label[1]}"
     return config

@@ -7,19 +7,41 @@ friction factor; the Swamee-Jain diameter is only a first guess shown in the rec
 
 from __future__ import annotations
 
+import math
 from collections.abc import Iterable, Mapping, Sequence
+from dataclasses import replace
 from pathlib import Path
+from typing import NamedTuple, get_args
 
+from boresize import cases as _cases
 from boresize.config import Service, SizingConfig, load_config
 from boresize.criteria.base import CriterionContext
 from boresize.errors import BoresizeError, InputError, PropertyError
 from boresize.hydraulics import swamee_jain_diameter
 from boresize.hydraulics.line import rate_line
-from boresize.model import Candidate, CandidateResult, FluidState, Line, LineResult, Verdict
+from boresize.model import Candidate, CandidateResult, FluidState, Line, LineResult, Verdict, VerdictStatus
+from boresize.pipes import PipeClass
 from boresize.plugins import PluginHost
-from boresize.properties.select import fluid_state, mass_flow_of
+from boresize.properties.phase import two_phase_error
+from boresize.properties.select import choose_backend, fluid_state, mass_flow_of
 
-__all__ = ["Sizer"]
+__all__ = ["RATED_ABOVE", "Sizer"]
+
+#: Sizes rated above the selected one when sizing (the calculation record shows one below to two above).
+RATED_ABOVE = 2
+
+
+class _Prepared(NamedTuple):
+    """One line case made ready for rating (SI): properties, service, pipe class, sizing mass flow [kg/s]."""
+
+    line: Line
+    state: FluidState
+    service: Service
+    pipe_class: PipeClass
+    mass_flow: float
+    margin: float
+    mode: str
+    notes: tuple[str, ...]
 
 
 class Sizer:
@@ -28,12 +50,16 @@ class Sizer:
     :param host: the plugin host (built with entry points when not given)
     :param config: services and pipe classes (the shipped set when not given)
     :param criteria_file: a criteria TOML to load instead of passing ``config``
+    :param check_roughness: absolute roughness [m] for lines checked at a given NPS that give no
+        ``roughness`` of their own (a corroded existing line); None keeps the pipe class's
     """
 
     def __init__(self, host: PluginHost | None = None, config: SizingConfig | None = None,
-                 criteria_file: str | Path | None = None) -> None:
+                 criteria_file: str | Path | None = None, *, check_roughness: float | None = None) -> None:
         self.host = host or PluginHost.load()
         self.config = config or load_config(self.host, criteria_file)
+        self.check_roughness = check_roughness
+        self._candidates: dict[tuple[int, str | None, str | None], tuple[PipeClass, tuple[Candidate, ...]]] = {}
 
     # -- one line -----------------------------------------------------------------------------
     def run(self, line: Line) -> LineResult:
@@ -44,20 +70,54 @@ class Sizer:
             return error_result(line.tag, exc, line=line, mode="check" if line.nps else "size")
 
     def _run(self, line: Line) -> LineResult:
+        prepared = self._prepare(line)
+        rated = self._rate_all(prepared)
+        return self._finish(prepared, rated, _select(rated) if prepared.mode == "size" else rated[0])
+
+    def _prepare(self, line: Line) -> _Prepared:
         mode = "check" if line.nps else "size"
+        notes: tuple[str, ...] = ()
+        if mode == "check" and line.roughness is None and self.check_roughness is not None:
+            line = replace(line, roughness=self.check_roughness)
+            notes = (f"checked with corroded roughness {self.check_roughness * 1e3:g} mm",)
         state = fluid_state(self.host, line)
         service = self._service(line, state)
         pipe_class = self.config.pipe_class(line.pipe_class or service.pipe_class)
         margin = line.design_margin if line.design_margin is not None else service.design_margin
         mass_flow = mass_flow_of(self.host, line, state) * (1.0 + margin)
-        if line.nps:
-            candidates: Sequence[Candidate] = (pipe_class.candidate(line.nps),)
-        else:
-            candidates = pipe_class.candidates()
-        rated = tuple(self._rate(line, state, service, c, mass_flow) for c in candidates)
-        selected = _select(rated) if mode == "size" else rated[0]
-        return _result(line, state, service, rated, selected, mode, mass_flow, margin, self.config.version,
-                       self._first_guess(service, state, mass_flow, pipe_class.roughness))
+        return _Prepared(line, state, service, pipe_class, mass_flow, margin, mode, notes)
+
+    def _rate_all(self, p: _Prepared) -> tuple[CandidateResult, ...]:
+        return self._rate_cases([p])[0]
+
+    def _rate_cases(self, ready: Sequence[_Prepared]) -> list[tuple[CandidateResult, ...]]:
+        """Rate every case's candidates smallest first, size by size; stop :data:`RATED_ABOVE` sizes after the
+        first that passes in every case (the selection is the same; the record shows the sizes around it)."""
+        rated: list[list[CandidateResult]] = [[] for _ in ready]
+        first_pass: int | None = None
+        for i, candidate in enumerate(self._candidates_of(ready[0].line, ready[0].pipe_class)):
+            for p, done in zip(ready, rated):
+                done.append(self._rate(p.line, p.state, p.service, candidate, p.mass_flow))
+            if first_pass is None and all(done[-1].passed for done in rated):
+                first_pass = i
+            if first_pass is not None and i - first_pass >= RATED_ABOVE:
+                break
+        return [tuple(done) for done in rated]
+
+    def _candidates_of(self, line: Line, pipe_class: PipeClass) -> tuple[Candidate, ...]:
+        """The class's sizes, or the one size a checked line gives (cached: building them costs more than rating)."""
+        key = (id(pipe_class), line.nps, line.schedule)
+        cached = self._candidates.get(key)
+        if cached is None or cached[0] is not pipe_class:
+            cached = self._candidates[key] = (pipe_class, _candidates(pipe_class, line))
+        return cached[1]
+
+    def _finish(self, p: _Prepared, rated: tuple[CandidateResult, ...], selected: CandidateResult | None,
+                closest_note: bool = True) -> LineResult:
+        result = _result(p.line, p.state, p.service, rated, selected, p.mode, p.mass_flow, p.margin,
+                         self.config.version, self._first_guess(p.service, p.state, p.mass_flow, p.pipe_class.roughness),
+                         closest_note)
+        return replace(result, notes=result.notes + p.notes) if p.notes else result
 
     def _service(self, line: Line, state: FluidState) -> Service:
         name = line.service or _default_service(line, state)
@@ -70,7 +130,14 @@ class Sizer:
 
     def _rate(self, line: Line, state: FluidState, service: Service, candidate: Candidate,
               mass_flow: float) -> CandidateResult:
-        hyd = rate_line(line, state, candidate, mass_flow)
+        try:
+            hyd = rate_line(line, state, candidate, mass_flow,
+                            properties=lambda p, t: choose_backend(self.host, line).state(line, p, t))
+        except (OverflowError, ZeroDivisionError) as exc:
+            raise _beyond_range(mass_flow, f"in NPS {candidate.nps}") from exc
+        if not all(math.isfinite(x) for x in (hyd.velocity, hyd.reynolds, hyd.friction_factor, hyd.drop_per_length,
+                                              hyd.total_drop)):  # an inf drop would fail every size, a NaN pass it
+            raise _beyond_range(mass_flow, f"in NPS {candidate.nps}")
         verdicts = []
         for criterion, options in service.criteria:
             if state.phase not in criterion.phases and _phase_group(state.phase) not in criterion.phases:
@@ -88,38 +155,138 @@ class Sizer:
         if not isinstance(result, Verdict):
             return _error_verdict(ident, self.host.criteria.owner(ident),
                                   f"returned {type(result).__name__}, not a Verdict")
-        return result
+        fault = _verdict_fault(result)
+        return _error_verdict(ident, self.host.criteria.owner(ident), fault) if fault else result
 
     def _first_guess(self, service: Service, state: FluidState, mass_flow: float, roughness: float) -> float | None:
         for criterion, options in service.criteria:
             if criterion.id == "drop-per-length" and "max" in options:
-                return swamee_jain_diameter(mass_flow / state.density, options["max"], state.density,
-                                            state.viscosity, roughness)
+                try:
+                    return swamee_jain_diameter(mass_flow / state.density, options["max"], state.density,
+                                                state.viscosity, roughness)
+                except OverflowError as exc:
+                    raise _beyond_range(mass_flow, "for the first-guess diameter") from exc
         return None
+
+    # -- one line, several operating cases ---------------------------------------------------
+    def run_cases(self, lines: Sequence[Line]) -> LineResult:
+        """Size (or check) one line over its operating cases (one :class:`Line` per case, same tag).
+
+        Sizing takes the smallest candidate that passes every case; the result carries every case's
+        result in ``cases`` and, per criterion, the governing case (see :mod:`boresize.cases`).
+        Faults of one case make the line an ``error`` whose message names the case; never raises.
+        """
+        if len(lines) == 1:
+            return self.run_safely(lines[0])
+        named = _cases.name_cases(lines)
+        mode = "check" if named[0].nps else "size"
+        try:
+            return self._run_cases(named, mode)
+        except BoresizeError as exc:
+            failed = [error_result(line.tag, exc, line=line, mode=mode) for line in named]
+            return _cases.cases_error(named[0].tag, failed, mode)
+        except Exception as exc:  # a bug: report it on the line, never lose the line
+            failed = [_internal_error(line, exc) for line in named]
+            return _cases.cases_error(named[0].tag, failed, mode)
+
+    def _run_cases(self, lines: tuple[Line, ...], mode: str) -> LineResult:
+        _cases.check_cases(lines)
+        prepared: list[_Prepared | LineResult] = []
+        for line in lines:
+            try:
+                prepared.append(self._prepare(line))
+            except BoresizeError as exc:
+                prepared.append(_cases.case_error(error_result(line.tag, exc, line=line, mode=mode), str(line.case)))
+        if any(isinstance(p, LineResult) for p in prepared):
+            each = [p if isinstance(p, LineResult) else self.run_safely(p.line) for p in prepared]
+            return _cases.cases_error(lines[0].tag, each, mode)
+        ready = [p for p in prepared if isinstance(p, _Prepared)]
+        classes = {p.pipe_class.name for p in ready}
+        if len(classes) > 1:
+            raise InputError(f"the cases' services use different pipe classes: {', '.join(sorted(classes))}",
+                             field="pipe_class", value=", ".join(sorted(classes)),
+                             expected="one pipe class for every case of a line").for_line(lines[0].tag)
+        rated = self._rate_cases(ready)
+        index, passed = _cases.common_index(rated, mode)
+        if index is None:
+            each = [self._finish(p, r, None) for p, r in zip(ready, rated)]
+            return _cases.cases_error(lines[0].tag, each, mode, f"line {lines[0].tag}: no candidate size could "
+                                      f"be rated in every case", "criteria")
+        each = [self._finish(p, r, r[index], closest_note=False) for p, r in zip(ready, rated)]
+        return _cases.combine(each, passed, mode)
 
     # -- many lines ---------------------------------------------------------------------------
     def run_rows(self, rows: Iterable[tuple[Mapping[str, object], Mapping[str, str | None]]]) -> list[LineResult]:
-        """Parse and run rows in order; a bad row gives an ``error`` result and the others go on."""
+        """Parse and run rows in order; a bad row gives an ``error`` result and the others go on.
+
+        Rows that share a tag and name a ``case`` are one line (see :mod:`boresize.cases`): one
+        result per line, in the order of each line's first row.
+        """
+        return [self.run_line_rows(group) for group in _cases.group_rows(rows)]
+
+    def run_line_rows(self, rows: Sequence[_cases.Row]) -> LineResult:
+        """Parse and run the rows of one line (one row, or one row per case); the rows are kept in ``raw``."""
         from boresize.lines import line_from_row
 
-        results = []
-        for position, (row, units) in enumerate(rows, start=1):
+        parsed: list[Line | LineResult] = []
+        for position, row, units in rows:
             try:
-                line = line_from_row(row, units, position)
+                parsed.append(line_from_row(row, units, position))
             except BoresizeError as exc:
                 tag = str(row.get("tag") or f"row {position}")
-                results.append(error_result(tag, exc, mode="check" if row.get("nps") else "size"))
-                continue
-            results.append(self.run_safely(line))
-        return results
+                parsed.append(error_result(tag, exc, mode="check" if row.get("nps") else "size"))
+        raws = [{str(k): "" if v is None else str(v) for k, v in row.items()} for _, row, _ in rows]
+        if len(parsed) == 1:
+            only = parsed[0]
+            return replace(only if isinstance(only, LineResult) else self.run_safely(only), raw=raws[0])
+        if any(isinstance(p, LineResult) for p in parsed):
+            each = [_cases.case_error(p, raws[i].get("case", "")) if isinstance(p, LineResult) else
+                    self.run_safely(p) for i, p in enumerate(parsed)]
+            result = _cases.cases_error(each[0].tag, each, "check" if raws[0].get("nps") else "size")
+        else:
+            result = self.run_cases([p for p in parsed if isinstance(p, Line)])
+        return replace(result, cases=tuple(replace(c, raw=raw) for c, raw in zip(result.cases, raws)))
 
     def run_safely(self, line: Line) -> LineResult:
         """:meth:`run`, but an unexpected fault (a bug) is also an ``error`` result, never lost."""
         try:
             return self.run(line)
         except Exception as exc:  # report, don't lose the line; the message asks for a bug report
-            return LineResult(tag=line.tag, status="error", mode="check" if line.nps else "size", line=line,
-                              error=f"line {line.tag}: internal error {type(exc).__name__}: {exc} (please report it)")
+            return _internal_error(line, exc)
+
+
+def _internal_error(line: Line, exc: Exception) -> LineResult:
+    return LineResult(tag=line.tag, status="error", mode="check" if line.nps else "size", line=line,
+                      error=f"line {line.tag}: internal error {type(exc).__name__}: {exc} (please report it)")
+
+
+def _candidates(pipe_class: PipeClass, line: Line) -> tuple[Candidate, ...]:
+    """Every size the class offers, or the one a checked line gives (in its own schedule when it gives one)."""
+    if not line.nps:
+        return pipe_class.candidates()
+    if not line.schedule:
+        return (pipe_class.candidate(line.nps),)
+    return (replace(pipe_class, schedule=line.schedule, schedule_by_nps=()).candidate(line.nps),)
+
+
+def _beyond_range(mass_flow: float, where: str) -> InputError:
+    """The error of a flow so large or so small that the hydraulics leave floating-point range."""
+    return InputError(f"sizing flow {mass_flow:.6g} kg/s is beyond the range the hydraulics can compute {where}",
+                      field="flow", value=mass_flow, expected="a flow of process-plant size; check its unit")
+
+
+def _verdict_fault(verdict: Verdict) -> str | None:
+    """What is wrong with a criterion's verdict (an unknown status, a number that is NaN or not a number), or
+    None: a NaN drop compares false with every limit and would read as a pass."""
+    statuses = get_args(VerdictStatus)
+    if verdict.status not in statuses:
+        return f"returned status {verdict.status!r}, not one of {', '.join(statuses)}"
+    for name in ("value", "limit", "utilisation"):
+        number = getattr(verdict, name)
+        if number is not None and (isinstance(number, bool) or not isinstance(number, (int, float))
+                                   or math.isnan(number)):
+            return f"returned {name} {number!r}, not a number"
+    return None
 
 
 def _phase_group(phase: str) -> str:
@@ -127,16 +294,15 @@ def _phase_group(phase: str) -> str:
 
 
 def _default_service(line: Line, state: FluidState) -> str:
+    if state.phase == "two-phase":
+        raise two_phase_error(line, state)
     phase = line.phase or _phase_group(state.phase)
-    if phase == "two-phase":
-        raise InputError(
-            f"{state.fluid_name or line.fluid} is two-phase at {_conditions(line)}; single-phase sizing does "
-            f"not apply", field="temperature", value=_conditions(line),
-            expected="a liquid or gas state, or a two-phase method (not yet available)").for_line(line.tag)
     return "liquid" if phase == "liquid" else "gas"
 
 
 def _check_phase(line: Line, state: FluidState, service: Service) -> None:
+    if state.phase == "two-phase":
+        raise two_phase_error(line, state)
     wanted = line.phase or service.phase
     found = _phase_group(state.phase)
     if wanted is None or wanted == found:
@@ -176,7 +342,7 @@ def _closest(rated: Sequence[CandidateResult]) -> CandidateResult | None:
 
 def _result(line: Line, state: FluidState, service: Service, rated: tuple[CandidateResult, ...],
             selected: CandidateResult | None, mode: str, mass_flow: float, margin: float, version: str,
-            first_guess: float | None) -> LineResult:
+            first_guess: float | None, closest_note: bool = True) -> LineResult:
     notes = []
     shown = selected if selected is not None else _closest(rated)
     if shown is None:
@@ -185,7 +351,7 @@ def _result(line: Line, state: FluidState, service: Service, rated: tuple[Candid
                           error=f"line {line.tag}: {errors[0] if errors else 'no candidate size could be rated'}",
                           error_field="criteria", service=service.name, criteria_set=version)
     passed = shown.passed and selected is not None
-    if not passed and mode == "size":
+    if not passed and mode == "size" and closest_note:
         notes.append(f"no size the pipe class allows passes every criterion; closest is NPS {shown.candidate.nps}")
     if any(v.status == "error" for v in shown.verdicts):
         notes.append("a criterion could not judge this size (error verdict)")

@@ -14,7 +14,7 @@ from dataclasses import dataclass
 
 from boresize.errors import InputError
 from boresize.model import Flow, Line
-from boresize.pipes import normalise_nps
+from boresize.pipes import normalise_nps, normalise_schedule
 from boresize.units import parse_flow, parse_quantity
 
 __all__ = ["COLUMNS", "Header", "parse_header", "line_from_row", "DEFAULT_LENGTH_M"]
@@ -22,7 +22,8 @@ __all__ = ["COLUMNS", "Header", "parse_header", "line_from_row", "DEFAULT_LENGTH
 COLUMNS = (
     "tag", "fluid", "flow", "pressure", "temperature", "length", "service", "pipe_class", "nps",
     "density", "viscosity", "design_margin", "phase", "backend", "eos", "elevation", "fittings", "fixed_drop",
-    "min_outlet_pressure", "source_pressure", "liquid_level", "npsh_required", "roughness", "case",
+    "min_outlet_pressure", "source_pressure", "liquid_level", "npsh_required", "roughness", "case", "schedule",
+    "fittings_method", "compressible",
 )
 # Optional quantities: column -> (quantity kind, must be above zero, example for messages)
 OPTIONAL_QUANTITIES = {
@@ -35,6 +36,12 @@ OPTIONAL_QUANTITIES = {
     "roughness": ("length", True, "absolute roughness replacing the pipe class's, e.g. '0.5 mm'"),
 }
 REQUIRED = ("tag", "fluid", "flow", "pressure", "temperature")
+#: Key under which a reader keeps a row's non-empty cells that no header names. Such a row is
+#: refused: a decimal comma or an unquoted separator shifts every cell after it into the wrong column.
+BEYOND_HEADER = "(beyond the header)"
+#: Key under which :func:`boresize.cases.group_rows` marks a row whose tag an earlier line already has
+#: (same tag, no case or a different line); its value names that earlier row.
+DUPLICATE_TAG = "(tag given before)"
 DEFAULT_LENGTH_M = 100.0
 _HEADER = re.compile(r"^\s*([^\[\]]*?)\s*(?:\[(.*)\])?\s*$")
 
@@ -108,6 +115,14 @@ def line_from_row(row: Mapping[str, object], units: Mapping[str, str | None] | N
     units = units or {}
     tag = _text(row, "tag") or (f"row {position}" if position is not None else "(untagged)")
     try:
+        if _text(row, BEYOND_HEADER) is not None:
+            raise InputError(f"cells {row[BEYOND_HEADER]} lie outside the header's columns", field="row",
+                             value=row[BEYOND_HEADER], expected="one cell per column; quote a cell that holds the "
+                             "separator (a decimal comma such as 1,5 splits a cell in two)")
+        if _text(row, DUPLICATE_TAG) is not None:
+            raise InputError(f"tag {tag!r} is already the tag of the line in {row[DUPLICATE_TAG]}", field="tag",
+                             value=tag, expected="each tag once; rows of one line's operating cases each name "
+                             "their case in the case column")
         for name in REQUIRED:
             if _text(row, name) is None:
                 raise InputError("missing value", field=name, value="", expected=_EXPECTED[name])
@@ -137,7 +152,10 @@ def line_from_row(row: Mapping[str, object], units: Mapping[str, str | None] | N
             backend=_text(row, "backend"),
             eos=_text(row, "eos"),
             fittings=parse_fittings(_text(row, "fittings")),
+            fittings_method=_fittings_method(_text(row, "fittings_method")),
+            compressible=_choice(row, "compressible", ("isothermal", "adiabatic")),
             case=_text(row, "case"),
+            schedule=normalise_schedule(_text(row, "schedule") or "", "schedule") if _text(row, "schedule") else None,
             **optional,
             extra=tuple((k, str(v)) for k, v in row.items() if k not in COLUMNS and v not in (None, "")),
         )
@@ -156,10 +174,19 @@ def _optional_fields(row: Mapping[str, object], units: Mapping[str, str | None])
     return values
 
 
+def _fittings_method(raw: str | None) -> str | None:
+    """The fittings method id ("darby-3k", "hooper-2k", "crane"), None when the cell is empty."""
+    from boresize.hydraulics.fittings import normalise_method  # lazy: the hydraulics package loads scipy
+
+    return normalise_method(raw) if raw else None
+
+
 def parse_fittings(text: str | None) -> tuple[tuple[str, float], ...]:
     """``"elbow-90-lr: 4; gate: 2"`` (``;`` or ``|`` between items) -> (("elbow-90-lr", 4.0), ("gate", 2.0)).
 
     A kind without a count counts once. The kinds are checked by the fittings method, not here.
+    Explicit items ``K=2.5``, ``Leq=12 m``, ``L/D=340``, ``Kv=500``, ``Cv=580`` keep their ``=`` (see
+    :mod:`boresize.hydraulics.fittings`).
     """
     if not text:
         return ()
@@ -168,7 +195,8 @@ def parse_fittings(text: str | None) -> tuple[tuple[str, float], ...]:
         item = item.strip()
         if not item:
             continue
-        kind, _, count = item.partition(":") if ":" in item else item.partition("=")
+        explicit = re.match(r"(?i)\s*(k|leq|l/d|kv|cv)\s*=", item)  # "K=2.5", "Leq=12 m": no count after "="
+        kind, _, count = item.partition(":") if ":" in item or explicit else item.partition("=")
         try:
             number = float(count) if count.strip() else 1.0
         except ValueError:

@@ -68,6 +68,9 @@ class Line:
     :param npsh_required: NPSH required by the pump at the sizing flow [m]
     :param roughness: absolute roughness that replaces the pipe class's (corroded pipe) [m]
     :param case: operating case name ("normal", "maximum", ...) or None
+    :param schedule: the schedule of an existing line checked at ``nps`` (replaces the pipe class's), or None
+    :param fittings_method: "darby-3k" (default), "hooper-2k" or "crane" (see hydraulics.fittings), or None
+    :param compressible: gas lines above a 10 % drop: "isothermal" (default) or "adiabatic", or None
     """
 
     tag: str
@@ -95,6 +98,9 @@ class Line:
     roughness: float | None = None
     case: str | None = None
     extra: tuple[tuple[str, str], ...] = ()
+    schedule: str | None = None
+    fittings_method: str | None = None
+    compressible: str | None = None
 
 
 @dataclass(frozen=True)
@@ -107,6 +113,15 @@ class FluidState:
     :param speed_of_sound: [m/s], if known
     :param source: the backend id ("coolprop", "table", ...)
     :param model: the model or equation of state used, with the backend version
+    :param vapour_fraction: vapour mass fraction (quality) [-], if known
+    :param bubble_pressure: bubble-point pressure of a mixture at T [Pa abs], if known
+    :param dew_pressure: dew-point pressure of a mixture at T [Pa abs], if known
+    :param backend_version: version of the library behind ``source``
+    :param eos: the equation of state or model id used (e.g. "PR", "HEOS")
+    :param pressure: the pressure the properties were evaluated at [Pa abs]
+    :param temperature: the temperature the properties were evaluated at [K]
+    :param composition: (component, mole fraction) pairs of a mixture
+    :param notes: remarks on how the state was obtained (e.g. fractions normalised)
     """
 
     density: float
@@ -119,6 +134,14 @@ class FluidState:
     speed_of_sound: float | None = None
     molar_mass: float | None = None
     fluid_name: str | None = None
+    bubble_pressure: float | None = None
+    dew_pressure: float | None = None
+    backend_version: str | None = None
+    eos: str | None = None
+    pressure: float | None = None
+    temperature: float | None = None
+    composition: tuple[tuple[str, float], ...] = ()
+    notes: tuple[str, ...] = ()
 
 
 @dataclass(frozen=True)
@@ -154,9 +177,14 @@ class Hydraulics:
     :param fittings_drop: drop across the line's fittings [Pa]
     :param static_drop: rho*g*elevation [Pa] (negative for a line that falls)
     :param fixed_drop: equipment and control-valve allowances [Pa]
-    :param total_drop: friction + fittings + static + fixed [Pa]
+    :param total_drop: friction + fittings + static + fixed (+ acceleration, compressible) [Pa]
     :param outlet_pressure: inlet pressure minus total drop [Pa abs]
-    :param method: how the drop was computed (e.g. "incompressible Darcy-Weisbach")
+    :param method: how the drop was computed (e.g. "incompressible Darcy-Weisbach"), with its sources
+    :param fittings_k: sum of the fittings' loss coefficients [-]; :param fittings_method: how K was found
+    :param acceleration_drop: G^2 (1/rho_out - 1/rho_in) of a compressible line [Pa] (part of total_drop)
+    :param outlet_velocity: [m/s] and :param outlet_mach: [-] at the line end (compressible method), or None
+    :param choked: True when the flow cannot pass the whole line at this size (sonic limit reached, or no
+        state from the property backend on the way; ``method`` says which)
     """
 
     mass_flow: float
@@ -175,6 +203,12 @@ class Hydraulics:
     total_drop: float = 0.0
     outlet_pressure: float | None = None
     method: str = "incompressible Darcy-Weisbach"
+    fittings_k: float = 0.0
+    fittings_method: str = ""
+    acceleration_drop: float = 0.0
+    outlet_velocity: float | None = None
+    outlet_mach: float | None = None
+    choked: bool = False
 
 
 @dataclass(frozen=True)
@@ -220,7 +254,12 @@ class CandidateResult:
 
 @dataclass(frozen=True)
 class LineResult:
-    """The outcome for one line: selected size, its verdicts, or the error that stopped it."""
+    """The outcome for one line: selected size, its verdicts, or the error that stopped it.
+
+    A line with several operating cases carries one result per case in ``cases`` (input order); its
+    own fields are those of the governing case (the one closest to, or furthest past, a limit at the
+    selected size), and ``governing`` names, per criterion id, the case that governs it.
+    """
 
     tag: str
     status: Literal["pass", "fail", "error"]
@@ -238,3 +277,5 @@ class LineResult:
     sizing_flow: float | None = None
     first_guess_diameter: float | None = None
     raw: dict[str, str] = field(default_factory=dict)
+    cases: tuple[LineResult, ...] = ()
+    governing: tuple[tuple[str, str], ...] = ()

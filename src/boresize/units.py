@@ -260,7 +260,7 @@ def _normalise(unit: str, cell: _Cell) -> str:
 
 _NUMBER = re.compile(r"\s*([+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?)(.*)", re.DOTALL)
 _NOT_FINITE = re.compile(r"\s*[+-]?(nan|inf|infinity)\b", re.IGNORECASE)
-_NUMBER_EXAMPLE = {"flow": "65 t/h", "pressure": "10 barg", "temperature": "20 degC"}
+_NUMBER_EXAMPLE = {"flow": "65 t/h", "pressure": "10 barg", "temperature": "20 degC", "dimensionless": "10 %"}
 _SEPARATOR_HELP = ("digits with a decimal point and no thousands separator (1500, 1.5); a comma is "
                    "refused because '1,5' is a decimal comma in much of the world")
 
@@ -329,7 +329,21 @@ def _quantity(value: object, field: str, kind: str, default_unit: str | None) ->
     if kind == "viscosity" and "MPa" in words:  # 1 MPa s = 1e6 Pa s: a typo for mPa s
         raise cell.error(f"'{cell.shown}' is in megapascal-seconds (1 MPa s = 1e6 Pa s)",
                          f"{_help(kind)}; mPa s with a small m is the millipascal")
+    _check_powers(expression, cell)
     return _build(number, expression, cell), cell
+
+
+_POWER_OP = re.compile(r"\*\*|\^")
+_SMALL_EXPONENT = re.compile(r"\s*\(?\s*[+-]?\d(?:\.\d+)?(?![\d.eE])\s*\)?(?!\s*(?:\*\*|\^))")
+
+
+def _check_powers(expression: str, cell: _Cell) -> None:
+    """Refuse a power that is not one small number (m**3, s^-1): pint computes "10**10**10" exactly,
+    a ten-billion-digit integer, and never returns."""
+    powers = list(_POWER_OP.finditer(expression))
+    if len(powers) > 4 or any(not _SMALL_EXPONENT.match(expression, p.end()) for p in powers):
+        raise cell.error(f"cannot read the unit of '{cell.shown}': a power must be one small number, as in "
+                         f"m**3 or s^-1")
 
 
 def _build(number: float, expression: str, cell: _Cell) -> pint.Quantity:
@@ -346,7 +360,8 @@ def _build(number: float, expression: str, cell: _Cell) -> pint.Quantity:
         raise cell.error(f"unknown unit {names} in '{cell.shown}'") from exc
     except pint.OffsetUnitCalculusError as exc:
         raise cell.error(f"'{cell.shown}' combines a gauge or degC/degF unit with other units") from exc
-    except (pint.PintError, TokenError, AssertionError, SyntaxError, TypeError, ValueError) as exc:
+    except (pint.PintError, TokenError, AssertionError, SyntaxError, TypeError, ValueError, ZeroDivisionError,
+            OverflowError) as exc:
         raise cell.error(f"cannot read the unit of '{cell.shown}'") from exc
 
 
@@ -400,7 +415,7 @@ def parse_quantity(value: str | float | int | None, field: str, kind: QuantityKi
     si, noun, _ = _KINDS[kind]
     if quantity.dimensionality != _dimension(si):
         raise _wrong_dimension(quantity, noun, cell)
-    result = float(quantity.to(si).magnitude)
+    result = _finite(float(quantity.to(si).magnitude), cell)  # "1e308 m*10" overflows to inf
     if kind == "pressure" and result <= 0.0:
         raise cell.error(f"absolute pressure must be above zero: '{cell.shown}' is {result:g} Pa abs",
                          "a pressure above 0 Pa abs (a g suffix adds 101.325 kPa)", InputError)
@@ -419,6 +434,8 @@ def parse_flow(value: str | float | int | None, field: str = "flow", default_uni
     as is (the line validator judges it); a wrong dimension raises :class:`UnitError`.
     """
     quantity, cell = _quantity(value, field, "flow", default_unit)
+    if not math.isfinite(float(quantity.magnitude)):  # "1e308 t/h*1e10" overflows to inf
+        raise cell.error(f"'{cell.shown}' is not a finite number", "a finite number", InputError)
     dimension = quantity.dimensionality
     if dimension == _dimension("kg/s"):
         return Flow("mass", float(quantity.to("kg/s").magnitude))

@@ -4,7 +4,7 @@ from __future__ import annotations
 
 from collections.abc import Mapping
 
-from boresize.criteria.base import Criterion, CriterionContext, OptionSpec
+from boresize.criteria.base import Criterion, CriterionContext, OptionSpec, verdict
 from boresize.criteria.limits import check_range, judge_range
 from boresize.model import Verdict
 
@@ -27,5 +27,11 @@ class DropPerLength(Criterion):
         check_range(values, where, "kPa/100 m", PA_PER_M_PER_KPA_100M)
 
     def evaluate(self, context: CriterionContext) -> Verdict:
-        return judge_range(self, context.hydraulics.drop_per_length, context.options, "drop",
-                           "kPa/100 m", PA_PER_M_PER_KPA_100M)
+        h = context.hydraulics
+        if h.choked and "max" in context.options:  # the marched drop covers only the length reached (0 if choked
+            shown = h.drop_per_length / PA_PER_M_PER_KPA_100M  # at the inlet): no drop carries this flow here
+            limit = context.options["max"] / PA_PER_M_PER_KPA_100M
+            return verdict(self, "fail", f"choked flow: no drop carries this flow through this size (the mean "
+                           f"{shown:.3g} kPa/100 m covers only the length reached)", value=shown, limit=limit,
+                           unit="kPa/100 m", utilisation=max(1.0, shown / limit))
+        return judge_range(self, h.drop_per_length, context.options, "drop", "kPa/100 m", PA_PER_M_PER_KPA_100M)

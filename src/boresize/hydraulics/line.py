@@ -1,32 +1,114 @@
-"""The whole line: straight-pipe friction plus fittings, static head and fixed allowances.
+"""The whole line: straight-pipe friction plus fittings, static head, fixed allowances, gas compressibility.
 
-``rate_line`` is what the engine calls for each candidate. Fittings are added by the fittings
-method; static head is rho*g*dz with the rise positive; fixed allowances are added as given.
+``rate_line`` is what the engine calls for each candidate. Total drop = friction (Darcy-Weisbach,
+Colebrook) + fittings (:mod:`boresize.hydraulics.fittings`) + static head rho g dz (rise positive)
++ fixed allowances (equipment, control valves), and the outlet pressure is the inlet pressure less
+the total. A gas or vapour line whose flowing drop (friction + fittings + static) exceeds 10 % of its
+inlet pressure (Crane TP-410) is marched in segments with the properties re-evaluated along it
+(:mod:`boresize.hydraulics.compressible`); its fittings become an equivalent length L = K D / f spread
+along the line, and the fixed allowances are taken at its end. For such a line ``mach`` is the
+outlet's, the highest on the line, so that a Mach limit judges the worst point; velocity, momentum
+and Reynolds number stay the inlet's, and ``drop_per_length`` is the mean over the line.
 """
 
 from __future__ import annotations
 
 from dataclasses import replace
 
+from boresize.hydraulics.compressible import (
+    SIMPLE_LIMIT,
+    GasLine,
+    Properties,
+    march_gas_line,
+    scaled_properties,
+    segment_count,
+)
 from boresize.hydraulics.darcy import rate_pipe
+from boresize.hydraulics.fittings import FittingsLoss, fittings_loss
 from boresize.model import Candidate, FluidState, Hydraulics, Line
 
-__all__ = ["G", "rate_line"]
+__all__ = ["G", "rate_line", "is_gas"]
 
 G = 9.80665  # standard acceleration of gravity [m/s2] (CGPM 1901, exact)
 
 
-def rate_line(line: Line, state: FluidState, candidate: Candidate, mass_flow: float) -> Hydraulics:
+def is_gas(state: FluidState) -> bool:
+    """True for a gas, vapour or supercritical fluid: the states whose density follows the pressure."""
+    return state.phase in ("gas", "supercritical")
+
+
+def rate_line(line: Line, state: FluidState, candidate: Candidate, mass_flow: float,
+              properties: Properties | None = None) -> Hydraulics:
     """Hydraulics of ``candidate`` carrying ``mass_flow`` [kg/s] along ``line`` (SI throughout).
 
-    Total drop = friction (Darcy-Weisbach) + fittings + static (rho g dz, rise positive) + fixed
-    allowances; outlet pressure = inlet pressure - total drop [Pa abs].
+    :param line: length [m], elevation [m, rise positive], fittings, fixed_drop [Pa], inlet pressure
+        [Pa abs] and temperature [K], fittings_method, compressible model
+    :param state: properties at the inlet
+    :param properties: (p [Pa abs], T [K]) -> FluidState, the equation of state along a gas line; None
+        (or line-list values) scales the inlet density as an ideal gas
+    :returns: Hydraulics with every drop [Pa], the outlet pressure [Pa abs] and the method text
+    :raises InputError: an unknown fitting or method (field "fittings", "fittings_method", "compressible")
     """
+    diameter = candidate.inside_diameter
     roughness = line.roughness if line.roughness is not None else candidate.roughness
-    hyd = rate_pipe(mass_flow, state.density, state.viscosity, candidate.inside_diameter, roughness,
-                    line.length, state.speed_of_sound)
+    hyd = rate_pipe(mass_flow, state.density, state.viscosity, diameter, roughness, line.length,
+                    state.speed_of_sound)
+    loss = fittings_loss(line.fittings, line.fittings_method, reynolds=hyd.reynolds, inside_diameter=diameter,
+                         nps=candidate.nps_value)
+    fittings = loss.drop(hyd.friction_factor, state.density, hyd.velocity, diameter)
     static = state.density * G * line.elevation
-    fittings = 0.0
+    fraction = (hyd.drop + fittings + static) / line.pressure
+    hyd = replace(hyd, fittings_k=loss.k_total, fittings_method=loss.method)
+    if is_gas(state) and fraction > SIMPLE_LIMIT and line.length + loss.equivalent_length + loss.k_total > 0.0:
+        return _compressible(line, state, hyd, loss, (diameter, roughness), properties, fraction)
     total = hyd.drop + fittings + static + line.fixed_drop
     return replace(hyd, fittings_drop=fittings, static_drop=static, fixed_drop=line.fixed_drop,
-                   total_drop=total, outlet_pressure=line.pressure - total)
+                   total_drop=total, outlet_pressure=line.pressure - total,
+                   method=_simple_text(state, fraction, loss))
+
+
+def _simple_text(state: FluidState, fraction: float, loss: FittingsLoss) -> str:
+    text = "incompressible Darcy-Weisbach, Colebrook friction factor"
+    if is_gas(state):
+        text += (f", inlet density: drop {fraction:.1%} of inlet pressure, within the {SIMPLE_LIMIT:.0%} "
+                 f"limit of Crane TP-410")
+    return f"{text}; {loss.method}"
+
+
+def _compressible(line: Line, state: FluidState, hyd: Hydraulics, loss: FittingsLoss, bore: tuple[float, float],
+                  properties: Properties | None, fraction: float) -> Hydraulics:
+    """March the line (pipe + fittings as equivalent length); split friction between pipe and fittings.
+
+    :param bore: (inside diameter [m], absolute roughness [m])
+    """
+    diameter, roughness = bore
+    scaled = properties is None or state.source == "table"
+    along = scaled_properties(state, line.pressure, line.temperature) if scaled else properties
+    fittings_length = loss.equivalent_length + loss.k_total * diameter / hyd.friction_factor
+    marched = line.length + fittings_length
+    gas = march_gas_line(line.pressure, line.temperature, hyd.mass_flow, diameter, roughness, marched,
+                         along, model=line.compressible or "isothermal", elevation=line.elevation,
+                         segments=segment_count(fraction))
+    pipe_drop = gas.friction_drop * line.length / marched
+    outlet = gas.outlet_pressure - line.fixed_drop
+    return replace(
+        hyd, drop=pipe_drop, drop_per_length=pipe_drop / line.length if line.length > 0 else hyd.drop_per_length,
+        fittings_drop=gas.friction_drop - pipe_drop, static_drop=gas.static_drop,
+        acceleration_drop=gas.acceleration_drop, fixed_drop=line.fixed_drop, total_drop=line.pressure - outlet,
+        outlet_pressure=outlet, outlet_velocity=gas.outlet_velocity, outlet_mach=gas.outlet_mach,
+        mach=gas.outlet_mach if gas.outlet_mach is not None else hyd.mach,
+        choked=gas.choked, method=_compressible_text(gas, state, scaled, fraction, marched, loss))
+
+
+def _compressible_text(gas: GasLine, state: FluidState, scaled: bool, fraction: float, marched: float,
+                       loss: FittingsLoss) -> str:
+    source = ("inlet values scaled as an ideal gas (Z and viscosity held)" if scaled
+              else f"{state.source} ({state.model}) re-evaluated along the line")
+    text = (f"{gas.model} compressible flow in {gas.segments} segments with acceleration, properties from "
+            f"{source}: the incompressible drop is {fraction:.1%} of inlet pressure, above the "
+            f"{SIMPLE_LIMIT:.0%} limit of Crane TP-410; fittings as equivalent length L = K D/f ({loss.method}); "
+            f"friction factor Colebrook, drop per length the mean over the line, Mach number the outlet's")
+    if gas.choked:
+        text += (f"; CHOKED at {gas.reached_length:.4g} m of {marched:.4g} m (pipe plus fittings' equivalent "
+                 f"length): {gas.stop_reason}")
+    return text

@@ -1,26 +1,41 @@
-"""Reading a line list from CSV: headers with optional default units, one row per line case."""
+"""Reading a line list from CSV: headers with optional default units, one row per line case.
+
+Columns whose header starts with ``result.`` are boresize's own output (see :mod:`boresize.io.table`)
+and are skipped, so that a results file can be read back as a line list; cells that the writer
+neutralised against formula injection (a leading apostrophe) are restored.
+"""
 
 from __future__ import annotations
 
 import csv
+import hashlib
 import io
 from dataclasses import dataclass, field
 from pathlib import Path
 
 from boresize.errors import InputError
-from boresize.lines import parse_header
+from boresize.io.safety import restore
+from boresize.lines import BEYOND_HEADER, COLUMNS, REQUIRED, parse_header
 
-__all__ = ["LineList", "read_csv", "parse_csv_text"]
+__all__ = ["RESULT_PREFIX", "LineList", "read_csv", "parse_csv_text", "file_digest", "check_header", "surplus_cells"]
+
+#: Header prefix of the columns boresize adds to a line list; readers skip them.
+RESULT_PREFIX = "result."
 
 
 @dataclass
 class LineList:
-    """Rows as ``field -> cell text``, the default unit of each field, and where they came from."""
+    """Rows as ``field -> cell text``, the default unit of each field, and where they came from.
+
+    :param headers: the input column headers as written (``"length [m]"``), result columns left out
+    :param digest: SHA-256 of the file read, for the traceability record
+    """
 
     rows: list[dict[str, str]]
     units: dict[str, str | None]
     source: str
     headers: list[str] = field(default_factory=list)
+    digest: str | None = None
 
     def pairs(self) -> list[tuple[dict[str, str], dict[str, str | None]]]:
         return [(row, self.units) for row in self.rows]
@@ -36,11 +51,19 @@ def read_csv(path: str | Path) -> LineList:
     except UnicodeDecodeError as exc:
         raise InputError(f"{path} is not UTF-8 text", field="lines", value=str(path),
                          expected="a CSV file saved as UTF-8") from exc
-    return parse_csv_text(text, str(path))
+    line_list = parse_csv_text(text, str(path))
+    line_list.digest = file_digest(path)
+    return line_list
+
+
+def file_digest(path: str | Path) -> str:
+    """SHA-256 of a file's bytes, as hex."""
+    return hashlib.sha256(Path(path).read_bytes()).hexdigest()
 
 
 def parse_csv_text(text: str, source: str = "<text>") -> LineList:
     """Parse CSV text; blank rows are skipped, duplicate columns are an error naming them."""
+    text = text.removeprefix("\ufeff")  # a byte-order mark left by a reader that kept it
     lines = [ln for ln in text.splitlines() if ln.strip() and not ln.lstrip().startswith("#")]
     if not lines:
         raise InputError(f"{source} holds no header row", field="lines", value=source,
@@ -49,18 +72,24 @@ def parse_csv_text(text: str, source: str = "<text>") -> LineList:
     reader = csv.reader(io.StringIO("\n".join(lines)), dialect)
     raw_headers = next(reader)
     headers = [parse_header(h) for h in raw_headers]
-    names = [h.field for h in headers]
+    names = ["" if h.field.startswith(RESULT_PREFIX) else h.field for h in headers]
     duplicates = sorted({n for n in names if n and names.count(n) > 1})
     if duplicates:
         raise InputError(f"column {duplicates[0]!r} appears twice in {source}", field="header",
                          value=duplicates[0], expected="each column once")
+    check_header(names, raw_headers, source)
     rows = []
     for cells in reader:
         if not any(c.strip() for c in cells):
             continue
-        rows.append({name: cell.strip() for name, cell in zip(names, cells) if name})
-    units = {h.field: h.unit for h in headers if h.field}
-    return LineList(rows=rows, units=units, source=source, headers=raw_headers)
+        rows.append({**{name: restore(cell.strip()).strip() for name, cell in zip(names, cells) if name},
+                     **surplus_cells(raw_headers, cells)})
+    if not rows:
+        raise InputError(f"{source} has a header but no lines", field="lines", value=source,
+                         expected="one row per line case below the header")
+    units = {h.field: h.unit for h, name in zip(headers, names) if name}
+    kept = [text for text, name in zip(raw_headers, names) if name]
+    return LineList(rows=rows, units=units, source=source, headers=kept)
 
 
 def _dialect(header: str) -> type[csv.Dialect]:
@@ -71,3 +100,48 @@ def _dialect(header: str) -> type[csv.Dialect]:
         delimiter = separator
 
     return Dialect
+
+
+def check_header(names: list[str], raw_headers: list[str], source: str) -> None:
+    """Refuse a header that is not one, lacks a required column, or misspells a column ("lenght"):
+    a misspelt column would be ignored and its default used, a silently wrong answer.
+
+    :param names: the field of each header (as :func:`~boresize.lines.parse_header` gives it)
+    :raises InputError: field "header", naming the column and what was expected
+    """
+    shown = ", ".join(raw_headers)
+    if not set(names) & set(COLUMNS):
+        raise InputError(f"the first row of {source} ({shown}) names none of the columns", field="header",
+                         value=shown, expected=f"a header row first, naming at least {', '.join(REQUIRED)}")
+    for name, text in zip(names, raw_headers):
+        near = [c for c in COLUMNS if name and name not in COLUMNS and _near_miss(name, c)]
+        if near:
+            raise InputError(f"unknown column {text.strip()!r} in {source} (close to {near[0]!r})", field="header",
+                             value=text.strip(), expected=f"{near[0]!r} if that is meant, or a name that is not a "
+                             f"near-miss of a column ({', '.join(COLUMNS)})")
+    missing = [c for c in REQUIRED if c not in names]
+    if missing:
+        raise InputError(f"the header of {source} has no column {', '.join(map(repr, missing))}", field="header",
+                         value=shown, expected=f"the columns {', '.join(REQUIRED)} (the others are optional)")
+
+
+def _near_miss(word: str, column: str) -> bool:
+    """Within two edits (one for short words) of ``column``: insert, delete, change or swap two neighbours."""
+    if len(word) < 3:
+        return False
+    a, b = word, column
+    d = [[i + j if i * j == 0 else 0 for j in range(len(b) + 1)] for i in range(len(a) + 1)]
+    for i in range(1, len(a) + 1):
+        for j in range(1, len(b) + 1):
+            d[i][j] = min(d[i - 1][j] + 1, d[i][j - 1] + 1, d[i - 1][j - 1] + (a[i - 1] != b[j - 1]))
+            if i > 1 and j > 1 and a[i - 1] == b[j - 2] and a[i - 2] == b[j - 1]:
+                d[i][j] = min(d[i][j], d[i - 2][j - 2] + 1)
+    return d[-1][-1] <= (1 if len(word) < 5 else 2)
+
+
+def surplus_cells(raw_headers: list[str], cells: list[str]) -> dict[str, str]:
+    """The row's non-empty cells under no header (beyond the last column, or under a blank header cell), under
+    :data:`~boresize.lines.BEYOND_HEADER`; empty cells, as spreadsheets export them, are not surplus."""
+    heads = list(raw_headers) + [""] * max(0, len(cells) - len(raw_headers))
+    surplus = [str(c).strip() for c, head in zip(cells, heads) if str(c).strip() and not str(head).strip()]
+    return {BEYOND_HEADER: ", ".join(repr(cell) for cell in surplus)} if surplus else {}

@@ -1,8 +1,13 @@
-"""Results as plain dictionaries: the JSON contract of DESIGN.md, plus the calculation record."""
+"""Results as plain dictionaries: the JSON contract of DESIGN.md, plus the calculation record.
+
+A line with several operating cases is one entry: the contract keys come from the governing case
+(named in ``case``), ``governing`` maps each criterion to the case that governs it, and ``cases``
+lists every case's own entry in input order (empty for a line without named cases).
+"""
 
 from __future__ import annotations
 
-from collections.abc import Sequence
+from collections.abc import Mapping, Sequence
 from typing import Any
 
 from boresize import __version__
@@ -37,6 +42,7 @@ def candidate_to_dict(c: CandidateResult) -> dict[str, Any]:
         "inside_diameter_mm": _r(c.candidate.inside_diameter * 1e3), "velocity_m_s": _r(h.velocity),
         "dp_kpa_per_100m": _r(h.drop_per_length / 10.0), "reynolds": _r(h.reynolds),
         "friction_factor": _r(h.friction_factor), "regime": h.regime, "passed": c.passed,
+        "failing": [v.criterion for v in c.verdicts if v.status in ("fail", "error")],
     }
 
 
@@ -58,12 +64,22 @@ def result_to_dict(result: LineResult) -> dict[str, Any]:
         "controlling": result.controlling,
         "utilisation": _r(sel.worst.utilisation, 4) if sel and sel.worst else None,
         "verdicts": [verdict_to_dict(v) for v in sel.verdicts] if sel else [],
+        "case": _case(result),
+        "governing": dict(result.governing),
     }
     if result.error:
         entry["error"] = result.error
         entry["error_field"] = result.error_field
     entry.update(_record(result))
+    entry["input"] = dict(result.raw)
+    entry["cases"] = [result_to_dict(c) for c in result.cases]
     return entry
+
+
+def _case(result: LineResult) -> str | None:
+    if result.line is not None and result.line.case:
+        return result.line.case
+    return result.raw.get("case") or None
 
 
 def _record(result: LineResult) -> dict[str, Any]:
@@ -75,10 +91,12 @@ def _record(result: LineResult) -> dict[str, Any]:
         "notes": list(result.notes),
     }
     if line is not None:
+        roughness = line.roughness if line.roughness is not None else sel.candidate.roughness if sel else None
         record.update({
             "fluid": line.fluid, "pressure_bar_abs": _r(line.pressure / 1e5), "temperature_c": _r(line.temperature - 273.15),
             "length_m": _r(line.length), "pipe_class": sel.candidate.pipe_class if sel else line.pipe_class,
             "design_margin": line.design_margin,
+            "roughness_mm": _r(roughness * 1e3) if roughness is not None else None,
         })
     if state is not None:
         record.update({"phase": state.phase, "property_source": state.source, "property_model": state.model,
@@ -99,14 +117,18 @@ def _record(result: LineResult) -> dict[str, Any]:
     return record
 
 
-def document(results: Sequence[LineResult], *, criteria_source: str, lines_source: str) -> dict[str, Any]:
-    """The whole JSON document: lines in input order, a summary, and the caution."""
+def document(results: Sequence[LineResult], *, criteria_source: str, lines_source: str,
+             traceability: Mapping[str, Any] | None = None) -> dict[str, Any]:
+    """The whole JSON document: lines in input order, a summary, the caution and (given) the traceability."""
     counts = {status: sum(1 for r in results if r.status == status) for status in ("pass", "fail", "error")}
-    return {
+    doc: dict[str, Any] = {
         "boresize_version": __version__,
         "lines_source": lines_source,
         "criteria_source": criteria_source,
         "summary": {"lines": len(results), **counts},
         "caution": CAUTION,
-        "lines": [result_to_dict(r) for r in results],
     }
+    if traceability is not None:
+        doc["traceability"] = dict(traceability)
+    doc["lines"] = [result_to_dict(r) for r in results]
+    return doc

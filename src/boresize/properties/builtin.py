@@ -1,10 +1,17 @@
-"""The built-in property backends, registered through the same hook a third-party plugin uses."""
+"""The built-in property backends, registered through the same hook a third-party plugin uses.
+
+Order matters for the automatic choice (the first backend whose ``handles(line)`` is true serves a
+line that names no backend): line list values, then CoolProp for pure fluids it knows, then CoolProp
+incompressible liquids and brines, then thermo for mixtures and the pure components CoolProp lacks.
+"""
 
 from __future__ import annotations
 
 from boresize.hookspecs import hookimpl
 from boresize.properties.coolprop import CoolPropBackend
+from boresize.properties.coolprop_mixture import CoolPropMixtureBackend
 from boresize.properties.table import TableBackend
+from boresize.properties.thermo import ThermoBackend
 from boresize.registry import BackendRegistry
 
 
@@ -12,3 +19,5 @@ from boresize.registry import BackendRegistry
 def boresize_register_property_backends(register: BackendRegistry) -> None:
     register.add(TableBackend())
     register.add(CoolPropBackend())
+    register.add(CoolPropMixtureBackend())
+    register.add(ThermoBackend())

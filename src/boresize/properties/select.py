@@ -1,19 +1,29 @@
 """Choosing the property backend for a line, and turning its flow into a mass flow.
 
-A line that names a backend (``backend`` column) gets that one. Otherwise a line that gives both
-density and viscosity uses them (backend ``table``, recorded as the source); otherwise the first
-registered backend whose ``handles(line)`` is true serves it.
+A line that names a backend (``backend`` column: ``coolprop``, ``thermo``, ``coolprop-mixture``,
+``table`` or a plugin's id) gets that one. Otherwise a line that gives both density and viscosity uses
+them (backend ``table``, recorded as the source); otherwise the first registered backend whose
+``handles(line)`` is true serves it: with the built-ins, a pure fluid CoolProp knows -> ``coolprop``;
+a CoolProp incompressible liquid or brine (``MEG 30%``) -> ``coolprop-mixture``; a mixture
+(``methane:0.9, ethane:0.1``) or a component only the chemicals database knows -> ``thermo``.
+
+A standard-volume flow (Sm3/h, Nm3/h, scf, MMSCFD) becomes a mass flow with the density that the
+same backend gives at the unit's reference conditions, so a mixture's standard volume uses its EOS.
 """
 
 from __future__ import annotations
 
+from dataclasses import replace
 from typing import Any
 
-from boresize.errors import InputError
+from boresize.errors import BoresizeError, InputError, PropertyError
 from boresize.model import FluidState, Line
 from boresize.plugins import PluginHost
+from boresize.properties.base import check_plausible
 
 __all__ = ["choose_backend", "fluid_state", "mass_flow_of"]
+
+_PHASES = ("liquid", "gas", "two-phase", "supercritical")
 
 
 def choose_backend(host: PluginHost, line: Line) -> Any:
@@ -38,17 +48,48 @@ def choose_backend(host: PluginHost, line: Line) -> Any:
     given = "density" if line.density is not None else "viscosity" if line.viscosity is not None else None
     hint = f"; {given} was given but not both density and viscosity" if given else ""
     raise InputError(f"no property backend knows fluid {line.fluid!r}{hint}", field="fluid", value=line.fluid,
-                     expected="a pure fluid by name, CoolProp name or CAS number, or both density and viscosity"
-                     ).for_line(line.tag)
+                     expected="a pure fluid by name, CoolProp name or CAS number, a mixture such as "
+                              "'methane:0.9, ethane:0.1', or both density and viscosity").for_line(line.tag)
 
 
 def fluid_state(host: PluginHost, line: Line) -> FluidState:
     """Properties at the line's inlet pressure and temperature."""
-    backend = choose_backend(host, line)
+    return _state_of(host, choose_backend(host, line), line, line.pressure, line.temperature)
+
+
+def _state_of(host: PluginHost, backend: Any, line: Line, pressure: float, temperature: float) -> FluidState:
+    """``backend.state`` at ``pressure`` [Pa abs] and ``temperature`` [K], with a plugin's fault named: an
+    exception outside boresize's tree, a wrong type or an implausible value is a PropertyError naming it."""
+    who = f"property backend {backend.id!r} of plugin {host.backends.owner(backend.id)!r}"
     try:
-        return backend.state(line, line.pressure, line.temperature)
+        state = backend.state(line, pressure, temperature)
     except InputError as exc:
         raise (exc if exc.tag else exc.for_line(line.tag)) from None
+    except BoresizeError:
+        raise
+    except Exception as exc:  # a plugin's fault: named, and the batch goes on
+        raise PropertyError(f"{who} raised {type(exc).__name__}: {exc}") from exc
+    if not isinstance(state, FluidState):
+        raise PropertyError(f"{who} returned {type(state).__name__}, not a FluidState")
+    if state.phase not in _PHASES:
+        raise PropertyError(f"{who} returned phase {state.phase!r}, not one of {', '.join(_PHASES)}")
+    check_plausible(state.density, state.viscosity, backend=backend.id, fluid=line.fluid, pressure=pressure,
+                    temperature=temperature)
+    return _recorded(state, backend, pressure, temperature)
+
+
+def _recorded(state: FluidState, backend: Any, pressure: float, temperature: float) -> FluidState:
+    """The state with its backend version, state point [Pa abs, K] and, for one phase, its vapour mass
+    fraction (0 liquid, 1 gas) filled in where the backend left them out."""
+    quality = state.vapour_fraction
+    if quality is None and state.phase != "two-phase":
+        quality = 0.0 if state.phase == "liquid" else 1.0
+    if (state.backend_version is not None and state.pressure is not None and state.temperature is not None
+            and quality == state.vapour_fraction):
+        return state
+    return replace(state, backend_version=state.backend_version or str(backend.version()), vapour_fraction=quality,
+                   pressure=state.pressure if state.pressure is not None else pressure,
+                   temperature=state.temperature if state.temperature is not None else temperature)
 
 
 def mass_flow_of(host: PluginHost, line: Line, state: FluidState) -> float:
@@ -68,7 +109,7 @@ def mass_flow_of(host: PluginHost, line: Line, state: FluidState) -> float:
             "a standard volume flow needs the fluid's density at reference conditions, which line-list "
             "density and viscosity do not give", field="flow", value=flow.reference_name,
             expected="a mass or actual volume flow, or a fluid the equation of state knows").for_line(line.tag)
-    reference = backend.state(line, flow.reference_p, flow.reference_t)
+    reference = _state_of(host, backend, line, flow.reference_p, flow.reference_t)
     if reference.phase not in ("gas", "supercritical"):
         raise InputError(
             f"{line.fluid} is {reference.phase} at the reference conditions ({flow.reference_name}); a standard "

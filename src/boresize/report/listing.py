@@ -24,10 +24,12 @@ def render_criteria(host: PluginHost, config: SizingConfig) -> str:
     for name in config.service_names():
         service = config.services[name]
         phase = f" ({service.phase})" if service.phase else ""
-        out.append(f"  {name}{phase}: {service.description}")
+        out.append(f"  {name}{phase}: {service.description}  [set {service.set_name} {service.version}]")
         for criterion, options in service.criteria:
             shown = ", ".join(f"{k}={_fmt(v)} SI" for k, v in options.items()) or "defaults"
-            out.append(f"      {criterion.id}: {shown}")
+            out.append(f"      {criterion.id}: {shown}" if not hasattr(criterion, "bands") else f"      {criterion.id}:")
+            for band in getattr(criterion, "bands", ()):  # limits banded by NPS and pressure
+                out.append(f"        {band.label}: " + ", ".join(f"{k}={_fmt(v)} SI" for k, v in band.options.items()))
     out.append("")
     out.append("A line without a service gets 'liquid' or 'gas' by its phase.")
     return "\n".join(out) + "\n"

@@ -20,6 +20,8 @@ def _row(r: LineResult) -> tuple[str, ...]:
         return (r.tag, r.service or "-", r.status.upper(), "-", "-", "-", "-", "-", "-", "-", "-", "-")
     h, worst = sel.hydraulics, sel.worst
     controlling = f"{worst.criterion} {worst.utilisation:.0%}" if worst and worst.utilisation is not None else "-"
+    if r.cases and r.line is not None and r.line.case:
+        controlling += f" ({r.line.case})"  # the governing case of a line with several
     status = r.status.upper() + (" (check)" if r.mode == "check" else "")
     return (r.tag, r.service or "-", status, sel.candidate.nps, sel.candidate.schedule,
             f"{sel.candidate.inside_diameter * 1e3:.1f}", f"{h.velocity:.2f}", f"{h.drop_per_length / 10:.1f}",

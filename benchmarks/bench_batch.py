@@ -1,0 +1,158 @@
+"""Benchmark: a 2,000-line list sized on 2 worker processes, against the bare property-call floor.
+
+The line list is the demo unit's lines repeated with flows scaled 0.6-1.4x and temperatures moved
++/-5 K (deterministic), every row its own line. The floor is the time bare CoolProp calls take for the
+same lines, without any sizing, three ways:
+
+* ``PropsSI`` once per line: ``PropsSI("D", ...)`` and ``PropsSI("V", ...)`` (CoolProp's plain call);
+* ``AbstractState`` once per line: one reused ``AbstractState("HEOS", fluid)`` per fluid, ``update(PT)``
+  then density and viscosity (the fastest way CoolProp offers; DEPENDENCY-NOTES: 6-60 us);
+* ``AbstractState`` at every state point boresize asked its CoolProp backend for (recorded in a
+  one-process run): gas lines are marched along their length, which needs many points per size.
+
+Lines whose density and viscosity are given (table values) cost nothing in the floor. The target
+(issue "The line list workflow") is a boresize wall-clock total under 1.5x the floor; the script prints
+the ratios and says whether the target is met. Not run by the unit tests: ``make bench``.
+
+Run: ``.venv/bin/python benchmarks/bench_batch.py [--lines 2000] [--workers 2] [--no-progress]``
+"""
+
+from __future__ import annotations
+
+import argparse
+import csv
+import tempfile
+import time
+from pathlib import Path
+
+ROOT = Path(__file__).resolve().parents[1]
+DEMO = ROOT / "examples" / "demo-unit"
+TARGET = 1.5
+Point = tuple[str, float, float]
+
+
+def build_line_list(count: int, folder: Path) -> Path:
+    """Write a ``count``-line CSV made from the demo lines (no cases: every row is a line)."""
+    with open(DEMO / "lines.csv", encoding="utf-8") as handle:
+        reader = csv.DictReader(handle)
+        headers = [h for h in reader.fieldnames or () if h != "case"]
+        demo = list(reader)
+    path = folder / f"lines-{count}.csv"
+    with open(path, "w", encoding="utf-8", newline="") as handle:
+        writer = csv.DictWriter(handle, headers, extrasaction="ignore")
+        writer.writeheader()
+        for i in range(count):
+            row = dict(demo[i % len(demo)])
+            scale = 0.6 + 0.8 * ((i * 7919) % 1000) / 1000.0
+            number, unit = row["flow"].split(" ", 1)
+            row["flow"] = f"{float(number) * scale:.5g} {unit}"
+            t_number, t_unit = row["temperature"].split(" ", 1)
+            row["temperature"] = f"{float(t_number) + ((i * 104729) % 100) / 10.0 - 5.0:.3f} {t_unit}"
+            row["tag"] = f"{row['tag']}-{i:04d}"
+            writer.writerow(row)
+    return path
+
+
+def run_boresize(path: Path, workers: int, progress: bool) -> tuple[float, int]:
+    """Wall-clock seconds for the whole run on ``workers`` processes (their start-up included); lines."""
+    from boresize.batch import run_batch, spec_for
+    from boresize.io import read_line_list
+
+    spec = spec_for(DEMO / "criteria.toml", False, None)
+    start = time.perf_counter()
+    line_list = read_line_list(path)
+    results = run_batch(line_list.pairs(), spec, workers=workers, progress=progress)
+    total = time.perf_counter() - start
+    statuses = {s: sum(1 for r in results if r.status == s) for s in ("pass", "fail", "error")}
+    print(f"boresize: {len(results)} lines, {statuses}")
+    return total, len(results)
+
+
+def run_single_recording(path: Path) -> tuple[float, list[Point]]:
+    """Seconds for the run in one process, and every (fluid, p, T) point boresize asked CoolProp for."""
+    from boresize.batch import run_batch, spec_for
+    from boresize.io import read_line_list
+
+    sizer = spec_for(DEMO / "criteria.toml", False, None).build()
+    backend = sizer.host.backends.get("coolprop")
+    asked: list[Point] = []
+    plain_state = backend.state
+
+    def recording_state(line, pressure, temperature):  # type: ignore[no-untyped-def]
+        asked.append((backend.resolve(line.fluid), pressure, temperature))
+        return plain_state(line, pressure, temperature)
+
+    backend.state = recording_state  # wraps the public method of this one instance
+    line_list = read_line_list(path)
+    start = time.perf_counter()
+    run_batch(line_list.pairs(), sizer=sizer, progress=False)
+    return time.perf_counter() - start, asked
+
+
+def line_points(path: Path) -> list[Point]:
+    """(CoolProp name, pressure [Pa abs], temperature [K]) of each line whose properties CoolProp gives."""
+    from boresize.io import read_line_list
+    from boresize.lines import line_from_row
+    from boresize.properties.coolprop import CoolPropBackend
+
+    backend, points = CoolPropBackend(), []
+    line_list = read_line_list(path)
+    for position, row in enumerate(line_list.rows, start=1):
+        line = line_from_row(row, line_list.units, position)
+        if line.density is None or line.viscosity is None:
+            points.append((backend.resolve(line.fluid), line.pressure, line.temperature))
+    return points
+
+
+def time_props_si(points: list[Point]) -> float:
+    """Seconds for PropsSI density and viscosity at every point."""
+    from CoolProp import CoolProp as CP
+
+    start = time.perf_counter()
+    for name, p, t in points:
+        CP.PropsSI("D", "T", t, "P", p, name)
+        CP.PropsSI("V", "T", t, "P", p, name)
+    return time.perf_counter() - start
+
+
+def time_abstract_state(points: list[Point]) -> float:
+    """Seconds for update(PT) + density + viscosity on one reused AbstractState per fluid at every point."""
+    from CoolProp import CoolProp as CP
+
+    states = {name: CP.AbstractState("HEOS", name) for name, _, _ in points}
+    start = time.perf_counter()
+    for name, p, t in points:
+        state = states[name]
+        try:
+            state.update(CP.PT_INPUTS, p, t)
+            state.rhomass()
+            state.viscosity()
+        except ValueError:  # a point CoolProp refuses (on the saturation line) still cost its call
+            pass
+    return time.perf_counter() - start
+
+
+def main() -> None:
+    parser = argparse.ArgumentParser(description=__doc__.split("\n")[0])
+    parser.add_argument("--lines", type=int, default=2000)
+    parser.add_argument("--workers", type=int, default=2)
+    parser.add_argument("--no-progress", action="store_true")
+    args = parser.parse_args()
+    with tempfile.TemporaryDirectory() as folder:
+        path = build_line_list(args.lines, Path(folder))
+        total, count = run_boresize(path, args.workers, not args.no_progress)
+        single, asked = run_single_recording(path)
+        points = line_points(path)
+    print(f"boresize --workers {args.workers}: {total:.2f} s = {total / count * 1e6:.0f} us/line (worker start-up "
+          f"and CoolProp import included); one process, warm: {single:.2f} s = {single / count * 1e6:.0f} us/line")
+    floors = (("PropsSI D+V once per line", time_props_si(points), len(points)),
+              ("AbstractState update+D+V once per line", time_abstract_state(points), len(points)),
+              ("AbstractState at every point boresize asked for", time_abstract_state(asked), len(asked)))
+    for name, floor, calls in floors:
+        ratio = total / floor if floor > 0 else float("inf")
+        print(f"floor {name}: {floor:.3f} s ({calls} calls) = {floor / count * 1e6:.0f} us/line; boresize total / "
+              f"floor = {ratio:.1f}x (target under {TARGET}x: {'met' if ratio < TARGET else 'NOT met'})")
+
+
+if __name__ == "__main__":
+    main()

@@ -1,0 +1,180 @@
+"""Running a whole line list: in this process, or on worker processes, with a progress bar.
+
+The plugin manager cannot be pickled, so a worker never receives a :class:`~boresize.engine.Sizer`:
+it builds its own from a :class:`SizerSpec` (criteria file path, whether to load entry points,
+corroded roughness) once, in the executor's initializer, and the parent sends the rows of whole
+lines in chunks. Results come back in input order whatever order the chunks finish in. A line's
+fault stays on that line (an ``error`` result); only a worker process that dies stops the batch.
+
+Any :class:`concurrent.futures.Executor` can be passed (a thread pool, a cluster's executor): the
+task builds the worker's sizer on first use when no initializer did.
+"""
+
+from __future__ import annotations
+
+import math
+import multiprocessing
+import sys
+import threading
+from collections.abc import Callable, Iterable, Iterator, Mapping, Sequence
+from concurrent.futures import Executor, Future, ProcessPoolExecutor, as_completed
+from concurrent.futures.process import BrokenProcessPool
+from contextlib import contextmanager
+from dataclasses import dataclass
+from pathlib import Path
+from typing import TextIO
+
+from boresize.cases import Row, group_rows
+from boresize.engine import Sizer
+from boresize.errors import BoresizeError, InputError
+from boresize.model import LineResult
+
+__all__ = ["PROGRESS_THRESHOLD", "SizerSpec", "run_batch", "spec_for", "summary"]
+
+#: A run of at least this many lines shows a progress bar on a terminal without being asked [lines].
+PROGRESS_THRESHOLD = 50
+_SIZERS: dict[SizerSpec, Sizer] = {}
+_SIZERS_LOCK = threading.Lock()
+
+
+@dataclass(frozen=True)
+class SizerSpec:
+    """Everything a worker needs to build the same :class:`Sizer` as the parent (picklable).
+
+    :param criteria_file: path of the criteria TOML, or None for the shipped sets
+    :param load_entry_points: False to use only boresize's built-in plugins
+    :param check_roughness: corroded roughness for checked lines [m], or None
+    """
+
+    criteria_file: str | None = None
+    load_entry_points: bool = True
+    check_roughness: float | None = None
+
+    def build(self) -> Sizer:
+        from boresize.plugins import PluginHost
+
+        host = PluginHost.load(load_entry_points=self.load_entry_points)
+        return Sizer(host, criteria_file=self.criteria_file, check_roughness=self.check_roughness)
+
+
+def _worker_sizer(spec: SizerSpec) -> Sizer:
+    with _SIZERS_LOCK:
+        if spec not in _SIZERS:
+            _SIZERS[spec] = spec.build()
+        return _SIZERS[spec]
+
+
+def _init_worker(spec: SizerSpec) -> None:
+    """Executor initializer: build the worker's sizer before the first chunk arrives."""
+    _worker_sizer(spec)
+
+
+def _run_chunk(spec: SizerSpec, chunk: Sequence[Sequence[Row]]) -> list[LineResult]:
+    sizer = _worker_sizer(spec)
+    return [sizer.run_line_rows(group) for group in chunk]
+
+
+def _chunks(groups: Sequence[Sequence[Row]], workers: int, size: int | None) -> list[Sequence[Sequence[Row]]]:
+    """Chunks of whole lines: about eight per worker (a balance of load against pickling), 1-64 lines each."""
+    size = size or max(1, min(64, math.ceil(len(groups) / (max(workers, 1) * 8))))
+    return [groups[i:i + size] for i in range(0, len(groups), size)]
+
+
+def _process_pool(workers: int, spec: SizerSpec) -> ProcessPoolExecutor:
+    # fork on Linux: the workers inherit the imported modules (pint, plugins) instead of importing again.
+    # All workers are forked at the first submit, before the progress bar starts its thread.
+    context = multiprocessing.get_context("fork") if sys.platform == "linux" else None
+    return ProcessPoolExecutor(workers, mp_context=context, initializer=_init_worker, initargs=(spec,))
+
+
+@contextmanager
+def _progress(total: int, show: bool | None, stream: TextIO | None) -> Iterator[Callable[[int], None]]:
+    """A rich progress bar on stderr when asked for (``show``), or by default on a terminal for long runs."""
+    out = stream or sys.stderr
+    if show is None:
+        show = total >= PROGRESS_THRESHOLD and out.isatty()
+    if not show:
+        yield lambda n: None
+        return
+    from rich.console import Console
+    from rich.progress import BarColumn, MofNCompleteColumn, Progress, TextColumn, TimeElapsedColumn, \
+        TimeRemainingColumn
+
+    console = Console(file=out, force_terminal=out.isatty() or None)
+    columns = (TextColumn("sizing"), BarColumn(), MofNCompleteColumn(), TextColumn("lines"), TimeElapsedColumn(),
+               TimeRemainingColumn())
+    with Progress(*columns, console=console, transient=False) as bar:
+        task = bar.add_task("sizing", total=total)
+        yield lambda n: bar.advance(task, n)
+
+
+def run_batch(rows: Iterable[tuple[Mapping[str, object], Mapping[str, str | None]]], spec: SizerSpec | None = None,
+              *, sizer: Sizer | None = None, executor: Executor | None = None, workers: int = 1,
+              progress: bool | None = None, chunk_size: int | None = None,
+              progress_stream: TextIO | None = None) -> list[LineResult]:
+    """Size or check every line of a line list; one result per line (cases grouped), in input order.
+
+    :param rows: (field -> cell, field -> default unit) per row, e.g. ``LineList.pairs()``
+    :param spec: how workers build their sizer (also used here when ``sizer`` is not given)
+    :param sizer: the sizer to use in this process; in a parallel run (with ``spec``) it sizes the first line
+        here before the workers start, so that forked workers inherit the property libraries it imported
+    :param executor: any executor to run chunks on (it is not shut down here)
+    :param workers: worker processes to start when no executor is given (1 runs here)
+    :param progress: True/False to force the progress bar on or off; None shows it on a terminal for long runs
+    :raises InputError: a parallel run given a ``sizer`` but no ``spec`` (workers could not rebuild it)
+    :raises BoresizeError: a worker process died (the line at fault is not known)
+    """
+    groups = group_rows(rows)
+    parallel = executor is not None or workers > 1
+    if parallel and spec is None and sizer is not None:
+        raise InputError("a parallel run cannot send a Sizer to its workers", field="spec", value=None,
+                         expected="a SizerSpec from which each worker builds its own sizer")
+    spec = spec or SizerSpec()
+    if not parallel:
+        local = sizer or spec.build()
+        results = []
+        with _progress(len(groups), progress, progress_stream) as advance:
+            for group in groups:
+                results.append(local.run_line_rows(group))
+                advance(1)
+        return results
+    head = [sizer.run_line_rows(groups[0])] if sizer is not None and groups else []
+    return head + _run_parallel(groups[len(head):], spec, executor, workers, progress, chunk_size, progress_stream,
+                                len(groups))
+
+
+def _run_parallel(groups: Sequence[Sequence[Row]], spec: SizerSpec, executor: Executor | None, workers: int,
+                  progress: bool | None, chunk_size: int | None, stream: TextIO | None,
+                  total: int) -> list[LineResult]:
+    if not groups:
+        return []
+    chunks = _chunks(groups, workers, chunk_size)
+    pool = executor or _process_pool(workers, spec)
+    try:
+        futures: dict[Future[list[LineResult]], int] = {pool.submit(_run_chunk, spec, c): i
+                                                        for i, c in enumerate(chunks)}
+        done: list[list[LineResult]] = [[] for _ in chunks]
+        with _progress(total, progress, stream) as advance:
+            advance(total - len(groups))  # the lines already sized in this process
+            for future in as_completed(futures):
+                done[futures[future]] = future.result()
+                advance(len(chunks[futures[future]]))
+    except BrokenProcessPool as exc:
+        raise BoresizeError(f"a worker process stopped unexpectedly ({exc}); run again with --workers 1 to "
+                            f"find the line that stops it") from exc
+    finally:
+        if executor is None:
+            pool.shutdown(wait=True, cancel_futures=True)
+    return [result for chunk in done for result in chunk]
+
+
+def summary(results: Sequence[LineResult]) -> str:
+    """One line: how many lines were sized or checked, passed, failed and had errors."""
+    counts = {s: sum(1 for r in results if r.status == s) for s in ("pass", "fail", "error")}
+    return f"{len(results)} lines: {counts['pass']} pass, {counts['fail']} fail, {counts['error']} error"
+
+
+def spec_for(criteria_file: str | Path | None, load_entry_points: bool, check_roughness: float | None) -> SizerSpec:
+    """A spec with the criteria path made absolute (workers may not share the parent's working directory)."""
+    path = str(Path(criteria_file).resolve()) if criteria_file else None
+    return SizerSpec(path, load_entry_points, check_roughness)

@@ -1,0 +1,150 @@
+"""Comparing two revisions of a line list's results: lines added, removed, and what changed, with why.
+
+Each side is a JSON results document (``boresize size --json`` or ``--output x.json``) or a line list
+that is sized first. Lines are matched by tag (a repeated tag without cases by its occurrence). A
+line has changed when its size (NPS and schedule), its status, its governing case, or the status of
+a criterion at the selected size differs; the reason names the inputs that changed and, for a size
+change, why the old size no longer serves (or why a smaller one now does).
+"""
+
+from __future__ import annotations
+
+from collections.abc import Mapping, Sequence
+from dataclasses import asdict, dataclass, field
+from typing import Any, Literal
+
+__all__ = ["Change", "Diff", "compare", "render_diff"]
+
+ChangeKind = Literal["size", "status", "governing-case", "verdict"]
+Entry = Mapping[str, Any]
+
+
+@dataclass(frozen=True)
+class Change:
+    """One difference of one line: what (``kind``), from ``old`` to ``new``, and why (``reason``)."""
+
+    tag: str
+    kind: ChangeKind
+    old: str | None
+    new: str | None
+    reason: str
+
+
+@dataclass
+class Diff:
+    """Lines added and removed (tags), and the changes of the lines present in both, in the new order."""
+
+    added: list[str] = field(default_factory=list)
+    removed: list[str] = field(default_factory=list)
+    changes: list[Change] = field(default_factory=list)
+    unchanged: int = 0
+
+    def tags(self, kind: ChangeKind) -> list[str]:
+        """Tags of the lines with a change of ``kind`` (e.g. ``"size"``), in order."""
+        return list(dict.fromkeys(c.tag for c in self.changes if c.kind == kind))
+
+    @property
+    def empty(self) -> bool:
+        return not (self.added or self.removed or self.changes)
+
+    def to_dict(self) -> dict[str, Any]:
+        return {"added": self.added, "removed": self.removed, "unchanged": self.unchanged,
+                "size_changed": self.tags("size"), "changes": [asdict(c) for c in self.changes]}
+
+
+def _keyed(lines: Sequence[Entry]) -> dict[tuple[str, int], Entry]:
+    seen: dict[str, int] = {}
+    keyed = {}
+    for entry in lines:
+        tag = str(entry.get("tag"))
+        seen[tag] = seen.get(tag, 0) + 1
+        keyed[(tag, seen[tag])] = entry
+    return keyed
+
+
+def _size(entry: Entry) -> str | None:
+    return f"NPS {entry['nps']} Sch {entry.get('schedule')}" if entry.get("nps") else None
+
+
+def _inputs(entry: Entry) -> dict[str, str]:
+    """Input cells by ``case/field`` (the line's own row, or each case's row)."""
+    cells = {f"{k}": str(v) for k, v in (entry.get("input") or {}).items()}
+    for case in entry.get("cases") or ():
+        name = case.get("case") or "?"
+        cells.update({f"{name}/{k}": str(v) for k, v in (case.get("input") or {}).items()})
+    return cells
+
+
+def _input_changes(old: Entry, new: Entry) -> str:
+    a, b = _inputs(old), _inputs(new)
+    moved = [f"{k} {a.get(k) or '(none)'} -> {b.get(k) or '(none)'}" for k in dict.fromkeys([*a, *b])
+             if k not in ("tag",) and a.get(k, "") != b.get(k, "")]
+    return "; ".join(moved) if moved else "no input changed (criteria or software changed)"
+
+
+def _why_size(old: Entry, new: Entry) -> str:
+    """Why the selected size moved: the old size's standing in the new revision, and what controls now."""
+    was = old.get("nps")
+    rated = {c.get("nps"): c for c in new.get("candidates") or ()}
+    if was in rated and rated[was].get("failing"):
+        because = f"NPS {was} now fails {', '.join(rated[was]['failing'])}"
+    elif was in rated:
+        because = f"NPS {was} still passes; a smaller size now passes too"
+    else:
+        because = f"NPS {was} not rated in the new revision"
+    case = f" in case {new['case']}" if new.get("case") else ""
+    util = f" {new['utilisation']:.0%}" if isinstance(new.get("utilisation"), (int, float)) else ""
+    return f"{because}; now controlled by {new.get('controlling')}{util}{case}"
+
+
+def _verdicts(entry: Entry) -> dict[str, str]:
+    return {str(v.get("criterion")): str(v.get("status")) for v in entry.get("verdicts") or ()}
+
+
+def _line_changes(tag: str, old: Entry, new: Entry) -> list[Change]:
+    inputs = _input_changes(old, new)
+    changes = []
+    if _size(old) != _size(new):
+        changes.append(Change(tag, "size", _size(old), _size(new), f"{inputs}; {_why_size(old, new)}"))
+    if old.get("status") != new.get("status"):
+        detail = new.get("error") or f"controlling {new.get('controlling')}"
+        changes.append(Change(tag, "status", old.get("status"), new.get("status"), f"{inputs}; {detail}"))
+    if (old.get("cases") or new.get("cases")) and old.get("case") != new.get("case"):
+        changes.append(Change(tag, "governing-case", old.get("case"), new.get("case"), inputs))
+    a, b = _verdicts(old), _verdicts(new)
+    moved = [f"{c} {a.get(c, '-')} -> {b.get(c, '-')}" for c in dict.fromkeys([*a, *b]) if a.get(c) != b.get(c)]
+    if moved and _size(old) == _size(new):
+        changes.append(Change(tag, "verdict", None, None, f"{'; '.join(moved)} ({inputs})"))
+    return changes
+
+
+def compare(old: Mapping[str, Any], new: Mapping[str, Any]) -> Diff:
+    """Compare two results documents (each ``{"lines": [...]}`` as ``boresize size --json`` writes)."""
+    before, after = _keyed(old.get("lines", [])), _keyed(new.get("lines", []))
+    diff = Diff(added=[k[0] for k in after if k not in before], removed=[k[0] for k in before if k not in after])
+    for key, entry in after.items():
+        if key in before:
+            found = _line_changes(key[0], before[key], entry)
+            diff.changes += found
+            diff.unchanged += not found
+    return diff
+
+
+def render_diff(diff: Diff, old_name: str, new_name: str) -> str:
+    """The diff as text for the terminal."""
+    out = [f"boresize diff: {old_name} -> {new_name}"]
+    if diff.added:
+        out.append(f"added ({len(diff.added)}): {', '.join(diff.added)}")
+    if diff.removed:
+        out.append(f"removed ({len(diff.removed)}): {', '.join(diff.removed)}")
+    titles = {"size": "size changed", "status": "status changed", "governing-case": "governing case changed",
+              "verdict": "verdict changed"}
+    for kind, title in titles.items():
+        found = [c for c in diff.changes if c.kind == kind]
+        if found:
+            out.append(f"{title} ({len(found)}):")
+            for c in found:
+                move = f"{c.old} -> {c.new}: " if c.old is not None or c.new is not None else ""
+                out.append(f"  {c.tag}: {move}{c.reason}")
+    out.append(f"{diff.unchanged} line(s) unchanged" + ("; no differences" if diff.empty else ""))
+    return "\n".join(out) + "\n"

@@ -1,0 +1,137 @@
+"""Line lists and results as XLSX workbooks (openpyxl).
+
+Reading: the sheet named ``lines`` if there is one, else the first sheet; the first non-empty row
+holds the headers (as in CSV, with optional default units in brackets). Numbers become text as
+Python writes them (an integral value without ``.0``); a formula cell gives its saved value.
+
+Writing: sheet ``lines`` holds the input columns as given and the result columns; sheet
+``candidates`` every rated candidate. Text that a spreadsheet would run as a formula is stored as
+text with the quote-prefix style, never as a formula (:mod:`boresize.io.safety`).
+"""
+
+from __future__ import annotations
+
+import datetime
+import zipfile
+from collections.abc import Sequence
+from pathlib import Path
+from typing import Any
+
+from boresize.errors import InputError
+from boresize.io.csv_reader import RESULT_PREFIX, LineList, check_header, file_digest, surplus_cells
+from boresize.io.safety import FORMULA_STARTS, as_number, restore
+from boresize.io.table import candidate_rows, result_rows
+from boresize.lines import parse_header
+from boresize.model import LineResult
+
+__all__ = ["read_xlsx", "write_xlsx", "cell_text"]
+
+
+def cell_text(value: Any) -> str:
+    """A cell's value as line-list text: ``25.0`` -> ``"25"``, ``0.1`` -> ``"0.1"``, None -> ``""``."""
+    if value is None:
+        return ""
+    if isinstance(value, bool):
+        return str(value).lower()
+    if isinstance(value, float):
+        return str(int(value)) if value.is_integer() and abs(value) < 1e15 else repr(value)
+    if isinstance(value, (datetime.date, datetime.time)):
+        return value.isoformat()
+    return restore(str(value).strip()).strip()
+
+
+def _open(path: str | Path, data_only: bool) -> Any:
+    from openpyxl import load_workbook
+
+    from openpyxl.utils.exceptions import InvalidFileException
+
+    try:
+        return load_workbook(path, read_only=True, data_only=data_only)
+    except (OSError, ValueError, KeyError, zipfile.BadZipFile, InvalidFileException) as exc:
+        raise InputError(f"cannot read {path} as an XLSX workbook ({type(exc).__name__}: {exc})", field="lines",
+                         value=str(path), expected="an .xlsx file saved by a spreadsheet program") from exc
+
+
+def _sheet_rows(path: str | Path) -> list[list[Any]]:
+    """The cells of the line sheet; formula cells replaced by their saved values."""
+    book = _open(path, data_only=False)
+    sheet = book["lines"] if "lines" in book.sheetnames else book.worksheets[0]
+    cells = [list(row) for row in sheet.iter_rows()]
+    formulas = {(r, c) for r, row in enumerate(cells) for c, cell in enumerate(row) if cell.data_type == "f"}
+    values = [[cell.value for cell in row] for row in cells]
+    book.close()
+    if formulas:
+        saved = _open(path, data_only=True)
+        sheet = saved["lines"] if "lines" in saved.sheetnames else saved.worksheets[0]
+        cached = [list(row) for row in sheet.iter_rows(values_only=True)]
+        saved.close()
+        for r, c in sorted(formulas):
+            if cached[r][c] is None:
+                name = cells[r][c].coordinate
+                raise InputError(f"cell {name} holds a formula without a saved value", field="lines", value=name,
+                                 expected="a workbook saved by a spreadsheet program, or the value typed in")
+            values[r][c] = cached[r][c]
+    return values
+
+
+def read_xlsx(path: str | Path) -> LineList:
+    """Read an XLSX line list (result columns, headed ``result.``, are skipped)."""
+    rows = [[cell_text(v) for v in row] for row in _sheet_rows(path)]
+    rows = [row for row in rows if any(row)]
+    if not rows:
+        raise InputError(f"{path} holds no header row", field="lines", value=str(path),
+                         expected="a header row such as tag,fluid,flow,pressure,temperature")
+    raw_headers = rows[0]
+    headers = [parse_header(h) for h in raw_headers]
+    names = ["" if h.field.startswith(RESULT_PREFIX) else h.field for h in headers]
+    duplicates = sorted({n for n in names if n and names.count(n) > 1})
+    if duplicates:
+        raise InputError(f"column {duplicates[0]!r} appears twice in {path}", field="header",
+                         value=duplicates[0], expected="each column once")
+    check_header(names, raw_headers, str(path))
+    data = [{**{name: cell for name, cell in zip(names, row) if name}, **surplus_cells(raw_headers, row)} for row in rows[1:]]
+    units = {h.field: h.unit for h, name in zip(headers, names) if name}
+    kept = [text for text, name in zip(raw_headers, names) if name]
+    return LineList(rows=data, units=units, source=str(path), headers=kept, digest=file_digest(path))
+
+
+def _put(sheet: Any, row: int, column: int, value: Any, text_cells: bool = True) -> None:
+    """One cell: numbers as numbers; text as text (formula-like text quote-prefixed, never a formula)."""
+    if value is None or value == "":
+        return
+    cell = sheet.cell(row=row, column=column)
+    if isinstance(value, str):
+        number = as_number(value) if text_cells else None
+        if number is not None:
+            cell.value = number
+            return
+        cell.value = value
+        cell.data_type = "s"
+        if value.startswith(FORMULA_STARTS):
+            cell.quotePrefix = True
+        return
+    cell.value = value
+
+
+def _fill(sheet: Any, head: Sequence[str], rows: Sequence[Sequence[Any]]) -> None:
+    from openpyxl.styles import Font
+
+    for column, text in enumerate(head, start=1):
+        _put(sheet, 1, column, text, text_cells=False)
+        sheet.cell(row=1, column=column).font = Font(bold=True)
+    for r, row in enumerate(rows, start=2):
+        for column, value in enumerate(row, start=1):
+            _put(sheet, r, column, value)
+    sheet.freeze_panes = "B2"
+
+
+def write_xlsx(path: str | Path, results: Sequence[LineResult], headers: Sequence[str] | None = None) -> None:
+    """Write sheet ``lines`` (input columns, then results) and sheet ``candidates``."""
+    from openpyxl import Workbook
+
+    book = Workbook()
+    lines = book.active
+    lines.title = "lines"
+    _fill(lines, *result_rows(results, headers))
+    _fill(book.create_sheet("candidates"), *candidate_rows(results))
+    book.save(path)

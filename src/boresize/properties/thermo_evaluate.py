@@ -1,0 +1,164 @@
+"""From a loaded thermo package to a :class:`~boresize.model.FluidState`: pure components, mixtures, and
+a liquid whose phase is already known. See :mod:`boresize.properties.thermo` for the rules.
+"""
+
+from __future__ import annotations
+
+import importlib.metadata
+from typing import TYPE_CHECKING
+
+from boresize.errors import InputError, PropertyError
+from boresize.model import FluidState, Phase
+from boresize.properties.base import describe_conditions
+from boresize.properties.mixing import homogeneous_density, mcadams_viscosity
+
+if TYPE_CHECKING:
+    from boresize.properties.thermo import Fluid
+    from boresize.properties.thermo_phases import PhaseResult, ThermoPackage
+
+__all__ = ["evaluate_pure", "evaluate_mixture", "liquid_direct", "gas_direct", "no_envelope"]
+
+
+def evaluate_pure(package: ThermoPackage, fluid: Fluid, eos: str, pressure: float, temperature: float,
+                  hint: str | None, tolerance: float) -> FluidState:
+    """One component at (pressure [Pa abs], temperature [K]); ``tolerance`` [-] marks saturation."""
+    _check_solid(package, fluid, temperature)
+    tc, pc = package.tcs[0], package.pcs[0]
+    if temperature >= tc:
+        phase: Phase = "supercritical" if pressure >= pc else "gas"
+        return _state(package, fluid, eos, pressure, temperature, phase, package.gas(temperature, pressure, [1.0]),
+                      quality=1.0)
+    psat = package.vapour_pressure(temperature)
+    if psat is None:
+        raise PropertyError(f"thermo: no vapour-pressure correlation of {fluid.label} covers "
+                            f"{temperature - 273.15:.4g} degC")
+    if abs(pressure - psat) <= tolerance * psat:
+        return _saturated(package, fluid, eos, psat, temperature, hint)
+    if pressure > psat:
+        result = package.liquid(temperature, pressure, [1.0], psat)
+        return _state(package, fluid, eos, pressure, temperature, "liquid", result, quality=0.0, vapour=psat)
+    result = package.gas(temperature, pressure, [1.0])
+    return _state(package, fluid, eos, pressure, temperature, "gas", result, quality=1.0, vapour=psat)
+
+
+def _saturated(package: ThermoPackage, fluid: Fluid, eos: str, psat: float, temperature: float,
+               hint: str | None) -> FluidState:
+    """On the vapour-pressure curve: the side the line's phase names, else two-phase of unknown quality."""
+    if hint == "gas":
+        result = package.gas(temperature, psat, [1.0])
+        return _state(package, fluid, eos, psat, temperature, "gas", result, quality=1.0, vapour=psat,
+                      notes=("on the saturation curve: saturated vapour, as the line's phase says",))
+    result = package.liquid(temperature, psat, [1.0], psat)
+    if hint == "liquid":
+        return _state(package, fluid, eos, psat, temperature, "liquid", result, quality=0.0, vapour=psat,
+                      notes=("on the saturation curve: saturated liquid, as the line's phase says",))
+    return _state(package, fluid, eos, psat, temperature, "two-phase", result, quality=None, vapour=psat,
+                  notes=("on the saturation curve: pressure and temperature do not fix the vapour fraction, "
+                         "saturated-liquid properties shown; give the line's phase",))
+
+
+def evaluate_mixture(package: ThermoPackage, fluid: Fluid, eos: str, pressure: float, temperature: float,
+                     own: bool) -> FluidState:
+    """Flash a mixture at (pressure [Pa abs], temperature [K]); ``own``: the line's own conditions
+    (then a two-phase state also gets the bubble and dew pressures at T)."""
+    split = package.flash(temperature, pressure, fluid.zs)
+    zs = fluid.zs
+    if split.label == "V":
+        return _state(package, fluid, eos, pressure, temperature, "gas", package.gas(temperature, pressure, zs),
+                      quality=1.0)
+    if split.label == "L":
+        bubble = package.saturation_pressure(temperature, zs, 0.0)
+        notes = () if bubble is not None else ("no bubble point found at this temperature; saturated COSTALD "
+                                               "volume without compression",)
+        return _liquid_state(package, fluid, eos, pressure, temperature, bubble, notes)
+    if split.label == "VL":
+        return _two_phase(package, fluid, eos, pressure, temperature, split.vapour_fraction,
+                          split.gas_zs, split.liquid_zs, own)
+    raise PropertyError(f"thermo: unexpected phase {split.label!r} for {fluid.label} at "
+                        f"{describe_conditions(pressure, temperature)}")
+
+
+def liquid_direct(package: ThermoPackage, fluid: Fluid, eos: str, pressure: float, temperature: float,
+                  bubble: float) -> FluidState:
+    """A mixture already found liquid at this temperature, well above its bubble pressure [Pa abs]."""
+    note = (f"liquid without a new flash: above 1.05 x the bubble pressure {bubble / 1e5:.4g} bar abs found "
+            f"at this temperature",)
+    return _liquid_state(package, fluid, eos, pressure, temperature, bubble, note)
+
+
+def gas_direct(package: ThermoPackage, fluid: Fluid, eos: str, pressure: float, temperature: float) -> FluidState:
+    """A mixture already found gas at this temperature, at which it has no bubble or dew point."""
+    note = ("gas without a new flash: no bubble or dew point was found at this temperature",)
+    return _state(package, fluid, eos, pressure, temperature, "gas", package.gas(temperature, pressure, fluid.zs),
+                  quality=1.0, notes=note)
+
+
+def no_envelope(package: ThermoPackage, fluid: Fluid, temperature: float) -> bool:
+    """True when the mixture has no two-phase region at ``temperature`` [K]: above the critical temperature
+    of every component (common practice: the envelope lies below the heaviest component's Tc), or no
+    bubble and no dew pressure found."""
+    if temperature > max(tc for tc, z in zip(package.tcs, fluid.zs) if z > 0.0):
+        return True
+    return (package.saturation_pressure(temperature, fluid.zs, 0.0) is None
+            and package.saturation_pressure(temperature, fluid.zs, 1.0) is None)
+
+
+def _liquid_state(package: ThermoPackage, fluid: Fluid, eos: str, pressure: float, temperature: float,
+                  bubble: float | None, notes: tuple[str, ...]) -> FluidState:
+    result = package.liquid(temperature, pressure, fluid.zs, bubble)
+    from chemicals.volume import COSTALD_mixture_parameters
+
+    tcm = COSTALD_mixture_parameters(list(fluid.zs), list(package.tcs), list(package.vcs), list(package.omegas))[0]
+    phase: Phase = "liquid" if temperature < tcm else "supercritical"
+    return _state(package, fluid, eos, pressure, temperature, phase, result, quality=0.0, vapour=bubble,
+                  bubble=bubble, notes=notes)
+
+
+def _two_phase(package: ThermoPackage, fluid: Fluid, eos: str, pressure: float, temperature: float,
+               vapour_fraction: float, gas_zs: tuple[float, ...], liquid_zs: tuple[float, ...], own: bool) -> FluidState:
+    """Homogeneous two-phase state from the flash's phase compositions."""
+    gas = package.gas(temperature, pressure, gas_zs)
+    liquid = package.liquid(temperature, pressure, liquid_zs, None)
+    vapour_mass = vapour_fraction * gas.molar_mass
+    quality = vapour_mass / (vapour_mass + (1.0 - vapour_fraction) * liquid.molar_mass)
+    bubble = package.saturation_pressure(temperature, fluid.zs, 0.0) if own else None
+    dew = package.saturation_pressure(temperature, fluid.zs, 1.0) if own else None
+    from boresize.properties.thermo_phases import PhaseResult
+
+    mixed = PhaseResult(
+        homogeneous_density(quality, gas.density, liquid.density),
+        mcadams_viscosity(quality, gas.viscosity, liquid.viscosity),
+        vapour_fraction * gas.molar_mass + (1.0 - vapour_fraction) * liquid.molar_mass,
+        f"two-phase: homogeneous (no-slip) density, McAdams viscosity; {gas.method}; {liquid.method}",
+    )
+    notes = (f"two-phase: vapour mass fraction {quality:.4g}; gas {gas.density:.4g} kg/m3, "
+             f"{gas.viscosity * 1e3:.4g} mPa s; liquid {liquid.density:.4g} kg/m3, {liquid.viscosity * 1e3:.4g} mPa s",)
+    return _state(package, fluid, eos, pressure, temperature, "two-phase", mixed, quality=quality,
+                  vapour=bubble, bubble=bubble, dew=dew, notes=notes)
+
+
+def _check_solid(package: ThermoPackage, fluid: Fluid, temperature: float) -> None:
+    """InputError (field "temperature") below the melting point of a pure component, when known."""
+    melting = package.constants.Tms[0]
+    if melting is not None and temperature < melting:
+        raise InputError(f"{fluid.label} would be solid at {temperature - 273.15:.4g} degC: below its melting "
+                         f"point {melting - 273.15:.4g} degC", field="temperature", value=temperature,
+                         expected=f"at least {melting - 273.15:.4g} degC for {fluid.label}")
+
+
+def _state(package: ThermoPackage, fluid: Fluid, eos: str, pressure: float, temperature: float, phase: Phase,
+           result: PhaseResult, *, quality: float | None, vapour: float | None = None, bubble: float | None = None,
+           dew: float | None = None, notes: tuple[str, ...] = ()) -> FluidState:
+    """Assemble the FluidState and its model text (versions, EOS, methods, state point, notes)."""
+    from boresize.properties.thermo_phases import EOS_TITLES, versions
+
+    all_notes = ((fluid.note,) if fluid.note else ()) + notes
+    model = (f"{versions()}: {EOS_TITLES[eos]} EOS, kij ChemSep PR; {result.method}; at "
+             f"{describe_conditions(pressure, temperature)}" + "".join(f"; {n}" for n in all_notes))
+    return FluidState(
+        density=result.density, viscosity=result.viscosity, phase=phase, source="thermo", model=model,
+        vapour_fraction=quality, vapour_pressure=vapour, speed_of_sound=result.speed_of_sound,
+        molar_mass=result.molar_mass, fluid_name=fluid.label,
+        bubble_pressure=bubble, dew_pressure=dew, backend_version=importlib.metadata.version("thermo"), eos=eos, pressure=pressure,
+        temperature=temperature, composition=tuple(zip(fluid.names, fluid.zs)), notes=all_notes,
+    )

@@ -1,0 +1,111 @@
+"""The Jinja2 template of the HTML report (kept in Python so that it ships inside the package).
+
+Autoescaping is on: every user string (tags, fluids, case names, notes, error messages) is escaped.
+Only the plot, an SVG that boresize draws itself, is inserted as markup.
+"""
+
+from __future__ import annotations
+
+__all__ = ["TEMPLATE"]
+
+TEMPLATE = r"""<!DOCTYPE html>
+<html lang="en">
+<head>
+<meta charset="utf-8">
+<title>boresize line sizing report - {{ title }}</title>
+<style>
+body { font-family: "DejaVu Sans", Arial, sans-serif; font-size: 13px; margin: 24px; color: #222; }
+h1 { font-size: 20px; } h2 { font-size: 16px; margin-top: 28px; border-bottom: 1px solid #999; }
+h3 { font-size: 14px; margin-bottom: 4px; }
+table { border-collapse: collapse; margin: 6px 0 12px 0; }
+th, td { border: 1px solid #bbb; padding: 2px 6px; text-align: left; vertical-align: top; }
+th { background: #eee; } td.num { text-align: right; font-variant-numeric: tabular-nums; }
+.pass { background: #d4f4d4; } .fail { background: #f9d0d0; } .error { background: #f6e3b0; }
+.warn { background: #fff3b0; } .not-applicable { background: #eeeeee; color: #666; }
+tr.selected td { font-weight: bold; }
+.caution { border: 2px solid #c0392b; padding: 8px; background: #fff6f5; }
+.plot svg { max-width: 100%; height: auto; }
+.line { page-break-inside: avoid; }
+.small { color: #555; font-size: 11px; }
+</style>
+</head>
+<body>
+<h1>Line sizing report: {{ title }}</h1>
+<p class="caution"><strong>Caution.</strong> {{ caution }}</p>
+<p>{{ summary }}</p>
+
+<h2 id="summary">Summary</h2>
+<table>
+<tr><th>Tag</th><th>Cases</th><th>Status</th><th>Mode</th><th>Service</th><th>NPS</th><th>Sch</th>
+<th>v [m/s]</th><th>dP [kPa/100 m]</th><th>Controlling</th><th>Utilisation</th><th>Governing case</th></tr>
+{% for line in lines %}
+<tr><td><a href="#line-{{ loop.index }}">{{ line.tag }}</a></td><td class="num">{{ line.case_count }}</td>
+<td class="{{ line.status }}">{{ line.status }}</td><td>{{ line.mode }}</td><td>{{ line.service }}</td>
+<td>{{ line.nps }}</td><td>{{ line.schedule }}</td><td class="num">{{ line.velocity }}</td>
+<td class="num">{{ line.drop }}</td><td>{{ line.controlling }}</td><td class="num">{{ line.utilisation }}</td>
+<td>{{ line.case }}</td></tr>
+{% endfor %}
+</table>
+
+<h2>Calculation records</h2>
+{% for line in lines %}
+<div class="line" id="line-{{ loop.index }}">
+<h2>{{ line.tag }} <span class="{{ line.status }}">&nbsp;{{ line.status }}&nbsp;</span></h2>
+{% if line.error %}<p class="error">{{ line.error }}</p>{% endif %}
+{% if line.nps %}<p>Selected: NPS {{ line.nps }} Sch {{ line.schedule }} ({{ line.mode }});
+controlling criterion: {{ line.controlling }}{% if line.case %}; governing case: {{ line.case }}{% endif %}.</p>{% endif %}
+{% if line.governing %}
+<table><tr><th>Criterion</th><th>Governing case</th></tr>
+{% for criterion, case in line.governing %}<tr><td>{{ criterion }}</td><td>{{ case }}</td></tr>{% endfor %}
+</table>
+{% endif %}
+{% if line.plot %}<div class="plot">{{ line.plot | safe }}</div>{% endif %}
+{% for case in line.cases %}
+{% if line.cases | length > 1 %}<h3>Case {{ case.name }} <span class="{{ case.status }}">&nbsp;{{ case.status }}&nbsp;</span></h3>{% endif %}
+{% if case.error %}<p class="error">{{ case.error }}</p>{% endif %}
+<table><tr><th>Input (as given)</th><th>Value</th><th>Default unit of the column</th></tr>
+{% for name, value, unit in case.given %}<tr><td>{{ name }}</td><td>{{ value }}</td><td>{{ unit }}</td></tr>{% endfor %}
+</table>
+{% if case.used %}
+<table><tr><th>As used</th><th>Value</th><th>Unit</th></tr>
+{% for name, value, unit in case.used %}<tr><td>{{ name }}</td><td class="num">{{ value }}</td><td>{{ unit }}</td></tr>{% endfor %}
+</table>
+{% endif %}
+{% if case.candidates %}
+<table><tr><th>NPS</th><th>Sch</th><th>ID [mm]</th><th>v [m/s]</th><th>dP [kPa/100 m]</th><th>Re</th><th>f</th>
+<th>Regime</th><th>Worst criterion</th><th>Utilisation</th><th>Result</th></tr>
+{% for c in case.candidates %}
+<tr class="{{ 'selected' if c.selected else '' }}"><td>{{ c.nps }}{% if c.selected %} (selected){% endif %}</td>
+<td>{{ c.schedule }}</td><td class="num">{{ c.id }}</td><td class="num">{{ c.velocity }}</td><td class="num">{{ c.drop }}</td>
+<td class="num">{{ c.reynolds }}</td><td class="num">{{ c.friction }}</td><td>{{ c.regime }}</td><td>{{ c.worst }}</td>
+<td class="num">{{ c.utilisation }}</td><td class="{{ c.result }}">{{ c.result }}</td></tr>
+{% endfor %}
+</table>
+{% endif %}
+{% if case.verdicts %}
+<table><tr><th>Criterion</th><th>Status</th><th>Value</th><th>Limit</th><th>Unit</th><th>Utilisation</th><th>Reason</th><th>Source</th></tr>
+{% for v in case.verdicts %}
+<tr><td>{{ v.criterion }}</td><td class="{{ v.status }}">{{ v.status }}</td><td class="num">{{ v.value }}</td>
+<td class="num">{{ v.limit }}</td><td>{{ v.unit }}</td><td class="num">{{ v.utilisation }}</td><td>{{ v.reason }}</td>
+<td class="small">{{ v.source }}</td></tr>
+{% endfor %}
+</table>
+{% endif %}
+{% endfor %}
+{% if line.notes %}<ul>{% for note in line.notes %}<li>{{ note }}</li>{% endfor %}</ul>{% endif %}
+</div>
+{% endfor %}
+
+<h2>Cautions</h2>
+<ul>
+<li>{{ caution }}</li>
+{% for note in cautions %}<li>{{ note }}</li>{% endfor %}
+</ul>
+
+<h2 id="traceability">Traceability</h2>
+<table>
+{% for name, value in trace %}<tr><th>{{ name }}</th><td>{{ value }}</td></tr>{% endfor %}
+</table>
+</body>
+</html>
+"""

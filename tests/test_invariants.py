@@ -1,0 +1,357 @@
+"""Physics invariants over wide random inputs (hypothesis), for the hydraulics, every criterion and the engine.
+
+These properties hold for any line, so a violation is a silently wrong size whatever the input:
+
+- Darcy-Weisbach with the Colebrook friction factor (Colebrook 1939; Moody, Trans. ASME 66, 1944): at a
+  given mass flow, a larger bore gives a lower velocity (continuity) and a lower drop per length; a
+  rougher pipe never gives a lower friction factor, so never a lower drop; more flow never a lower drop.
+- Sizing picks the smallest passing size, so more flow never selects a smaller size, a looser limit never
+  selects a larger one, and checking the selected size passes.
+- The answer does not depend on the units the input was written in (t/h or kg/s or lb/h, barg or kPa
+  absolute or psia, degC or K or degF; conversion factors exact by definition, NIST SP 811 App. B)
+  beyond the last bits of a float.
+
+Every criterion the host registers is exercised alone and within the shipped services; a criterion
+that no shipped service uses needs example options in ``EXAMPLE_OPTIONS``, and every option needs its
+direction of "looser" in ``LOOSER`` (or a place in ``NOT_A_LIMIT``), or a meta-test fails.
+Quick runs are derandomized (stable CI); the ``slow`` sweeps draw fresh examples every run.
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import replace
+from typing import Any
+
+import pytest
+from hypothesis import HealthCheck, assume, given, settings
+from hypothesis import strategies as st
+
+from boresize.config import Service, SizingConfig
+from boresize.criteria.bands import BandedCriterion
+from boresize.criteria.base import parse_options
+from boresize.engine import Sizer
+from boresize.hydraulics.darcy import rate_pipe
+from boresize.lines import line_from_row
+from boresize.model import Flow, Line, LineResult
+
+QUICK = settings(max_examples=40, deadline=None, derandomize=True, suppress_health_check=list(HealthCheck))
+SWEEP = settings(max_examples=400, deadline=None, suppress_health_check=list(HealthCheck))
+BUDGETS = [pytest.param(QUICK, id="quick"), pytest.param(SWEEP, id="sweep", marks=pytest.mark.slow)]
+REL = 1e-9  # "beyond rounding": a few units in the last place, through a chain of conversions
+
+#: Options of criteria that no shipped service uses (values: common practice, for the test only).
+EXAMPLE_OPTIONS: dict[str, dict[str, Any]] = {"outlet-pressure": {"max_drop": "100 kPa"}}
+#: (criterion, option) -> +1 when a larger value is looser, -1 when a smaller value is looser.
+LOOSER: dict[tuple[str, str], int] = {
+    ("velocity", "max"): +1, ("velocity", "min"): -1, ("drop-per-length", "max"): +1, ("drop-per-length", "min"): -1,
+    ("erosional", "c_us"): +1, ("erosional", "c_si"): +1, ("momentum", "max"): +1, ("mach", "max"): +1,
+    ("noise-velocity", "a"): +1, ("noise-velocity", "cap"): +1, ("gravity-drain", "max_froude"): +1,
+    ("npsh-margin", "ratio"): -1, ("npsh-margin", "min_margin"): -1, ("flashing", "margin"): -1,
+    ("outlet-pressure", "min"): -1, ("outlet-pressure", "max_drop"): +1,
+}
+#: Options that are not a limit (a flag, a display band, or an exponent whose sense depends on the density).
+NOT_A_LIMIT = {("flashing", "warn_only"), ("npsh-margin", "at_bubble_point"), ("gravity-drain", "clearing_froude"),
+               ("noise-velocity", "b")}
+
+
+# ---------------------------------------------------------------------------------------------
+# Darcy-Weisbach kernel
+
+def _log_uniform(low: float, high: float) -> st.SearchStrategy[float]:
+    return st.floats(math.log(low), math.log(high)).map(math.exp)
+
+
+PIPE = st.fixed_dictionaries({
+    "mass_flow": _log_uniform(1e-4, 1e4), "density": _log_uniform(0.05, 2000.0),
+    "viscosity": _log_uniform(5e-6, 5.0), "diameter": _log_uniform(0.004, 1.5), "roughness": _log_uniform(1e-7, 3e-3),
+})
+FACTOR = st.floats(1.0, 4.0)
+
+
+def _drop(p: dict[str, float], **changes: float) -> tuple[float, float]:
+    q = {**p, **changes}
+    h = rate_pipe(q["mass_flow"], q["density"], q["viscosity"], q["diameter"], min(q["roughness"], 0.5 * q["diameter"]),
+                  100.0)
+    return h.velocity, h.drop_per_length
+
+
+@pytest.mark.parametrize("budget", BUDGETS)
+def test_a_larger_bore_never_gives_a_larger_velocity_or_drop_per_length(budget: settings) -> None:
+    @settings(budget, max_examples=budget.max_examples * 10)
+    @given(pipe=PIPE, factor=FACTOR)
+    def check(pipe: dict[str, float], factor: float) -> None:
+        v1, dp1 = _drop(pipe)
+        v2, dp2 = _drop(pipe, diameter=pipe["diameter"] * factor, roughness=min(pipe["roughness"], 0.5 * pipe["diameter"]))
+        assert v2 <= v1 * (1 + 1e-12) and dp2 <= dp1 * (1 + 1e-12), (v1, v2, dp1, dp2)
+
+    check()
+
+
+@pytest.mark.parametrize("budget", BUDGETS)
+def test_a_rougher_pipe_never_gives_a_smaller_drop(budget: settings) -> None:
+    @settings(budget, max_examples=budget.max_examples * 10)
+    @given(pipe=PIPE, factor=FACTOR)
+    def check(pipe: dict[str, float], factor: float) -> None:
+        smooth = min(pipe["roughness"], 0.1 * pipe["diameter"])
+        _, dp1 = _drop(pipe, roughness=smooth)
+        _, dp2 = _drop(pipe, roughness=smooth * factor)
+        assert dp2 >= dp1 * (1 - 1e-12), (dp1, dp2)
+
+    check()
+
+
+@pytest.mark.parametrize("budget", BUDGETS)
+def test_more_flow_never_gives_a_smaller_drop(budget: settings) -> None:
+    @settings(budget, max_examples=budget.max_examples * 10)
+    @given(pipe=PIPE, factor=FACTOR)
+    def check(pipe: dict[str, float], factor: float) -> None:
+        v1, dp1 = _drop(pipe)
+        v2, dp2 = _drop(pipe, mass_flow=pipe["mass_flow"] * factor)
+        assert v2 >= v1 * (1 - 1e-12) and dp2 >= dp1 * (1 - 1e-12), (dp1, dp2)
+
+    check()
+
+
+# ---------------------------------------------------------------------------------------------
+# Lines for each service: real fluids through the property backends, in the phase the service wants
+
+def _saturation_k(pressure: float) -> float:
+    from CoolProp.CoolProp import PropsSI
+
+    return float(PropsSI("T", "P", pressure, "Q", 0, "Water"))
+
+
+@st.composite
+def liquid_lines(draw: st.DrawFn, service: str) -> Line:
+    """Water (CoolProp, with vapour pressure) or a line-list liquid, subcooled, with suction data."""
+    pressure = draw(_log_uniform(1.5e5, 40e5))
+    temperature = draw(st.floats(278.15, min(_saturation_k(pressure) - 5.0, 420.0)))
+    table = draw(st.booleans())
+    return Line(
+        tag="L", fluid="process oil" if table else "water", flow=Flow("mass", 1.0), pressure=pressure,
+        temperature=temperature, length=draw(_log_uniform(5.0, 500.0)), service=service,
+        density=draw(st.floats(600.0, 1300.0)) if table else None,
+        viscosity=draw(_log_uniform(2e-4, 0.3)) if table else None,
+        elevation=draw(st.floats(-10.0, 10.0)),
+        source_pressure=pressure * draw(st.floats(0.3, 1.0)), liquid_level=draw(st.floats(0.0, 8.0)),
+        npsh_required=draw(st.floats(0.5, 6.0)),
+    )
+
+
+@st.composite
+def gas_lines(draw: st.DrawFn, service: str) -> Line:
+    """Methane or nitrogen (CoolProp, with speed of sound), or superheated steam for a steam service."""
+    low = service == "vapour-low-pressure"
+    pressure = draw(_log_uniform(0.1e5, 3.5e5) if low else _log_uniform(1.2e5, 100e5))
+    if service == "steam":
+        fluid, temperature = "water", _saturation_k(pressure) + draw(st.floats(5.0, 150.0))
+    else:
+        fluid, temperature = draw(st.sampled_from(["methane", "nitrogen"])), draw(st.floats(253.15, 423.15))
+    return Line(tag="G", fluid=fluid, flow=Flow("mass", 1.0), pressure=pressure, temperature=temperature,
+                length=draw(_log_uniform(5.0, 500.0)), service=service)
+
+
+def lines_for(service: Service) -> st.SearchStrategy[Line]:
+    return liquid_lines(service.name) if service.phase == "liquid" else gas_lines(service.name)
+
+
+def flow_for(service: Service) -> st.SearchStrategy[float]:
+    return _log_uniform(0.05, 400.0) if service.phase == "liquid" else _log_uniform(0.005, 40.0)
+
+
+def _with_flow(line: Line, mass_flow: float) -> Line:
+    return replace(line, flow=Flow("mass", mass_flow))
+
+
+def _bore(result: LineResult) -> float:
+    assert result.selected is not None
+    return result.selected.candidate.inside_diameter
+
+
+# ---------------------------------------------------------------------------------------------
+# Services: the shipped ones, and each criterion alone
+
+def _one_criterion_services(sizer: Sizer) -> dict[str, Service]:
+    """For every (shipped service, criterion) a service holding that criterion alone, named "SERVICE/ID";
+    a criterion no shipped service uses gets a liquid and a gas service with ``EXAMPLE_OPTIONS``."""
+    services: dict[str, Service] = {}
+    for service in sizer.config.services.values():
+        for pair in service.criteria:
+            name = f"{service.name}/{pair[0].id}"
+            services[name] = replace(service, name=name, criteria=(pair,))
+    used = {pair[0].id for s in sizer.config.services.values() for pair in s.criteria}
+    for criterion in sizer.host.criteria:
+        if criterion.id in used or criterion.id not in EXAMPLE_OPTIONS:
+            continue
+        options = parse_options(criterion, EXAMPLE_OPTIONS[criterion.id], f"test.{criterion.id}")
+        for phase in sorted(criterion.phases & {"liquid", "gas"}):
+            name = f"example-{phase}/{criterion.id}"
+            services[name] = Service(name=name, criteria=((criterion, options),), phase=phase)
+    return services
+
+
+@pytest.fixture(scope="module")
+def lab(host) -> Sizer:  # noqa: ANN001
+    """A sizer whose configuration holds the shipped services and every one-criterion service."""
+    base = Sizer(host)
+    config = SizingConfig(services={**base.config.services, **_one_criterion_services(base)},
+                          pipe_classes=dict(base.config.pipe_classes), version="invariants")
+    return Sizer(host, config=config)
+
+
+def _service_names() -> tuple[list[str], list[str]]:
+    """(shipped services, one-criterion services), read at collection time with the built-in plugins."""
+    from boresize.config import load_config
+    from boresize.plugins import PluginHost
+
+    host = PluginHost.load(load_entry_points=False)
+    base = Sizer(host, config=load_config(host))
+    return sorted(base.config.services), sorted(_one_criterion_services(base))
+
+
+SHIPPED, ALONE = _service_names()
+# Quick: each shipped service, and every criterion alone drawn at random in one run; sweep: each one apart.
+QUICK_EACH = settings(QUICK, max_examples=12)
+QUICK_MIXED = settings(QUICK, max_examples=60)
+SWEEP_EACH = settings(SWEEP, max_examples=150)
+SERVICE_RUNS = (
+    [pytest.param((name,), QUICK_EACH, id=f"{name}-quick") for name in SHIPPED]
+    + [pytest.param(tuple(ALONE), QUICK_MIXED, id="each-criterion-alone-quick")]
+    + [pytest.param((name,), SWEEP_EACH, id=f"{name}-sweep", marks=pytest.mark.slow) for name in SHIPPED + ALONE]
+)
+
+
+@st.composite
+def service_lines(draw: st.DrawFn, lab: Sizer, names: tuple[str, ...]) -> tuple[Service, Line, float]:
+    """A service among ``names``, a line in its phase, and a mass flow [kg/s]."""
+    service = lab.config.services[draw(st.sampled_from(names))]
+    return service, draw(lines_for(service)), draw(flow_for(service))
+
+
+def test_every_registered_criterion_is_exercised_and_every_option_has_a_direction(lab: Sizer) -> None:
+    exercised = {pair[0].id for s in lab.config.services.values() for pair in s.criteria}
+    assert set(lab.host.criteria.ids()) <= exercised, "give the criterion EXAMPLE_OPTIONS or use it in a shipped set"
+    for criterion in lab.host.criteria:
+        for spec in criterion.options:
+            key = (criterion.id, spec.name)
+            assert key in LOOSER or key in NOT_A_LIMIT, f"say which way option {key} is looser (LOOSER)"
+
+
+@pytest.mark.parametrize(("names", "budget"), SERVICE_RUNS)
+def test_more_flow_never_selects_a_smaller_size(lab: Sizer, names: tuple[str, ...], budget: settings) -> None:
+    @budget
+    @given(case=service_lines(lab, names), factor=st.floats(1.0, 5.0))
+    def check(case: tuple[Service, Line, float], factor: float) -> None:
+        _, line, flow = case
+        small = lab.run(_with_flow(line, flow))
+        large = lab.run(_with_flow(line, flow * factor))
+        assume(small.status == "pass" and large.status == "pass")
+        assert _bore(large) >= _bore(small), (line, flow, factor)
+
+    check()
+
+
+def _loosened(service: Service, factor: float) -> Service:
+    """The service with every limit ``factor`` times looser (None when it has no limit to loosen)."""
+    def loosen(criterion_id: str, options: dict[str, float]) -> dict[str, float]:
+        out = dict(options)
+        for key, value in options.items():
+            sense = LOOSER.get((criterion_id, key))
+            if sense is not None and value:
+                out[key] = value * factor if sense > 0 else value / factor
+        return out
+
+    pairs = []
+    for criterion, options in service.criteria:
+        if isinstance(criterion, BandedCriterion):
+            bands = [replace(b, options=loosen(criterion.id, dict(b.options))) for b in criterion.bands]
+            criterion = BandedCriterion(criterion.inner, bands, criterion.where)
+        pairs.append((criterion, loosen(criterion.id, dict(options))))
+    return replace(service, name=service.name + " (looser)", criteria=tuple(pairs))
+
+
+@pytest.mark.parametrize(("names", "budget"), SERVICE_RUNS)
+def test_a_looser_limit_never_selects_a_larger_size(lab: Sizer, names: tuple[str, ...], budget: settings) -> None:
+    @budget
+    @given(case=service_lines(lab, names), factor=st.floats(1.0, 3.0))
+    def check(case: tuple[Service, Line, float], factor: float) -> None:
+        service, line, flow = case
+        loose = _loosened(service, factor)
+        config = replace(lab.config, services={**lab.config.services, loose.name: loose})
+        tight = lab.run(_with_flow(line, flow))
+        looser = Sizer(lab.host, config=config).run(replace(_with_flow(line, flow), service=loose.name))
+        assume(tight.status == "pass")
+        assert looser.status == "pass", (line, flow, factor, looser.error)
+        assert _bore(looser) <= _bore(tight), (line, flow, factor)
+
+    check()
+
+
+@pytest.mark.parametrize(("names", "budget"), SERVICE_RUNS)
+def test_checking_the_selected_size_passes(lab: Sizer, names: tuple[str, ...], budget: settings) -> None:
+    @budget
+    @given(case=service_lines(lab, names))
+    def check(case: tuple[Service, Line, float]) -> None:
+        _, line, flow = case
+        sized = lab.run(_with_flow(line, flow))
+        assume(sized.status == "pass")
+        chosen = sized.selected.candidate  # type: ignore[union-attr]
+        checked = lab.run(replace(_with_flow(line, flow), nps=chosen.nps, schedule=chosen.schedule))
+        assert (checked.mode, checked.status) == ("check", "pass"), checked.error
+        assert checked.selected.candidate == chosen  # type: ignore[union-attr]
+        assert checked.selected.hydraulics == sized.selected.hydraulics  # type: ignore[union-attr]
+
+    check()
+
+
+# ---------------------------------------------------------------------------------------------
+# Units the input was written in
+
+def _texts(mass_flow: float, pressure: float, temperature: float) -> list[dict[str, str]]:
+    """The same conditions in three sets of units (exact factors: NIST SP 811, App. B)."""
+    pound = 0.45359237  # kg, exact
+    psi = pound * 9.80665 / 0.0254**2  # Pa, exact
+    return [
+        {"flow": f"{mass_flow * 3.6!r} t/h", "pressure": f"{(pressure - 101325.0) / 1e5!r} barg",
+         "temperature": f"{temperature - 273.15!r} degC"},
+        {"flow": f"{mass_flow!r} kg/s", "pressure": f"{pressure / 1e3!r} kPa", "temperature": f"{temperature!r} K"},
+        {"flow": f"{mass_flow * 3600 / pound!r} lb/h", "pressure": f"{pressure / psi!r} psia",
+         "temperature": f"{(temperature - 273.15) * 1.8 + 32!r} degF"},
+    ]
+
+
+def _knife_edge(a: LineResult, b: LineResult) -> bool:
+    """Two sizes differ only when the smaller one sits on a limit to within rounding (utilisation 1 +- REL)."""
+    small = min((a, b), key=_bore)
+    nps = small.selected.candidate.nps  # type: ignore[union-attr]
+    other = max((a, b), key=_bore)
+    there = [c for c in other.candidates if c.candidate.nps == nps]
+    return bool(there) and there[0].worst is not None and abs((there[0].worst.utilisation or 0) - 1.0) < 1e-6
+
+
+@pytest.mark.parametrize("budget", BUDGETS)
+def test_results_do_not_depend_on_the_units_of_the_input(sizer: Sizer, budget: settings) -> None:  # noqa: ANN001
+    @budget
+    @given(fluid=st.sampled_from(["water", "methane", "nitrogen"]), mass_flow=_log_uniform(0.01, 100.0),
+           pressure=_log_uniform(1.5e5, 60e5), temperature=st.floats(280.0, 360.0))
+    def check(fluid: str, mass_flow: float, pressure: float, temperature: float) -> None:
+        results = [sizer.run(line_from_row({"tag": "U", "fluid": fluid, "length": "100 m", **cells}))
+                   for cells in _texts(mass_flow, pressure, temperature)]
+        first = results[0]
+        for other in results[1:]:
+            assert other.status == first.status, (first.error, other.error)
+            if first.status == "error":
+                assert other.error_field == first.error_field
+                continue
+            assert other.line.pressure == pytest.approx(first.line.pressure, rel=REL)  # type: ignore[union-attr]
+            assert other.sizing_flow == pytest.approx(first.sizing_flow, rel=REL)
+            if _bore(other) != _bore(first):
+                assert _knife_edge(first, other), (fluid, mass_flow, pressure, temperature)
+                continue
+            a, b = first.selected.hydraulics, other.selected.hydraulics  # type: ignore[union-attr]
+            assert b.velocity == pytest.approx(a.velocity, rel=REL)
+            assert b.drop_per_length == pytest.approx(a.drop_per_length, rel=REL)
+            assert other.state.density == pytest.approx(first.state.density, rel=REL)  # type: ignore[union-attr]
+
+    check()
