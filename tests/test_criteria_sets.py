@@ -105,7 +105,6 @@ def test_version_must_be_text(host, tmp_path: Path):
         load_config(host, path)
 
 
-@pytest.mark.xfail(strict=True, reason="engine.py passes config.version; it should pass service.stamp (lead)")
 def test_every_result_is_stamped_with_its_set_and_version(sizer):
     row = {"tag": "W-1", "fluid": "water", "flow": "20 t/h", "pressure": "5 barg", "temperature": "20 degC",
            "service": "pump-discharge"}

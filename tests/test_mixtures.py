@@ -306,3 +306,8 @@ def test_every_state_reports_its_phase_and_vapour_fraction(batch: dict[str, Any]
     # issue 3: vapour mass fraction 0 for a liquid, 1 for a gas, whatever the backend
     assert batch["P-1"].state.vapour_fraction == 0.0 and batch["F-1"].state.vapour_fraction == 0.0
     assert batch["G-1"].state.vapour_fraction == 1.0
+
+
+def test_coolprop_mixture_refuses_a_cubic_eos(mixture_backend: CoolPropMixtureBackend) -> None:
+    with pytest.raises(InputError, match=r"eos: the coolprop-mixture backend has no equation of state 'PR'"):
+        mixture_backend.state(make_line("methane:0.9, ethane:0.1", 50e5, 300.0, eos="PR"), 50e5, 300.0)

@@ -3,8 +3,14 @@
 Results are screening calculations to be checked by a competent engineer against the applicable
 codes and the company's standards; local codes govern.
 
-The public API is small: build a :class:`Sizer` (it loads the installed plugins and the criteria
-sets), then ``run`` lines. Heavy modules (pint, CoolProp) load on first use, not on import.
+The public API is small (see README "From Python"): build a line with :func:`make_line` (text,
+pint Quantities, or numbers with their unit stated) or :func:`line_from_stream` (a simulation
+stream's T, P, mass flow and mole fractions), then :func:`size`, :func:`check` or
+:func:`size_many` (any ``concurrent.futures.Executor``). Results are :class:`SizingResult` objects
+with pint quantities, plain floats and ``to_dict()``. DataFrames go in and out through
+:func:`size_dataframe`, :func:`read_dataframe` and :func:`results_dataframe`. :class:`Sizer` is the
+engine underneath. Every name loads on first use: importing boresize loads neither pint, CoolProp,
+thermo nor pandas.
 """
 
 from __future__ import annotations
@@ -45,11 +51,20 @@ __all__ = [
     "PluginHost",
     "PropertyError",
     "Sizer",
+    "SizingResult",
     "UnitError",
     "Verdict",
     "__version__",
+    "check",
     "line_from_row",
+    "line_from_stream",
     "load_config",
+    "make_line",
+    "read_dataframe",
+    "results_dataframe",
+    "size",
+    "size_dataframe",
+    "size_many",
 ]
 
 _LAZY = {
@@ -57,6 +72,15 @@ _LAZY = {
     "PluginHost": "boresize.plugins",
     "line_from_row": "boresize.lines",
     "load_config": "boresize.config",
+    "make_line": "boresize.api",
+    "size": "boresize.api",
+    "check": "boresize.api",
+    "size_many": "boresize.api",
+    "SizingResult": "boresize.result",
+    "line_from_stream": "boresize.streams",
+    "read_dataframe": "boresize.io.dataframe",
+    "results_dataframe": "boresize.io.dataframe",
+    "size_dataframe": "boresize.io.dataframe",
 }
 
 
@@ -64,3 +88,7 @@ def __getattr__(name: str) -> Any:
     if name in _LAZY:
         return getattr(import_module(_LAZY[name]), name)
     raise AttributeError(f"module 'boresize' has no attribute {name!r}")
+
+
+def __dir__() -> list[str]:
+    return sorted(set(globals()) | set(__all__))

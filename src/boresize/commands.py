@@ -58,7 +58,8 @@ def _check_roughness(args: argparse.Namespace) -> float | None:
     return value
 
 
-def _size_list(args: argparse.Namespace, line_list, check_roughness: float | None = None):  # type: ignore[no-untyped-def]
+def _size_list(args: argparse.Namespace, line_list,  # type: ignore[no-untyped-def]
+               check_roughness: float | None = None):
     """Size a line list on ``args.workers`` processes; returns (sizer of this process, results)."""
     from boresize.batch import run_batch, spec_for
     from boresize.engine import Sizer

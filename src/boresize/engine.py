@@ -114,9 +114,9 @@ class Sizer:
 
     def _finish(self, p: _Prepared, rated: tuple[CandidateResult, ...], selected: CandidateResult | None,
                 closest_note: bool = True) -> LineResult:
+        first_guess = self._first_guess(p.service, p.state, p.mass_flow, p.pipe_class.roughness)
         result = _result(p.line, p.state, p.service, rated, selected, p.mode, p.mass_flow, p.margin,
-                         self.config.version, self._first_guess(p.service, p.state, p.mass_flow, p.pipe_class.roughness),
-                         closest_note)
+                         p.service.stamp, first_guess, closest_note)
         return replace(result, notes=result.notes + p.notes) if p.notes else result
 
     def _service(self, line: Line, state: FluidState) -> Service:

@@ -73,7 +73,8 @@ def _result_cells(line: LineResult, case: LineResult) -> list[Any]:
     return [entry.get(key) for _, key in RESULT_COLUMNS]
 
 
-def result_rows(results: Sequence[LineResult], headers: Sequence[str] | None = None) -> tuple[list[str], list[list[Any]]]:
+def result_rows(results: Sequence[LineResult],
+                headers: Sequence[str] | None = None) -> tuple[list[str], list[list[Any]]]:
     """Header row and one row per input row: input cells (text as given) then result cells."""
     shown = input_headers(results, headers)
     fields = [parse_header(h).field for h in shown]

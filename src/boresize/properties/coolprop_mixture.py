@@ -118,6 +118,9 @@ class CoolPropMixtureBackend:
             temperature or fraction outside an incompressible fit's range
         :raises PropertyError: CoolProp failed, or a guard above refused its result
         """
+        if line.eos and line.eos.strip().upper() not in ("HEOS", "GERG-2008", "GERG"):
+            raise InputError(f"the coolprop-mixture backend has no equation of state {line.eos!r}", field="eos",
+                             value=line.eos, expected="HEOS (or leave eos blank); backend thermo offers cubic EOS")
         spec = incompressible_spec(line.fluid)
         if spec is not None:
             return self._cached("INCOMP", spec, float(pressure), float(temperature))

@@ -32,7 +32,6 @@ from __future__ import annotations
 
 import collections
 import functools
-import importlib.metadata
 import math
 import threading
 from dataclasses import dataclass
@@ -104,7 +103,9 @@ class ThermoBackend:
 
     def version(self) -> str:
         """thermo's version, read from the installed distribution (no import)."""
-        return importlib.metadata.version("thermo")
+        from boresize.properties.thermo_phases import thermo_version
+
+        return thermo_version()
 
     def handles(self, line: Line) -> bool:
         """True for a mixture (not a CoolProp incompressible) or a component the chemicals database knows,

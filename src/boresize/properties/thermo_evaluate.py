@@ -4,7 +4,6 @@ a liquid whose phase is already known. See :mod:`boresize.properties.thermo` for
 
 from __future__ import annotations
 
-import importlib.metadata
 from typing import TYPE_CHECKING
 
 from boresize.errors import InputError, PropertyError
@@ -150,7 +149,7 @@ def _state(package: ThermoPackage, fluid: Fluid, eos: str, pressure: float, temp
            result: PhaseResult, *, quality: float | None, vapour: float | None = None, bubble: float | None = None,
            dew: float | None = None, notes: tuple[str, ...] = ()) -> FluidState:
     """Assemble the FluidState and its model text (versions, EOS, methods, state point, notes)."""
-    from boresize.properties.thermo_phases import EOS_TITLES, versions
+    from boresize.properties.thermo_phases import EOS_TITLES, thermo_version, versions
 
     all_notes = ((fluid.note,) if fluid.note else ()) + notes
     model = (f"{versions()}: {EOS_TITLES[eos]} EOS, kij ChemSep PR; {result.method}; at "
@@ -159,6 +158,6 @@ def _state(package: ThermoPackage, fluid: Fluid, eos: str, pressure: float, temp
         density=result.density, viscosity=result.viscosity, phase=phase, source="thermo", model=model,
         vapour_fraction=quality, vapour_pressure=vapour, speed_of_sound=result.speed_of_sound,
         molar_mass=result.molar_mass, fluid_name=fluid.label,
-        bubble_pressure=bubble, dew_pressure=dew, backend_version=importlib.metadata.version("thermo"), eos=eos, pressure=pressure,
+        bubble_pressure=bubble, dew_pressure=dew, backend_version=thermo_version(), eos=eos, pressure=pressure,
         temperature=temperature, composition=tuple(zip(fluid.names, fluid.zs)), notes=all_notes,
     )

@@ -7,9 +7,12 @@ Methods (each named in the state's model text):
 * phase split: the chosen cubic EOS with binary interaction parameters kij from thermo's "ChemSep PR"
   table (zero where the table has none), thermo's ``FlashVL`` for mixtures; for one component, the
   vapour-pressure correlation of thermo decides liquid or gas (more exact than a cubic EOS's own).
-* gas density: the EOS. Gas viscosity: Lorentz, Bray & Clarke (J. Pet. Technol. 16 (1964) 1171,
-  doi:10.2118/915-PA) at the EOS molar volume, which corrects for pressure (thermo's default gas
-  viscosity ignores pressure: -8 % for methane at 50 bar).
+* gas density and speed of sound: the EOS. Gas viscosity: the dilute-gas viscosity from thermo's
+  pure-gas correlations mixed by Herning & Zipperer, plus the dense-fluid term of Lorentz, Bray & Clarke
+  (J. Pet. Technol. 16 (1964) 1171, doi:10.2118/915-PA) at the EOS molar volume, which corrects for
+  pressure (thermo's default gas viscosity ignores it: -8 % for methane at 50 bar, -20 % at 100 bar).
+  Measured against CoolProp: methane and natural gases within 1.5 % to 100 bar, air 1.5 %, steam and
+  ammonia about +5 %, hydrogen/methane +7 %, dense CO2 at 40 degC and 100 bar -9 %.
 * liquid density: the saturated volume from pure-liquid correlations (VDI Heat Atlas or Perry's, see
   :data:`PREFERRED_METHODS`) mixed by Amagat's law when every component is below 0.95 of its critical
   temperature (COSTALD misses polar liquids: methanol +8 %, ethylene glycol +13 %), else COSTALD with
@@ -34,7 +37,8 @@ from typing import Any
 from boresize.errors import PropertyError
 from boresize.properties.mixing import costald_liquid_volume, mass_fractions, molar_mass
 
-__all__ = ["EOS_CLASSES", "EOS_TITLES", "PhaseResult", "Split", "ThermoPackage", "load_package", "versions"]
+__all__ = ["EOS_CLASSES", "EOS_TITLES", "PhaseResult", "Split", "ThermoPackage", "load_package", "thermo_version",
+           "versions"]
 
 #: EOS id -> thermo mixture class name.
 EOS_CLASSES: dict[str, str] = {
@@ -74,6 +78,12 @@ class Split:
 
 
 @functools.lru_cache(maxsize=1)
+def thermo_version() -> str:
+    """thermo's version from the installed distribution (no import; cached: the lookup costs ~0.5 ms)."""
+    return importlib.metadata.version("thermo")
+
+
+@functools.lru_cache(maxsize=1)
 def versions() -> str:
     """"thermo X + chemicals Y" from the installed distributions (no import)."""
     return f"thermo {importlib.metadata.version('thermo')} + chemicals {importlib.metadata.version('chemicals')}"
@@ -94,7 +104,8 @@ class ThermoPackage:
         self.molar_masses = tuple(m / 1000.0 for m in constants.MWs)
         self.tcs, self.pcs = tuple(constants.Tcs), tuple(constants.Pcs)
         self.vcs, self.omegas = tuple(constants.Vcs), tuple(constants.omegas)
-        for group in (correlations.VolumeLiquids, correlations.VaporPressures, correlations.ViscosityLiquids):
+        for group in (correlations.VolumeLiquids, correlations.VaporPressures, correlations.ViscosityLiquids,
+                      correlations.ViscosityGases):
             for correlation in group:
                 _prefer_published(correlation)
         for viscosity in correlations.ViscosityLiquids:  # Lucas (published), not a CoolProp call per state
@@ -140,7 +151,8 @@ class ThermoPackage:
         """
         phase = self.gas_phase.to(T=temperature, P=pressure, zs=list(zs))
         volume = float(phase.V())
-        result = self._dense(temperature, pressure, zs, volume, "gas: EOS density, Lorentz-Bray-Clarke viscosity")
+        result = self._dense(temperature, pressure, zs, volume, "gas: EOS density; viscosity: dilute-gas correlations "
+                             "(Herning-Zipperer mixing) plus the Lorentz-Bray-Clarke dense-fluid term")
         square = -volume * volume / result.molar_mass * phase.Cp() / phase.Cv() * phase.dP_dV()
         sound = math.sqrt(square) if square > 0.0 and math.isfinite(square) else None
         return PhaseResult(result.density, result.viscosity, result.molar_mass, result.method, sound)
@@ -191,13 +203,20 @@ class ThermoPackage:
         return float(value)
 
     def _dense(self, temperature: float, pressure: float, zs: Sequence[float], volume: float, method: str) -> PhaseResult:
-        from chemicals.viscosity import Lorentz_Bray_Clarke
+        """Density from ``volume`` [m3/mol]; viscosity = dilute-gas viscosity + the Lorentz-Bray-Clarke
+        dense-fluid term at that volume. The dilute part is Herning-Zipperer mixing of thermo's pure-gas
+        correlations (LBC's own Stiel-Thodos estimate misses steam by -16 %), or Stiel-Thodos if one lacks."""
+        from chemicals.viscosity import Herning_Zipperer, Lorentz_Bray_Clarke, Stiel_Thodos
 
         mean = molar_mass(zs, self.molar_masses)
         grams = [m * 1000.0 for m in self.molar_masses]
-        viscosity = Lorentz_Bray_Clarke(temperature, pressure, volume, list(zs), grams, list(self.tcs),
-                                        list(self.pcs), list(self.vcs))
-        return PhaseResult(mean / volume, float(viscosity), mean, method)
+        total = Lorentz_Bray_Clarke(temperature, pressure, volume, list(zs), grams, list(self.tcs),
+                                    list(self.pcs), list(self.vcs))
+        estimate = Herning_Zipperer(list(zs), [Stiel_Thodos(temperature, tc, pc, mw) for tc, pc, mw
+                                               in zip(self.tcs, self.pcs, grams)], grams)
+        pures = [correlation.T_dependent_property(temperature) for correlation in self.correlations.ViscosityGases]
+        dilute = Herning_Zipperer(list(zs), pures, grams) if all(pures) else estimate
+        return PhaseResult(mean / volume, float(total - estimate + dilute), mean, method)
 
 
 #: Published correlations preferred over thermo's defaults (which are often fits to CoolProp or

@@ -75,9 +75,11 @@ def _window(candidates: Sequence[CandidateResult], chosen: str | None) -> list[d
     rows = []
     for c in shown:
         h, worst = c.hydraulics, c.worst
-        rows.append({"nps": c.candidate.nps, "schedule": c.candidate.schedule, "id": _num(c.candidate.inside_diameter * 1e3),
-                     "velocity": _num(h.velocity), "drop": _num(h.drop_per_length / 10.0), "reynolds": _num(h.reynolds),
-                     "friction": _num(h.friction_factor), "regime": h.regime, "worst": worst.criterion if worst else "-",
+        rows.append({"nps": c.candidate.nps, "schedule": c.candidate.schedule,
+                     "id": _num(c.candidate.inside_diameter * 1e3), "velocity": _num(h.velocity),
+                     "drop": _num(h.drop_per_length / 10.0), "reynolds": _num(h.reynolds),
+                     "friction": _num(h.friction_factor), "regime": h.regime,
+                     "worst": worst.criterion if worst else "-",
                      "utilisation": _pct(worst.utilisation if worst else None),
                      "result": "pass" if c.passed else "fail", "selected": c.candidate.nps == chosen})
     return rows
@@ -100,7 +102,8 @@ def _line_view(result: LineResult, headers: Mapping[str, str], units: Mapping[st
     worst = sel.worst if sel else None
     return {"tag": result.tag, "status": result.status, "mode": result.mode, "service": result.service or "-",
             "case_count": len(result.cases) or 1, "nps": sel.candidate.nps if sel else "",
-            "schedule": sel.candidate.schedule if sel else "", "velocity": _num(sel.hydraulics.velocity if sel else None),
+            "schedule": sel.candidate.schedule if sel else "",
+            "velocity": _num(sel.hydraulics.velocity if sel else None),
             "drop": _num(sel.hydraulics.drop_per_length / 10.0 if sel else None),
             "controlling": result.controlling or "-", "utilisation": _pct(worst.utilisation if worst else None),
             "case": case_name(result) if result.cases else "", "governing": list(result.governing),
