@@ -311,3 +311,20 @@ def test_every_state_reports_its_phase_and_vapour_fraction(batch: dict[str, Any]
 def test_coolprop_mixture_refuses_a_cubic_eos(mixture_backend: CoolPropMixtureBackend) -> None:
     with pytest.raises(InputError, match=r"eos: the coolprop-mixture backend has no equation of state 'PR'"):
         mixture_backend.state(make_line("methane:0.9, ethane:0.1", 50e5, 300.0, eos="PR"), 50e5, 300.0)
+
+
+def test_water_and_liquid_hydrocarbons_are_refused_not_averaged(sizer):
+    # Water and n-hexane are practically immiscible (hexane dissolves to about 10 mg/L in water at 25 degC:
+    # IUPAC-NIST Solubility Data Series vol. 81, from memory), so a 50/50 liquid is two liquid phases.
+    # A one-liquid flash gave 667 kg/m3 for it: a plausible wrong number, refused instead.
+    rows = [
+        ({"tag": "LL-1", "fluid": "water:0.5, n-hexane:0.5", "flow": "10 t/h", "pressure": "3 barg",
+          "temperature": "25 degC", "service": "liquid"}, {}),
+        ({"tag": "LL-2", "fluid": "water:0.7, methanol:0.3", "flow": "10 t/h", "pressure": "3 barg",
+          "temperature": "25 degC", "service": "liquid"}, {}),
+    ]
+    hexane, methanol = sizer.run_rows(rows)
+    assert hexane.status == "error" and hexane.error_field == "fluid"
+    assert "form two liquid phases" in hexane.error
+    assert "sized as separate streams" in hexane.error
+    assert methanol.status == "pass"  # water and methanol mix in all proportions (one liquid)

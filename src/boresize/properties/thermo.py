@@ -178,6 +178,8 @@ class ThermoBackend:
                 raise PropertyError(f"thermo: flash failed for {where}: {type(exc).__name__}: {exc}") from exc
         check_plausible(state.density, state.viscosity, backend=self.id, fluid=fluid.label,
                         pressure=pressure, temperature=temperature)
+        if state.phase in ("liquid", "two-phase"):
+            _refuse_two_liquids(fluid, where)
         if state.phase == "liquid" and state.viscosity < LIQUID_VISCOSITY_MIN:
             raise PropertyError(f"thermo: liquid viscosity {state.viscosity:.6g} Pa s for {where} is below the "
                                 f"plausible {LIQUID_VISCOSITY_MIN:g} Pa s")
@@ -204,6 +206,37 @@ class ThermoBackend:
             if self._gas_flashes[key] == GAS_FLASHES_BEFORE_CHECK and no_envelope(package, fluid, temperature):
                 self._known[key] = ("gas", None)
         return state
+
+
+WATER_CAS = "7732-18-5"
+#: Mole fraction above which water, and C3+ hydrocarbons together, count as a liquid phase of their own [-]
+IMMISCIBLE_FRACTION = 0.01
+
+
+@functools.lru_cache(maxsize=256)
+def _heavy_hydrocarbon(cas: str) -> bool:
+    """True for a hydrocarbon (carbon and hydrogen only) with three or more carbon atoms."""
+    from chemicals.elements import simple_formula_parser
+    from chemicals.identifiers import search_chemical
+
+    atoms = simple_formula_parser(search_chemical(cas).formula)
+    return set(atoms) == {"C", "H"} and atoms["C"] >= 3
+
+
+def _refuse_two_liquids(fluid: Fluid, where: str) -> None:
+    """A liquid with water and C3+ hydrocarbons (each above 1 mol %) splits into two liquid phases, which
+    this backend's flash cannot represent: it would report one liquid with a wrong density (water/hexane
+    came out at 667 kg/m3). Refuse it rather than give a plausible wrong number."""
+    zs = dict(zip(fluid.cas, fluid.zs))
+    water = zs.get(WATER_CAS, 0.0)
+    heavy = sum(z for cas, z in zs.items() if cas != WATER_CAS and _heavy_hydrocarbon(cas))
+    if water > IMMISCIBLE_FRACTION and heavy > IMMISCIBLE_FRACTION:
+        raise InputError(
+            f"water ({water:.3g} mol) and C3+ hydrocarbons ({heavy:.3g} mol) form two liquid phases in {where}; "
+            f"the thermo backend models one liquid, so its density and viscosity would be wrong",
+            field="fluid", value=fluid.label,
+            expected="the water and hydrocarbon liquids sized as separate streams, or the line's own density "
+                     "and viscosity")
 
 
 @functools.lru_cache(maxsize=1024)
