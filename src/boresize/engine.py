@@ -18,8 +18,8 @@ from boresize.config import Service, SizingConfig, load_config
 from boresize.criteria.base import CriterionContext
 from boresize.errors import BoresizeError, InputError, PropertyError
 from boresize.hydraulics import swamee_jain_diameter
-from boresize.hydraulics.line import rate_line
-from boresize.model import Candidate, CandidateResult, FluidState, Line, LineResult, Verdict, VerdictStatus
+from boresize.hydraulics.line import is_gas, needs_march, rate_line
+from boresize.model import Candidate, CandidateResult, FluidState, Hydraulics, Line, LineResult, Verdict, VerdictStatus
 from boresize.pipes import PipeClass
 from boresize.plugins import PluginHost
 from boresize.properties.phase import two_phase_error
@@ -130,21 +130,44 @@ class Sizer:
 
     def _rate(self, line: Line, state: FluidState, service: Service, candidate: Candidate,
               mass_flow: float) -> CandidateResult:
+        """Rate one candidate. A gas candidate that needs marching is first screened with the simple
+        method: if it already fails a criterion that marching can only make worse, the march is skipped."""
+        if is_gas(state):
+            simple = self._hydraulics(line, state, candidate, mass_flow, march=False)
+            if needs_march(line, state, simple):
+                verdicts = self._verdicts(line, state, service, candidate, simple)
+                fails = [v.criterion for v in verdicts if _fails_beyond_march(v)]
+                if fails:
+                    note = (f"; not marched: fails {', '.join(fails)} already with the simple method, which "
+                            f"understates a gas line's drop and outlet velocity")
+                    hyd = replace(simple, method=simple.method + note)
+                    return CandidateResult(candidate, hyd, self._verdicts(line, state, service, candidate, hyd))
+            else:
+                return CandidateResult(candidate, simple, self._verdicts(line, state, service, candidate, simple))
+        hyd = self._hydraulics(line, state, candidate, mass_flow, march=True)
+        return CandidateResult(candidate, hyd, self._verdicts(line, state, service, candidate, hyd))
+
+    def _hydraulics(self, line: Line, state: FluidState, candidate: Candidate, mass_flow: float,
+                    march: bool) -> Hydraulics:
         try:
-            hyd = rate_line(line, state, candidate, mass_flow,
+            hyd = rate_line(line, state, candidate, mass_flow, march=march,
                             properties=lambda p, t: choose_backend(self.host, line).state(line, p, t))
         except (OverflowError, ZeroDivisionError) as exc:
             raise _beyond_range(mass_flow, f"in NPS {candidate.nps}") from exc
         if not all(math.isfinite(x) for x in (hyd.velocity, hyd.reynolds, hyd.friction_factor, hyd.drop_per_length,
                                               hyd.total_drop)):  # an inf drop would fail every size, a NaN pass it
             raise _beyond_range(mass_flow, f"in NPS {candidate.nps}")
+        return hyd
+
+    def _verdicts(self, line: Line, state: FluidState, service: Service, candidate: Candidate,
+                  hyd: Hydraulics) -> tuple[Verdict, ...]:
         verdicts = []
         for criterion, options in service.criteria:
             if state.phase not in criterion.phases and _phase_group(state.phase) not in criterion.phases:
                 continue
             context = CriterionContext(line, state, candidate, hyd, options, service.name)
             verdicts.append(self._judge(criterion, context))
-        return CandidateResult(candidate, hyd, tuple(verdicts))
+        return tuple(verdicts)
 
     def _judge(self, criterion: object, context: CriterionContext) -> Verdict:
         ident = getattr(criterion, "id", "?")
@@ -287,6 +310,17 @@ def _verdict_fault(verdict: Verdict) -> str | None:
                                    or math.isnan(number)):
             return f"returned {name} {number!r}, not a number"
     return None
+
+
+#: Built-in criteria whose judged value marching a gas line can only raise (inlet velocity and momentum
+#: stay, the mean drop per length and the outlet Mach number grow as the gas expands along the line).
+_MARCH_ONLY_WORSENS = frozenset({"drop-per-length", "velocity", "erosional", "momentum", "noise-velocity", "mach"})
+
+
+def _fails_beyond_march(verdict: Verdict) -> bool:
+    """A fail above a maximum, by a criterion that marching cannot turn into a pass."""
+    return (verdict.criterion in _MARCH_ONLY_WORSENS and verdict.status == "fail" and verdict.value is not None
+            and verdict.limit is not None and verdict.value > verdict.limit)
 
 
 def _phase_group(phase: str) -> str:

@@ -35,7 +35,7 @@ import numbers
 import re
 from dataclasses import dataclass
 from tokenize import TokenError
-from typing import TYPE_CHECKING, Literal
+from typing import TYPE_CHECKING, Literal, NamedTuple
 
 from boresize.errors import InputError, UnitError
 from boresize.model import Flow
@@ -309,14 +309,15 @@ def _number_and_unit(cell: _Cell) -> tuple[float, str, _Cell]:
         raise cell.error(f"'{shown}' is not a finite number", "a finite number", InputError) from None
 
 
-def _quantity(value: object, field: str, kind: str, default_unit: str | None) -> tuple[pint.Quantity, _Cell]:
+def _quantity(value: object, field: str, kind: str, default_unit: str | None) -> tuple[_Parsed, _Cell]:
     """Parse a cell into a pint Quantity (the unit in the cell wins over ``default_unit``)."""
     number, unit, cell = _number_and_unit(_Cell(field, value, kind))
     default = (default_unit or "").strip().strip("[]").strip()
     if not unit and default:
         unit, cell = default, _Cell(field, value, kind, f"{cell.shown} [{default}]")
     elif not unit and kind == "dimensionless":
-        return registry().Quantity(number, "dimensionless"), cell
+        unit = _unit_of("dimensionless")
+        return _Parsed(number, unit.units, unit.dimensionality), cell
     elif not unit:
         raise cell.error(f"missing unit in '{cell.shown}'")
     expression = _normalise(unit, cell)
@@ -346,15 +347,44 @@ def _check_powers(expression: str, cell: _Cell) -> None:
                          f"m**3 or s^-1")
 
 
-def _build(number: float, expression: str, cell: _Cell) -> pint.Quantity:
+@functools.lru_cache(maxsize=4096)
+def _unit_of(expression: str) -> pint.Quantity:
+    """One of the unit ``expression`` (parsing costs ~100 us; a line list repeats its units)."""
+    return registry().parse_expression(expression)
+
+
+@functools.lru_cache(maxsize=4096)
+def _to_si(units: pint.Unit, si: str) -> tuple[float, float]:
+    """(scale, offset) with value_si = value * scale + offset, from pint's own conversion of 0 and 1."""
+    ureg = registry()
+    zero = float(ureg.Quantity(0.0, units).to(si).magnitude)
+    return float(ureg.Quantity(1.0, units).to(si).magnitude) - zero, zero
+
+
+def _magnitude_si(quantity: _Parsed, si: str) -> float:
+    """``quantity.to(si).magnitude`` through the cached linear map of its unit."""
+    scale, offset = _to_si(quantity.units, si)
+    return float(quantity.magnitude) * scale + offset
+
+
+class _Parsed(NamedTuple):
+    """A parsed cell: what pint's Quantity would hold, without building one per cell (~100 us each)."""
+
+    magnitude: float
+    units: pint.Unit
+    dimensionality: object
+
+
+def _build(number: float, expression: str, cell: _Cell) -> _Parsed:
     """``number`` times the unit ``expression``, with pint's faults turned into UnitError."""
     import pint  # already loaded by registry()
 
-    ureg = registry()
     try:
         if expression in _OFFSET:  # offset units are built, never multiplied
-            return ureg.Quantity(number, expression)
-        return ureg.Quantity(number) * ureg.parse_expression(expression)
+            unit = _offset_unit(expression)
+            return _Parsed(number, unit.units, unit.dimensionality)
+        unit = _unit_of(expression)
+        return _Parsed(number * float(unit.magnitude), unit.units, unit.dimensionality)
     except pint.UndefinedUnitError as exc:
         names = ", ".join(f"'{name}'" for name in exc.unit_names)
         raise cell.error(f"unknown unit {names} in '{cell.shown}'") from exc
@@ -363,6 +393,12 @@ def _build(number: float, expression: str, cell: _Cell) -> pint.Quantity:
     except (pint.PintError, TokenError, AssertionError, SyntaxError, TypeError, ValueError, ZeroDivisionError,
             OverflowError) as exc:
         raise cell.error(f"cannot read the unit of '{cell.shown}'") from exc
+
+
+@functools.lru_cache(maxsize=64)
+def _offset_unit(expression: str) -> pint.Quantity:
+    """One of an offset unit (degC, barg ...), built rather than parsed."""
+    return registry().Quantity(1.0, expression)
 
 
 # ---------------------------------------------------------------------------------------------
@@ -385,7 +421,7 @@ def _dimension(expression: str) -> object:
     return registry().parse_expression(expression).dimensionality
 
 
-def _wrong_dimension(quantity: pint.Quantity, noun: str, cell: _Cell) -> InputError:
+def _wrong_dimension(quantity: _Parsed, noun: str, cell: _Cell) -> InputError:
     """The error for a quantity of the wrong kind, saying in the trade's words what it is."""
     found = {_dimension(si): name for si, name in _DESCRIPTIONS}.get(quantity.dimensionality)
     what = found or f"a quantity of dimension {quantity.dimensionality}"
@@ -415,7 +451,7 @@ def parse_quantity(value: str | float | int | None, field: str, kind: QuantityKi
     si, noun, _ = _KINDS[kind]
     if quantity.dimensionality != _dimension(si):
         raise _wrong_dimension(quantity, noun, cell)
-    result = _finite(float(quantity.to(si).magnitude), cell)  # "1e308 m*10" overflows to inf
+    result = _finite(_magnitude_si(quantity, si), cell)  # "1e308 m*10" overflows to inf
     if kind == "pressure" and result <= 0.0:
         raise cell.error(f"absolute pressure must be above zero: '{cell.shown}' is {result:g} Pa abs",
                          "a pressure above 0 Pa abs (a g suffix adds 101.325 kPa)", InputError)
@@ -438,11 +474,11 @@ def parse_flow(value: str | float | int | None, field: str = "flow", default_uni
         raise cell.error(f"'{cell.shown}' is not a finite number", "a finite number", InputError)
     dimension = quantity.dimensionality
     if dimension == _dimension("kg/s"):
-        return Flow("mass", float(quantity.to("kg/s").magnitude))
+        return Flow("mass", _magnitude_si(quantity, "kg/s"))
     if dimension == _dimension("m**3/s"):
-        return Flow("volume", float(quantity.to("m**3/s").magnitude))
+        return Flow("volume", _magnitude_si(quantity, "m**3/s"))
     for name, si in _STANDARD_SI.items():
         if dimension == _dimension(si):
             temperature, pressure, label = STANDARD_CONDITIONS[name]
-            return Flow("standard-volume", float(quantity.to(si).magnitude), temperature, pressure, label)
+            return Flow("standard-volume", _magnitude_si(quantity, si), temperature, pressure, label)
     raise _wrong_dimension(quantity, "a flow", cell)

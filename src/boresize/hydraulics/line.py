@@ -27,7 +27,7 @@ from boresize.hydraulics.darcy import rate_pipe
 from boresize.hydraulics.fittings import FittingsLoss, fittings_loss
 from boresize.model import Candidate, FluidState, Hydraulics, Line
 
-__all__ = ["G", "rate_line", "is_gas"]
+__all__ = ["G", "rate_line", "is_gas", "needs_march"]
 
 G = 9.80665  # standard acceleration of gravity [m/s2] (CGPM 1901, exact)
 
@@ -38,7 +38,7 @@ def is_gas(state: FluidState) -> bool:
 
 
 def rate_line(line: Line, state: FluidState, candidate: Candidate, mass_flow: float,
-              properties: Properties | None = None) -> Hydraulics:
+              properties: Properties | None = None, *, march: bool = True) -> Hydraulics:
     """Hydraulics of ``candidate`` carrying ``mass_flow`` [kg/s] along ``line`` (SI throughout).
 
     :param line: length [m], elevation [m, rise positive], fittings, fixed_drop [Pa], inlet pressure
@@ -46,6 +46,8 @@ def rate_line(line: Line, state: FluidState, candidate: Candidate, mass_flow: fl
     :param state: properties at the inlet
     :param properties: (p [Pa abs], T [K]) -> FluidState, the equation of state along a gas line; None
         (or line-list values) scales the inlet density as an ideal gas
+    :param march: False to rate a gas line with the simple method whatever its drop (a screen: see
+        :func:`needs_march`)
     :returns: Hydraulics with every drop [Pa], the outlet pressure [Pa abs] and the method text
     :raises InputError: an unknown fitting or method (field "fittings", "fittings_method", "compressible")
     """
@@ -58,13 +60,18 @@ def rate_line(line: Line, state: FluidState, candidate: Candidate, mass_flow: fl
     fittings = loss.drop(hyd.friction_factor, state.density, hyd.velocity, diameter)
     static = state.density * G * line.elevation
     fraction = (hyd.drop + fittings + static) / line.pressure
-    hyd = replace(hyd, fittings_k=loss.k_total, fittings_method=loss.method)
-    if is_gas(state) and fraction > SIMPLE_LIMIT and line.length + loss.equivalent_length + loss.k_total > 0.0:
+    if march and is_gas(state) and fraction > SIMPLE_LIMIT and line.length + loss.equivalent_length + loss.k_total > 0.0:
+        hyd = replace(hyd, fittings_k=loss.k_total, fittings_method=loss.method)
         return _compressible(line, state, hyd, loss, (diameter, roughness), properties, fraction)
     total = hyd.drop + fittings + static + line.fixed_drop
-    return replace(hyd, fittings_drop=fittings, static_drop=static, fixed_drop=line.fixed_drop,
-                   total_drop=total, outlet_pressure=line.pressure - total,
-                   method=_simple_text(state, fraction, loss))
+    return replace(hyd, fittings_k=loss.k_total, fittings_method=loss.method, fittings_drop=fittings,
+                   static_drop=static, fixed_drop=line.fixed_drop, total_drop=total,
+                   outlet_pressure=line.pressure - total, method=_simple_text(state, fraction, loss))
+
+
+def needs_march(line: Line, state: FluidState, hyd: Hydraulics) -> bool:
+    """True when ``hyd`` (rated with ``march=False``) is a gas line whose drop exceeds the simple method's limit."""
+    return is_gas(state) and (hyd.drop + hyd.fittings_drop + hyd.static_drop) / line.pressure > SIMPLE_LIMIT
 
 
 def _simple_text(state: FluidState, fraction: float, loss: FittingsLoss) -> str:
