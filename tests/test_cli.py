@@ -38,6 +38,9 @@ def test_demo_json_follows_the_contract(capsys):
             assert line["error"]
         for verdict in line["verdicts"]:
             assert {"criterion", "status", "value", "limit", "unit", "reason"} <= set(verdict)
+        if line["status"] != "error":  # the calculation record names its property source, version and method
+            assert line["property_source"] and line["property_backend_version"] and line["drop_method"]
+            assert line["choked"] is False
     assert code == (0 if all(line["status"] == "pass" for line in doc["lines"]) else 1)
     assert "screening" in doc["caution"]
 
@@ -121,3 +124,25 @@ def test_every_help_page_prints(argv, capsys):
         main(argv)
     assert info.value.code == 0
     assert "usage: boresize" in capsys.readouterr().out
+
+
+def test_headroom_option_reports_the_flow_a_velocity_limit_allows(tmp_path, capsys):
+    # Only a velocity limit of 3 m/s: the boundary flow is 3 m/s x rho x bore area. Bore of NPS 4 Sch 40 from
+    # the fluids library (ASME B36.10M), density of water at 20 degC and 5 barg from CoolProp (IAPWS-95).
+    import math
+
+    from CoolProp.CoolProp import PropsSI
+    from fluids.piping import nearest_pipe
+
+    criteria = tmp_path / "c.toml"
+    criteria.write_text('[service.only-velocity]\nphase = "liquid"\nvelocity = { max = "3 m/s" }\n')
+    code, out, _ = _run(capsys, "--tag", "H-1", "--fluid", "water", "--flow", "72 t/h", "--pressure", "5 barg",
+                        "--temperature", "20 degC", "--nps", "4", "--service", "only-velocity",
+                        "--criteria", str(criteria), "--headroom", "--json")
+    entry = json.loads(out)["lines"][0]
+    rho = PropsSI("D", "T", 293.15, "P", 601325.0, "Water")
+    bore = nearest_pipe(NPS=4, schedule="40")[1]
+    expected = (3.0 * rho * math.pi * bore**2 / 4) / (72_000 / 3600) - 1.0
+    assert code == 0
+    assert entry["headroom_percent"] == pytest.approx(expected * 100, abs=0.05)
+    assert entry["headroom_limited_by"] == ["velocity"]

@@ -84,6 +84,7 @@ def run_size(args: argparse.Namespace) -> int:
     line_list = _line_list(args)
     sizer, results = _size_list(args, line_list, _check_roughness(args))
     trace = traceability(sizer, lines_source=line_list.source, lines_digest=line_list.digest)
+    rooms = _headrooms(sizer, results) if args.headroom else None
     for path in outputs:
         write_output(path, results, line_list=line_list, trace=trace, criteria_source=sizer.config.origin,
                      lines_source=line_list.source)
@@ -91,12 +92,44 @@ def run_size(args: argparse.Namespace) -> int:
     if args.json:
         from boresize.cli import print_json
 
-        print_json(document(results, criteria_source=sizer.config.origin, lines_source=line_list.source,
-                            traceability=trace))
+        doc = document(results, criteria_source=sizer.config.origin, lines_source=line_list.source,
+                       traceability=trace)
+        if rooms is not None:
+            from boresize.rating import headroom_to_dict
+
+            for entry, room in zip(doc["lines"], rooms):
+                entry.update(headroom_to_dict(room))
+        print_json(doc)
         print(f"boresize: {summary(results)}", file=sys.stderr)
     else:
         sys.stdout.write(render_table(results, sizer.config))
+        if rooms is not None:
+            sys.stdout.write(_render_headrooms(rooms))
     return 0 if results and all(r.status == "pass" for r in results) else 1
+
+
+def _headrooms(sizer, results):  # type: ignore[no-untyped-def]
+    """Headroom of each line at the size it got (its governing case's conditions)."""
+    from dataclasses import replace
+
+    from boresize.rating import Headroom, find_headroom
+
+    rooms = []
+    for result in results:
+        if result.line is None or result.selected is None:
+            rooms.append(Headroom(result.tag, None, None, (), result.error or "no size to rate"))
+            continue
+        line = replace(result.line, nps=result.selected.candidate.nps, schedule=result.selected.candidate.schedule)
+        rooms.append(find_headroom(sizer, line))
+    return rooms
+
+
+def _render_headrooms(rooms) -> str:  # type: ignore[no-untyped-def]
+    out = ["", "Headroom at the selected or given size (flow beyond the design flow before a criterion fails):"]
+    for room in rooms:
+        shown = "-" if room.percent is None else f"{room.percent:+.1f} %"
+        out.append(f"  {room.tag:<14} {shown:>9}  {room.note}")
+    return "\n".join(out) + "\n"
 
 
 def _revision(path: str, args: argparse.Namespace) -> dict:  # type: ignore[type-arg]

@@ -82,6 +82,10 @@ def _case(result: LineResult) -> str | None:
     return result.raw.get("case") or None
 
 
+def _bar(pressure: float | None) -> float | None:
+    return _r(pressure / 1e5) if pressure else None
+
+
 def _record(result: LineResult) -> dict[str, Any]:
     """What a checker needs to follow the calculation."""
     sel, state, line = result.selected, result.state, result.line
@@ -100,7 +104,12 @@ def _record(result: LineResult) -> dict[str, Any]:
         })
     if state is not None:
         record.update({"phase": state.phase, "property_source": state.source, "property_model": state.model,
-                       "vapour_pressure_bar_abs": _r(state.vapour_pressure / 1e5) if state.vapour_pressure else None})
+                       "property_backend_version": state.backend_version, "eos": state.eos,
+                       "vapour_fraction": _r(state.vapour_fraction),
+                       "vapour_pressure_bar_abs": _bar(state.vapour_pressure),
+                       "bubble_pressure_bar_abs": _bar(state.bubble_pressure),
+                       "dew_pressure_bar_abs": _bar(state.dew_pressure),
+                       "speed_of_sound_m_s": _r(state.speed_of_sound)})
     if sel is not None:
         h = sel.hydraulics
         record.update({
@@ -110,7 +119,9 @@ def _record(result: LineResult) -> dict[str, Any]:
             "fittings_drop_kpa": _r(h.fittings_drop / 1e3), "static_drop_kpa": _r(h.static_drop / 1e3),
             "fixed_drop_kpa": _r(h.fixed_drop / 1e3), "total_drop_kpa": _r(h.total_drop / 1e3),
             "outlet_pressure_bar_abs": _r(h.outlet_pressure / 1e5) if h.outlet_pressure is not None else None,
-            "mach": _r(h.mach), "drop_method": h.method,
+            "mach": _r(h.mach), "outlet_mach": _r(h.outlet_mach), "outlet_velocity_m_s": _r(h.outlet_velocity),
+            "choked": h.choked, "acceleration_drop_kpa": _r(h.acceleration_drop / 1e3),
+            "fittings_k": _r(h.fittings_k), "fittings_method": h.fittings_method, "drop_method": h.method,
             "first_guess_id_mm": _r(result.first_guess_diameter * 1e3) if result.first_guess_diameter else None,
             "candidates": [candidate_to_dict(c) for c in result.candidates],
         })
