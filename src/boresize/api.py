@@ -19,17 +19,15 @@ import math
 import numbers
 import os
 import re
-import sys
-import threading
 from collections.abc import Iterable, Mapping, Sequence
-from concurrent.futures import Executor, ProcessPoolExecutor
+from concurrent.futures import Executor
 from concurrent.futures.process import BrokenProcessPool
 from dataclasses import replace
 from pathlib import Path
 from typing import TYPE_CHECKING, Union
 
 from boresize.result import SizingResult
-from boresize.batch import SizerSpec, spec_for
+from boresize.batch import SizerSpec, process_pool, shared_sizer, spec_for
 from boresize.errors import BoresizeError, InputError, UnitError
 from boresize.model import Line, LineResult
 
@@ -53,8 +51,6 @@ Value = Union[str, float, int, "pint.Quantity[float]", None]
 Item = Union[Line, Sequence[Line]]
 _OFFSET_NAMES = {"delta_degree_Celsius": "delta_degC", "delta_degree_Fahrenheit": "delta_degF",
                  "degree_Celsius": "degC", "degree_Fahrenheit": "degF", "degree_Rankine": "degR"}
-_SIZERS: dict[SizerSpec, Sizer] = {}
-_SIZERS_LOCK = threading.Lock()
 
 
 # -- building a line ---------------------------------------------------------------------------
@@ -193,10 +189,7 @@ def check(line: Item, nps: str | float | None = None, *, schedule: str | int | N
 
 def default_sizer(spec: SizerSpec) -> Sizer:
     """The sizer of this process for ``spec`` (built once: loading plugins and criteria costs time)."""
-    with _SIZERS_LOCK:
-        if spec not in _SIZERS:
-            _SIZERS[spec] = spec.build()
-        return _SIZERS[spec]
+    return shared_sizer(spec)
 
 
 def _item(value: object, position: int) -> Item:
@@ -264,7 +257,7 @@ def _run_parallel(items: list[Item], spec: SizerSpec, executor: Executor | None,
         items = items[1:]
     size = chunk_size or max(1, min(64, math.ceil(len(items) / (max(workers, 4) * 8))))
     chunks = [items[i:i + size] for i in range(0, len(items), size)]
-    pool = executor or _process_pool(workers)
+    pool = executor or process_pool(workers, spec)
     try:
         futures = [pool.submit(_run_chunk, spec, chunk) for chunk in chunks]
         return head + [result for future in futures for result in future.result()]
@@ -274,11 +267,3 @@ def _run_parallel(items: list[Item], spec: SizerSpec, executor: Executor | None,
     finally:
         if executor is None:
             pool.shutdown(wait=True, cancel_futures=True)
-
-
-def _process_pool(workers: int) -> ProcessPoolExecutor:
-    import multiprocessing
-
-    # fork on Linux: the workers inherit the imported modules (pint, CoolProp) instead of importing them again
-    context = multiprocessing.get_context("fork") if sys.platform == "linux" else None
-    return ProcessPoolExecutor(workers, mp_context=context)

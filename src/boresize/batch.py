@@ -29,7 +29,7 @@ from boresize.engine import Sizer
 from boresize.errors import BoresizeError, InputError
 from boresize.model import LineResult
 
-__all__ = ["PROGRESS_THRESHOLD", "SizerSpec", "run_batch", "spec_for", "summary"]
+__all__ = ["PROGRESS_THRESHOLD", "SizerSpec", "process_pool", "run_batch", "shared_sizer", "spec_for", "summary"]
 
 #: A run of at least this many lines shows a progress bar on a terminal without being asked [lines].
 PROGRESS_THRESHOLD = 50
@@ -57,7 +57,8 @@ class SizerSpec:
         return Sizer(host, criteria_file=self.criteria_file, check_roughness=self.check_roughness)
 
 
-def _worker_sizer(spec: SizerSpec) -> Sizer:
+def shared_sizer(spec: SizerSpec) -> Sizer:
+    """This process's sizer for ``spec``, built once (loading plugins and criteria costs time); thread-safe."""
     with _SIZERS_LOCK:
         if spec not in _SIZERS:
             _SIZERS[spec] = spec.build()
@@ -66,11 +67,11 @@ def _worker_sizer(spec: SizerSpec) -> Sizer:
 
 def _init_worker(spec: SizerSpec) -> None:
     """Executor initializer: build the worker's sizer before the first chunk arrives."""
-    _worker_sizer(spec)
+    shared_sizer(spec)
 
 
 def _run_chunk(spec: SizerSpec, chunk: Sequence[Sequence[Row]]) -> list[LineResult]:
-    sizer = _worker_sizer(spec)
+    sizer = shared_sizer(spec)
     return [sizer.run_line_rows(group) for group in chunk]
 
 
@@ -80,7 +81,8 @@ def _chunks(groups: Sequence[Sequence[Row]], workers: int, size: int | None) -> 
     return [groups[i:i + size] for i in range(0, len(groups), size)]
 
 
-def _process_pool(workers: int, spec: SizerSpec) -> ProcessPoolExecutor:
+def process_pool(workers: int, spec: SizerSpec) -> ProcessPoolExecutor:
+    """A pool of ``workers`` processes, each building its sizer for ``spec`` before its first task."""
     # fork on Linux: the workers inherit the imported modules (pint, plugins) instead of importing again.
     # All workers are forked at the first submit, before the progress bar starts its thread.
     context = multiprocessing.get_context("fork") if sys.platform == "linux" else None
@@ -149,7 +151,7 @@ def _run_parallel(groups: Sequence[Sequence[Row]], spec: SizerSpec, executor: Ex
     if not groups:
         return []
     chunks = _chunks(groups, workers, chunk_size)
-    pool = executor or _process_pool(workers, spec)
+    pool = executor or process_pool(workers, spec)
     try:
         futures: dict[Future[list[LineResult]], int] = {pool.submit(_run_chunk, spec, c): i
                                                         for i, c in enumerate(chunks)}
