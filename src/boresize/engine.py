@@ -11,19 +11,20 @@ import math
 from collections.abc import Iterable, Mapping, Sequence
 from dataclasses import replace
 from pathlib import Path
-from typing import NamedTuple, get_args
+from typing import NamedTuple
 
 from boresize import cases as _cases
 from boresize.config import Service, SizingConfig, load_config
 from boresize.criteria.base import CriterionContext
-from boresize.errors import BoresizeError, InputError, PropertyError
+from boresize.errors import BoresizeError, InputError
 from boresize.hydraulics import swamee_jain_diameter
 from boresize.hydraulics.line import is_gas, needs_march, rate_line
-from boresize.model import Candidate, CandidateResult, FluidState, Hydraulics, Line, LineResult, Verdict, VerdictStatus
+from boresize.model import Candidate, CandidateResult, FluidState, Hydraulics, Line, LineResult, Verdict
 from boresize.pipes import PipeClass
 from boresize.plugins import PluginHost
-from boresize.properties.phase import two_phase_error
+from boresize.outcome import build_result, error_result, error_verdict, internal_error, select, verdict_fault
 from boresize.properties.select import choose_backend, fluid_state, mass_flow_of
+from boresize.service_phase import check_phase, default_service, phase_group
 
 __all__ = ["RATED_ABOVE", "Sizer"]
 
@@ -72,7 +73,7 @@ class Sizer:
     def _run(self, line: Line) -> LineResult:
         prepared = self._prepare(line)
         rated = self._rate_all(prepared)
-        return self._finish(prepared, rated, _select(rated) if prepared.mode == "size" else rated[0])
+        return self._finish(prepared, rated, select(rated) if prepared.mode == "size" else rated[0])
 
     def _prepare(self, line: Line) -> _Prepared:
         mode = "check" if line.nps else "size"
@@ -115,17 +116,17 @@ class Sizer:
     def _finish(self, p: _Prepared, rated: tuple[CandidateResult, ...], selected: CandidateResult | None,
                 closest_note: bool = True) -> LineResult:
         first_guess = self._first_guess(p.service, p.state, p.mass_flow, p.pipe_class.roughness)
-        result = _result(p.line, p.state, p.service, rated, selected, p.mode, p.mass_flow, p.margin,
+        result = build_result(p.line, p.state, p.service, rated, selected, p.mode, p.mass_flow, p.margin,
                          p.service.stamp, first_guess, closest_note)
         return replace(result, notes=result.notes + p.notes) if p.notes else result
 
     def _service(self, line: Line, state: FluidState) -> Service:
-        name = line.service or _default_service(line, state)
+        name = line.service or default_service(line, state)
         if name not in self.config.services:
             raise InputError(f"unknown service {name!r}", field="service", value=name,
                              expected=f"one of {', '.join(self.config.service_names())}").for_line(line.tag)
         service = self.config.services[name]
-        _check_phase(line, state, service)
+        check_phase(line, state, service)
         return service
 
     def _rate(self, line: Line, state: FluidState, service: Service, candidate: Candidate,
@@ -163,7 +164,7 @@ class Sizer:
                   hyd: Hydraulics) -> tuple[Verdict, ...]:
         verdicts = []
         for criterion, options in service.criteria:
-            if state.phase not in criterion.phases and _phase_group(state.phase) not in criterion.phases:
+            if state.phase not in criterion.phases and phase_group(state.phase) not in criterion.phases:
                 continue
             context = CriterionContext(line, state, candidate, hyd, options, service.name)
             verdicts.append(self._judge(criterion, context))
@@ -174,12 +175,12 @@ class Sizer:
         try:
             result = criterion.evaluate(context)  # type: ignore[attr-defined]
         except Exception as exc:  # a plugin's fault: an error verdict naming it, the batch goes on
-            return _error_verdict(ident, self.host.criteria.owner(ident), f"raised {type(exc).__name__}: {exc}")
+            return error_verdict(ident, self.host.criteria.owner(ident), f"raised {type(exc).__name__}: {exc}")
         if not isinstance(result, Verdict):
-            return _error_verdict(ident, self.host.criteria.owner(ident),
+            return error_verdict(ident, self.host.criteria.owner(ident),
                                   f"returned {type(result).__name__}, not a Verdict")
-        fault = _verdict_fault(result)
-        return _error_verdict(ident, self.host.criteria.owner(ident), fault) if fault else result
+        fault = verdict_fault(result)
+        return error_verdict(ident, self.host.criteria.owner(ident), fault) if fault else result
 
     def _first_guess(self, service: Service, state: FluidState, mass_flow: float, roughness: float) -> float | None:
         for criterion, options in service.criteria:
@@ -209,7 +210,7 @@ class Sizer:
             failed = [error_result(line.tag, exc, line=line, mode=mode) for line in named]
             return _cases.cases_error(named[0].tag, failed, mode)
         except Exception as exc:  # a bug: report it on the line, never lose the line
-            failed = [_internal_error(line, exc) for line in named]
+            failed = [internal_error(line, exc) for line in named]
             return _cases.cases_error(named[0].tag, failed, mode)
 
     def _run_cases(self, lines: tuple[Line, ...], mode: str) -> LineResult:
@@ -275,12 +276,7 @@ class Sizer:
         try:
             return self.run(line)
         except Exception as exc:  # report, don't lose the line; the message asks for a bug report
-            return _internal_error(line, exc)
-
-
-def _internal_error(line: Line, exc: Exception) -> LineResult:
-    return LineResult(tag=line.tag, status="error", mode="check" if line.nps else "size", line=line,
-                      error=f"line {line.tag}: internal error {type(exc).__name__}: {exc} (please report it)")
+            return internal_error(line, exc)
 
 
 def _candidates(pipe_class: PipeClass, line: Line) -> tuple[Candidate, ...]:
@@ -298,20 +294,6 @@ def _beyond_range(mass_flow: float, where: str) -> InputError:
                       field="flow", value=mass_flow, expected="a flow of process-plant size; check its unit")
 
 
-def _verdict_fault(verdict: Verdict) -> str | None:
-    """What is wrong with a criterion's verdict (an unknown status, a number that is NaN or not a number), or
-    None: a NaN drop compares false with every limit and would read as a pass."""
-    statuses = get_args(VerdictStatus)
-    if verdict.status not in statuses:
-        return f"returned status {verdict.status!r}, not one of {', '.join(statuses)}"
-    for name in ("value", "limit", "utilisation"):
-        number = getattr(verdict, name)
-        if number is not None and (isinstance(number, bool) or not isinstance(number, (int, float))
-                                   or math.isnan(number)):
-            return f"returned {name} {number!r}, not a number"
-    return None
-
-
 #: Built-in criteria whose judged value marching a gas line can only raise (inlet velocity and momentum
 #: stay, the mean drop per length and the outlet Mach number grow as the gas expands along the line).
 _MARCH_ONLY_WORSENS = frozenset({"drop-per-length", "velocity", "erosional", "momentum", "noise-velocity", "mach"})
@@ -322,91 +304,4 @@ def _fails_beyond_march(verdict: Verdict) -> bool:
     return (verdict.criterion in _MARCH_ONLY_WORSENS and verdict.status == "fail" and verdict.value is not None
             and verdict.limit is not None and verdict.value > verdict.limit)
 
-
-def _phase_group(phase: str) -> str:
-    return {"supercritical": "gas", "two-phase": "two-phase"}.get(phase, phase)
-
-
-def _default_service(line: Line, state: FluidState) -> str:
-    if state.phase == "two-phase":
-        raise two_phase_error(line, state)
-    phase = line.phase or _phase_group(state.phase)
-    return "liquid" if phase == "liquid" else "gas"
-
-
-def _check_phase(line: Line, state: FluidState, service: Service) -> None:
-    if state.phase == "two-phase":
-        raise two_phase_error(line, state)
-    wanted = line.phase or service.phase
-    found = _phase_group(state.phase)
-    if wanted is None or wanted == found:
-        return
-    saturation = ""
-    if state.vapour_pressure is not None:
-        saturation = f", vapour pressure {state.vapour_pressure / 1e5:.4g} bar abs"
-    raise InputError(
-        f"{state.fluid_name or line.fluid} is {state.phase} at {_conditions(line)}{saturation} "
-        f"({state.source}); service {service.name!r} needs a {wanted}",
-        field="temperature", value=_conditions(line),
-        expected=f"conditions at which the fluid is {wanted}, or a {found} service").for_line(line.tag)
-
-
-def _conditions(line: Line) -> str:
-    return f"{line.temperature - 273.15:.4g} degC and {line.pressure / 1e5:.5g} bar abs"
-
-
-def _error_verdict(ident: str, plugin: str, what: str) -> Verdict:
-    return Verdict(criterion=ident, status="error", reasons=(f"criterion {ident!r} of plugin {plugin!r} {what}",),
-                   source=f"plugin {plugin}")
-
-
-def _select(rated: Sequence[CandidateResult]) -> CandidateResult | None:
-    """Smallest candidate (by inside diameter) that passes every criterion."""
-    for result in rated:
-        if result.passed:
-            return result
-    return None
-
-
-def _closest(rated: Sequence[CandidateResult]) -> CandidateResult | None:
-    """When none passes: the candidate whose worst utilisation is lowest (the best that is on offer)."""
-    scored = [r for r in rated if r.worst is not None and not any(v.status == "error" for v in r.verdicts)]
-    return min(scored, key=lambda r: r.worst.utilisation, default=None)  # type: ignore[union-attr]
-
-
-def _result(line: Line, state: FluidState, service: Service, rated: tuple[CandidateResult, ...],
-            selected: CandidateResult | None, mode: str, mass_flow: float, margin: float, version: str,
-            first_guess: float | None, closest_note: bool = True) -> LineResult:
-    notes = []
-    shown = selected if selected is not None else _closest(rated)
-    if shown is None:
-        errors = [v.reason for r in rated for v in r.verdicts if v.status == "error"]
-        return LineResult(tag=line.tag, status="error", mode=mode, line=line, state=state, candidates=rated,  # type: ignore[arg-type]
-                          error=f"line {line.tag}: {errors[0] if errors else 'no candidate size could be rated'}",
-                          error_field="criteria", service=service.name, criteria_set=version)
-    passed = shown.passed and selected is not None
-    if not passed and mode == "size" and closest_note:
-        notes.append(f"no size the pipe class allows passes every criterion; closest is NPS {shown.candidate.nps}")
-    if any(v.status == "error" for v in shown.verdicts):
-        notes.append("a criterion could not judge this size (error verdict)")
-    if shown.hydraulics.regime == "transition":
-        notes.append("Reynolds number in the transition zone (2100-4000): turbulent (Colebrook) friction used")
-    worst = shown.worst
-    return LineResult(
-        tag=line.tag, status="pass" if passed else "fail", mode=mode, line=line, state=state,  # type: ignore[arg-type]
-        selected=shown, candidates=rated, controlling=worst.criterion if worst else None,
-        notes=tuple(notes), service=service.name, criteria_set=version, sizing_flow=mass_flow,
-        first_guess_diameter=first_guess,
-    )
-
-
-def error_result(tag: str, exc: BaseException, *, line: Line | None = None, mode: str = "size") -> LineResult:
-    """An ``error`` LineResult carrying the message and, where known, the field at fault."""
-    message = str(exc)
-    if isinstance(exc, InputError) and not exc.tag:
-        message = str(exc.for_line(tag))
-    elif not isinstance(exc, InputError):
-        message = f"line {tag}: {message}"
-    field = exc.field if isinstance(exc, InputError) else ("fluid" if isinstance(exc, PropertyError) else None)
-    return LineResult(tag=tag, status="error", mode=mode, line=line, error=message, error_field=field)  # type: ignore[arg-type]
 

@@ -24,7 +24,7 @@ def check_range(values: Mapping[str, float], where: str, unit: str, scale: float
     if "max" in values and "min" in values and values["min"] >= values["max"]:
         raise CriteriaFileError(
             f"min {values['min'] / scale:g} {unit} is not below max {values['max'] / scale:g} {unit}",
-            field=f"{where}.min", value=values["min"] / scale, expected=f"min < max",
+            field=f"{where}.min", value=values["min"] / scale, expected="min < max",
         )
 
 

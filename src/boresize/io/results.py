@@ -48,7 +48,7 @@ def candidate_to_dict(c: CandidateResult) -> dict[str, Any]:
 
 def result_to_dict(result: LineResult) -> dict[str, Any]:
     """One line's entry in the JSON document (keys of DESIGN.md's contract first)."""
-    sel, state, line = result.selected, result.state, result.line
+    sel, state = result.selected, result.state
     h = sel.hydraulics if sel else None
     entry: dict[str, Any] = {
         "tag": result.tag,
