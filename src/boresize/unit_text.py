@@ -1,0 +1,233 @@
+"""The text side of unit parsing: what an engineer typed, split and respelled for pint.
+
+Splits a cell such as "65 t/h" into its number and its unit text (refusing separators, NaN and
+infinity), and turns trade spellings (m³, t/h, mPa.s, barg, kPa(g), MMSCFD ...) into expressions
+pint reads correctly, refusing the ambiguous ones (Mpa, ton, nm3). Also holds the extra unit
+definitions of the registry and the help text of every quantity kind. No pint here: the rules are
+listed, and the registry and the quantities are built, in :mod:`boresize.units`, the public face.
+"""
+
+from __future__ import annotations
+
+import math
+import numbers
+import re
+from dataclasses import dataclass
+
+from boresize.errors import InputError, UnitError
+
+# ---------------------------------------------------------------------------------------------
+# Quantity kinds, their help text, and the extra definitions of the registry
+
+# kind -> (SI unit for pint, noun, examples)
+_KINDS: dict[str, tuple[str, str, str]] = {
+    "mass_flow": ("kg/s", "a mass flow", "kg/h, t/h, kg/s, lb/h"),
+    "volume_flow": ("m**3/s", "a volume flow", "m3/h, l/min, gpm"),
+    "pressure": ("Pa", "a pressure", "barg, bar, kPag, kPa, psig, psia; bar, kPa, MPa and psi "
+                 "without a g are absolute"),
+    "pressure_difference": ("Pa", "a pressure difference", "bar, kPa, psi, without g or a"),
+    "temperature": ("K", "a temperature", "degC, °C, C, degF, °F, F, K"),
+    "temperature_difference": ("K", "a temperature difference", "K, degC, degF"),
+    "length": ("m", "a length", "m, mm, km, ft, in"),
+    "density": ("kg/m**3", "a density", "kg/m3, g/cm3, lb/ft3"),
+    "viscosity": ("Pa*s", "a dynamic viscosity", "cP, mPa s, Pa s"),
+    "velocity": ("m/s", "a velocity", "m/s, ft/s"),
+    "drop_per_length": ("Pa/m", "a pressure drop per length", "kPa/100 m, bar/km, psi/100 ft, Pa/m"),
+    "dimensionless": ("dimensionless", "a plain number", "0.1, 10 %"),
+}
+_STANDARD_HELP = "a standard gas volume flow (Sm3/h, Nm3/h, MMSCFD)"
+_FLOW_HELP = (f"{_KINDS['mass_flow'][1]} ({_KINDS['mass_flow'][2]}), {_KINDS['volume_flow'][1]} "
+              f"({_KINDS['volume_flow'][2]}) or {_STANDARD_HELP}")
+
+_DEFINITIONS = """
+barg = bar; offset: 1.01325
+bara = bar
+kPag = kPa; offset: 101.325
+kPaa = kPa
+MPag = MPa; offset: 0.101325
+MPaa = MPa
+psig = psi; offset: 14.695948775513449
+psia = psi
+kgcm2g = technical_atmosphere; offset: 1.0332274527998859
+kgcm2a = technical_atmosphere
+standard_cubic_metre = [iso_standard_volume] = Sm3
+normal_cubic_metre = [normal_volume] = Nm3
+cubic_metre_60F = [standard_volume_60F] = m3_60F
+standard_cubic_foot = 0.028316846592 * cubic_metre_60F = scf
+MMSCFD = 1e6 * scf / day = MMscfd
+gpm = gallon / minute
+kPa_per_100m = 10 * Pa / m
+bar_per_km = 100 * Pa / m
+psi_per_100ft = 0.01 * psi / ft
+"""
+_GAUGE = ("barg", "kPag", "MPag", "psig", "kgcm2g")
+_ABSOLUTE = ("bara", "kPaa", "MPaa", "psia", "kgcm2a")
+
+
+def _help(kind: str) -> str:
+    if kind == "flow":
+        return _FLOW_HELP
+    _, noun, examples = _KINDS[kind]
+    return f"{noun} ({examples})"
+
+
+# ---------------------------------------------------------------------------------------------
+# Spelling normalisation (text -> pint expression)
+
+_AMBIGUOUS = {
+    "Mpa": "MPa (megapascal, a pressure) or mPa (millipascal, as in mPa s)",
+    "ton": "t for the metric tonne (1000 kg); 'ton' is also the US short ton (907 kg)",
+    "nm3": "Nm3 for normal cubic metres ('nm3' reads as cubic nanometres)",
+}
+_AMBIGUOUS.update({"mpa": _AMBIGUOUS["Mpa"], "MPA": _AMBIGUOUS["Mpa"], "tons": _AMBIGUOUS["ton"]})
+
+_ALIASES: dict[str, str] = {
+    "SM3": "Sm3", "sm3": "Sm3", "NM3": "Nm3", "SCF": "scf",
+    "scfd": "(scf/day)", "scfh": "(scf/hour)", "scfm": "(scf/minute)",
+    "Mscf": "(1000*scf)", "mscf": "(1000*scf)", "MMscf": "(1e6*scf)", "mmscf": "(1e6*scf)",
+    "Mscfd": "(1000*scf/day)", "mscfd": "(1000*scf/day)", "MMSCFD": "(1e6*scf/day)",
+    "MMscfd": "(1e6*scf/day)", "mmscfd": "(1e6*scf/day)", "MMSCMD": "(1e6*Sm3/day)",
+    "MMscmd": "(1e6*Sm3/day)", "mmscmd": "(1e6*Sm3/day)",
+    "te": "t", "tonne": "t", "tonnes": "t", "lbs": "lb", "lbm": "lb", "klbs": "klb",
+    "hr": "hour", "hrs": "hour", "Hr": "hour", "HR": "hour", "KG": "kg", "Kg": "kg", "M3": "m**3",
+    "gpm": "(gallon/minute)", "USgpm": "(gallon/minute)", "usgpm": "(gallon/minute)", "lpm": "(L/minute)",
+    "bbl": "oil_barrel", "bpd": "(oil_barrel/day)", "BPD": "(oil_barrel/day)",
+    "cp": "centipoise", "cP": "centipoise", "CP": "centipoise", "cps": "centipoise",
+    "mPas": "(mPa*s)", "Pas": "(Pa*s)", "pct": "percent", "%": "percent",
+    "kpa": "kPa", "KPa": "kPa", "KPA": "kPa", "Kpa": "kPa", "Bar": "bar", "BAR": "bar",
+    "PSI": "psi", "Psi": "psi",
+}
+for _word in ("SCFD", "SCFH", "SCFM", "MSCF", "MMSCF", "MSCFD", "BBL", "GPM", "USGPM", "LPM"):
+    _ALIASES[_word] = _ALIASES[_word.lower()]
+for _spelling, _stem in [("bar", "bar"), ("Bar", "bar"), ("BAR", "bar"), ("kPa", "kPa"), ("kpa", "kPa"),
+                         ("KPa", "kPa"), ("KPA", "kPa"), ("MPa", "MPa"), ("psi", "psi"), ("PSI", "psi"),
+                         ("Psi", "psi")]:
+    for _suffix, _mark in (("g", "g"), ("G", "g"), ("a", "a"), ("A", "a")):
+        _ALIASES[_spelling + _suffix] = _stem + _mark
+
+_POWER = re.compile(r"(m|dm|cm|mm|um|km|ft|in|yd)([23])")
+_TOKEN = re.compile(r"[A-Za-z_][A-Za-z_0-9]*|%")
+_PER_NUMBER = re.compile(r"/\s*(\d+(?:\.\d+)?(?:[eE][+-]?\d+)?)\s*\*?\s*([A-Za-z_][A-Za-z_0-9]*(?:\*\*\d)?)")
+_MARKED = re.compile(r"^(bar|kpa|mpa|psi|kgf?/cm2)\s*[\(\[]?\s*([ga])\s*[\)\]]?$", re.IGNORECASE)
+_ALLOWED = re.compile(r"[A-Za-z0-9_ */()^.%+-]*")
+_WHOLE_TEMPERATURE = {"C": "degC", "F": "degF", "R": "degR", "celsius": "degC", "fahrenheit": "degF",
+                      "Celsius": "degC", "Fahrenheit": "degF", "kelvin": "K"}
+_DELTA = {"degC": "delta_degC", "degF": "delta_degF"}
+_OFFSET = frozenset(_GAUGE) | {"degC", "degF", "delta_degC", "delta_degF"}
+
+
+@dataclass(frozen=True)
+class _Cell:
+    """What the user gave, for messages: field, raw value, kind and the text as shown."""
+
+    field: str
+    value: object
+    kind: str
+    shown: str = ""
+
+    def error(self, message: str, expected: str | None = None,
+              cls: type[InputError] = UnitError) -> InputError:
+        """An error naming the field and the value; ``expected`` defaults to the kind's help."""
+        return cls(message, field=self.field, value=self.value, expected=expected or _help(self.kind))
+
+
+def _replace_unicode(text: str) -> str:
+    """Unicode the trade types (m³, mPa·s, °C, µm) -> ASCII pint reads; "deg C" -> "degC"."""
+    for old, new in (("³", "3"), ("²", "2"), ("·", "*"), ("⋅", "*"), ("×", "*"), ("µ", "u"),
+                     ("μ", "u"), ("º", "°"), ("℃", "degC"), ("℉", "degF"), ("−", "-"), ("°", "deg")):
+        text = text.replace(old, new)
+    text = re.sub(r"\bdeg\s+([CFR])\b", r"deg\1", text)
+    return re.sub(r"(?<=[A-Za-z)])\.(?=[A-Za-z(])", "*", text)  # mPa.s -> mPa*s
+
+
+def _marked_pressure(unit: str) -> str | None:
+    """"bar(g)", "kPa a", "kg/cm2g" -> barg, kPaa, kgcm2g (ambiguous MPa casings are left alone)."""
+    match = _MARKED.match(unit)
+    if match is None or (match.group(1).lower() == "mpa" and match.group(1) != "MPa"):
+        return None
+    stem = match.group(1).lower()
+    stem = {"kpa": "kPa", "mpa": "MPa"}.get(stem, "kgcm2" if "/" in stem else stem)
+    return stem + match.group(2).lower()
+
+
+def _token(word: str, cell: _Cell) -> str:
+    if word in _AMBIGUOUS:
+        raise cell.error(f"unit '{word}' in '{cell.shown}' is ambiguous", _AMBIGUOUS[word])
+    if word in _ALIASES:
+        return _ALIASES[word]
+    power = _POWER.fullmatch(word)
+    return f"{power.group(1)}**{power.group(2)}" if power else word
+
+
+def _normalise(unit: str, cell: _Cell) -> str:
+    """Turn a trade spelling of a unit into an expression pint reads correctly."""
+    unit = _replace_unicode(unit.strip().strip("[]").strip())
+    marked = _marked_pressure(unit)
+    if marked is not None:
+        return marked
+    if re.fullmatch(r"kgf?/cm2", unit, re.IGNORECASE):
+        return "kgcm2a"
+    if not _ALLOWED.fullmatch(unit):
+        raise cell.error(f"unknown unit in '{cell.shown}'")
+    if cell.kind in ("temperature", "temperature_difference"):
+        unit = _WHOLE_TEMPERATURE.get(unit, unit)
+        return _DELTA.get(unit, unit) if cell.kind == "temperature_difference" else unit
+    if cell.kind == "dimensionless" and unit in ("-", "frac", "fraction"):
+        return "dimensionless"
+    unit = _TOKEN.sub(lambda match: _token(match.group(0), cell), unit)
+    return _PER_NUMBER.sub(r"/(\1*\2)", unit)  # kPa/100 m -> kPa/(100*m)
+
+
+
+# ---------------------------------------------------------------------------------------------
+# Number and quantity
+
+_NUMBER = re.compile(r"\s*([+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?)(.*)", re.DOTALL)
+_NOT_FINITE = re.compile(r"\s*[+-]?(nan|inf|infinity)\b", re.IGNORECASE)
+_NUMBER_EXAMPLE = {"flow": "65 t/h", "pressure": "10 barg", "temperature": "20 degC", "dimensionless": "10 %"}
+_SEPARATOR_HELP = ("digits with a decimal point and no thousands separator (1500, 1.5); a comma is "
+                   "refused because '1,5' is a decimal comma in much of the world")
+
+
+def _split(text: str, cell: _Cell) -> tuple[float, str]:
+    """Split "65 t/h" into (65.0, "t/h"), refusing separators, NaN and infinity."""
+    match = _NUMBER.fullmatch(text)
+    if match is None:
+        if _NOT_FINITE.match(text):
+            raise cell.error(f"'{cell.shown}' is not a finite number", "a finite number", InputError)
+        raise cell.error(f"'{cell.shown}' does not start with a number", _example(cell.kind), InputError)
+    number, rest = match.group(1), match.group(2).strip()
+    if rest.startswith(",") or rest[:1].isdigit():
+        raise cell.error(f"'{cell.shown}' has a comma or a separator in the number", _SEPARATOR_HELP,
+                         InputError)
+    return _finite(float(number), cell), rest
+
+
+def _example(kind: str) -> str:
+    example = _NUMBER_EXAMPLE.get(kind, f"1 {_KINDS[kind][2].split(',')[0]}" if kind in _KINDS else "1")
+    return f"a number and a unit, e.g. '{example}'"
+
+
+def _finite(number: float, cell: _Cell) -> float:
+    if not math.isfinite(number):
+        raise cell.error(f"'{cell.shown}' is not a finite number", "a finite number", InputError)
+    return number
+
+
+def _number_and_unit(cell: _Cell) -> tuple[float, str, _Cell]:
+    """(number, unit text, cell with the text as shown) of a string or a real number (numpy too)."""
+    value = cell.value
+    if value is None or (isinstance(value, str) and not value.strip()):
+        raise cell.error("no value given", cls=InputError)
+    if isinstance(value, str):
+        cell = _Cell(cell.field, value, cell.kind, value.strip())
+        number, unit = _split(value, cell)
+        return number, unit, cell
+    if isinstance(value, bool) or not isinstance(value, numbers.Real):
+        raise cell.error(f"{value!r} is not a number", _example(cell.kind), InputError)
+    shown = str(int(value)) if isinstance(value, numbers.Integral) else repr(float(value))
+    cell = _Cell(cell.field, value, cell.kind, shown)
+    try:
+        return _finite(float(value), cell), "", cell
+    except OverflowError:  # an int beyond the float range
+        raise cell.error(f"'{shown}' is not a finite number", "a finite number", InputError) from None
