@@ -22,12 +22,14 @@ def internal_error(line: Line, exc: Exception) -> LineResult:
                       error=f"line {line.tag}: internal error {type(exc).__name__}: {exc} (please report it)")
 
 
+_STATUSES: tuple[str, ...] = get_args(VerdictStatus)
+
+
 def verdict_fault(verdict: Verdict) -> str | None:
     """What is wrong with a criterion's verdict (an unknown status, a number that is NaN or not a number), or
     None: a NaN drop compares false with every limit and would read as a pass."""
-    statuses = get_args(VerdictStatus)
-    if verdict.status not in statuses:
-        return f"returned status {verdict.status!r}, not one of {', '.join(statuses)}"
+    if verdict.status not in _STATUSES:
+        return f"returned status {verdict.status!r}, not one of {', '.join(_STATUSES)}"
     for name in ("value", "limit", "utilisation"):
         number = getattr(verdict, name)
         if number is not None and (isinstance(number, bool) or not isinstance(number, (int, float))
