@@ -22,6 +22,7 @@ import pandas as pd
 import pytest
 
 import boresize.api as api
+import boresize.batch as batch
 from boresize import Line, make_line, read_dataframe, size_many
 from boresize.batch import run_batch, spec_for
 
@@ -112,13 +113,13 @@ def test_process_pool(items, reference):
 
 def test_worker_processes_start_by_default_for_a_large_batch(monkeypatch):
     started: list[int] = []
-    real = api.process_pool
+    real = batch.process_pool
 
     def spy(workers: int, spec) -> ProcessPoolExecutor:  # type: ignore[no-untyped-def]
         started.append(workers)
         return real(workers, spec)
 
-    monkeypatch.setattr(api, "process_pool", spy)
+    monkeypatch.setattr(batch, "process_pool", spy)
     lines = [make_line(tag=f"L-{i}", fluid="water", flow=f"{10 + i % 50} t/h", pressure="5 barg",
                        temperature="30 degC", density="996 kg/m3", viscosity="0.8 cP")
              for i in range(api.PROCESS_THRESHOLD)]

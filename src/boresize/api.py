@@ -21,14 +21,13 @@ import os
 import re
 from collections.abc import Iterable, Mapping, Sequence
 from concurrent.futures import Executor
-from concurrent.futures.process import BrokenProcessPool
 from dataclasses import replace
 from pathlib import Path
 from typing import TYPE_CHECKING, Union
 
 from boresize.result import SizingResult
-from boresize.batch import SizerSpec, process_pool, shared_sizer, spec_for
-from boresize.errors import BoresizeError, InputError, UnitError
+from boresize.batch import SizerSpec, run_chunks, shared_sizer, spec_for
+from boresize.errors import InputError, UnitError
 from boresize.model import Line, LineResult
 
 if TYPE_CHECKING:
@@ -257,13 +256,4 @@ def _run_parallel(items: list[Item], spec: SizerSpec, executor: Executor | None,
         items = items[1:]
     size = chunk_size or max(1, min(64, math.ceil(len(items) / (max(workers, 4) * 8))))
     chunks = [items[i:i + size] for i in range(0, len(items), size)]
-    pool = executor or process_pool(workers, spec)
-    try:
-        futures = [pool.submit(_run_chunk, spec, chunk) for chunk in chunks]
-        return head + [result for future in futures for result in future.result()]
-    except BrokenProcessPool as exc:
-        raise BoresizeError(f"a worker process stopped unexpectedly ({exc}); run again with workers=1 to find "
-                            f"the line that stops it") from exc
-    finally:
-        if executor is None:
-            pool.shutdown(wait=True, cancel_futures=True)
+    return head + run_chunks(_run_chunk, spec, chunks, executor=executor, workers=workers, retry_hint="workers=1")

@@ -16,20 +16,21 @@ import math
 import multiprocessing
 import sys
 import threading
-from collections.abc import Callable, Iterable, Iterator, Mapping, Sequence
+from collections.abc import Callable, Iterable, Iterator, Mapping, Sequence, Sized
 from concurrent.futures import Executor, Future, ProcessPoolExecutor, as_completed
 from concurrent.futures.process import BrokenProcessPool
-from contextlib import contextmanager
+from contextlib import AbstractContextManager, contextmanager, nullcontext
 from dataclasses import dataclass
 from pathlib import Path
-from typing import TextIO
+from typing import Any, TextIO
 
 from boresize.cases import Row, group_rows
 from boresize.engine import Sizer
 from boresize.errors import BoresizeError, InputError
 from boresize.model import LineResult
 
-__all__ = ["PROGRESS_THRESHOLD", "SizerSpec", "process_pool", "run_batch", "shared_sizer", "spec_for", "summary"]
+__all__ = ["PROGRESS_THRESHOLD", "SizerSpec", "process_pool", "run_batch", "run_chunks", "shared_sizer", "spec_for",
+           "summary"]
 
 #: A run of at least this many lines shows a progress bar on a terminal without being asked [lines].
 PROGRESS_THRESHOLD = 50
@@ -150,19 +151,39 @@ def _run_parallel(groups: Sequence[Sequence[Row]], spec: SizerSpec, executor: Ex
                   total: int) -> list[LineResult]:
     if not groups:
         return []
-    chunks = _chunks(groups, workers, chunk_size)
+
+    def bar() -> AbstractContextManager[Callable[[int], None]]:
+        return _progress(total, progress, stream)
+
+    return run_chunks(_run_chunk, spec, _chunks(groups, workers, chunk_size), executor=executor, workers=workers,
+                      retry_hint="--workers 1", progress=bar, already_done=total - len(groups))
+
+
+def run_chunks(task: Callable[[SizerSpec, Any], list[LineResult]], spec: SizerSpec, chunks: Sequence[Sized], *,
+               executor: Executor | None, workers: int, retry_hint: str,
+               progress: Callable[[], AbstractContextManager[Callable[[int], None]]] | None = None,
+               already_done: int = 0) -> list[LineResult]:
+    """Run ``task(spec, chunk)`` for every chunk on ``executor`` (or on a pool of ``workers`` processes started
+    here and shut down after); results come back in chunk order, whatever order the chunks finish in.
+
+    :param retry_hint: how the caller asks for one process, for the message when a worker dies
+    :param progress: makes the progress bar, entered after every chunk is submitted (a forked pool starts its
+        processes at the first submit, before the bar's thread); advanced by the lines of each finished chunk
+    :raises BoresizeError: a worker process died
+    """
     pool = executor or process_pool(workers, spec)
     try:
-        futures: dict[Future[list[LineResult]], int] = {pool.submit(_run_chunk, spec, c): i
-                                                        for i, c in enumerate(chunks)}
+        futures: dict[Future[list[LineResult]], int] = {pool.submit(task, spec, c): i for i, c in enumerate(chunks)}
         done: list[list[LineResult]] = [[] for _ in chunks]
-        with _progress(total, progress, stream) as advance:
-            advance(total - len(groups))  # the lines already sized in this process
+        with (progress or nullcontext)() as advance:
+            if advance is not None:
+                advance(already_done)  # the lines already sized in this process
             for future in as_completed(futures):
                 done[futures[future]] = future.result()
-                advance(len(chunks[futures[future]]))
+                if advance is not None:
+                    advance(len(chunks[futures[future]]))
     except BrokenProcessPool as exc:
-        raise BoresizeError(f"a worker process stopped unexpectedly ({exc}); run again with --workers 1 to "
+        raise BoresizeError(f"a worker process stopped unexpectedly ({exc}); run again with {retry_hint} to "
                             f"find the line that stops it") from exc
     finally:
         if executor is None:
