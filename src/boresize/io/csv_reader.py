@@ -15,9 +15,10 @@ from pathlib import Path
 
 from boresize.errors import InputError
 from boresize.io.safety import restore
-from boresize.lines import BEYOND_HEADER, COLUMNS, REQUIRED, parse_header
+from boresize.lines import BEYOND_HEADER, COLUMNS, REQUIRED, Header, parse_header
 
-__all__ = ["RESULT_PREFIX", "LineList", "read_csv", "parse_csv_text", "file_digest", "check_header", "surplus_cells"]
+__all__ = ["RESULT_PREFIX", "LineList", "read_csv", "parse_csv_text", "file_digest", "check_header", "surplus_cells",
+           "read_header", "make_line_list"]
 
 #: Header prefix of the columns boresize adds to a line list; readers skip them.
 RESULT_PREFIX = "result."
@@ -71,13 +72,7 @@ def parse_csv_text(text: str, source: str = "<text>") -> LineList:
     dialect = _dialect(lines[0])
     reader = csv.reader(io.StringIO("\n".join(lines)), dialect)
     raw_headers = next(reader)
-    headers = [parse_header(h) for h in raw_headers]
-    names = ["" if h.field.startswith(RESULT_PREFIX) else h.field for h in headers]
-    duplicates = sorted({n for n in names if n and names.count(n) > 1})
-    if duplicates:
-        raise InputError(f"column {duplicates[0]!r} appears twice in {source}", field="header",
-                         value=duplicates[0], expected="each column once")
-    check_header(names, raw_headers, source)
+    headers, names = read_header(raw_headers, source)
     rows = []
     for cells in reader:
         if not any(c.strip() for c in cells):
@@ -87,9 +82,28 @@ def parse_csv_text(text: str, source: str = "<text>") -> LineList:
     if not rows:
         raise InputError(f"{source} has a header but no lines", field="lines", value=source,
                          expected="one row per line case below the header")
+    return make_line_list(rows, headers, names, raw_headers, source)
+
+
+def read_header(raw_headers: list[str], source: str) -> tuple[list[Header], list[str]]:
+    """Parse a header row: each column's field and unit, and the field names read (result columns, headed
+    ``result.``, as ""). A column given twice, a missing required column or a near-miss name is an error."""
+    headers = [parse_header(h) for h in raw_headers]
+    names = ["" if h.field.startswith(RESULT_PREFIX) else h.field for h in headers]
+    duplicates = sorted({n for n in names if n and names.count(n) > 1})
+    if duplicates:
+        raise InputError(f"column {duplicates[0]!r} appears twice in {source}", field="header",
+                         value=duplicates[0], expected="each column once")
+    check_header(names, raw_headers, source)
+    return headers, names
+
+
+def make_line_list(rows: list[dict[str, str]], headers: list[Header], names: list[str], raw_headers: list[str],
+                   source: str, digest: str | None = None) -> LineList:
+    """The LineList of rows read under ``read_header``'s columns (result columns left out)."""
     units = {h.field: h.unit for h, name in zip(headers, names) if name}
     kept = [text for text, name in zip(raw_headers, names) if name]
-    return LineList(rows=rows, units=units, source=source, headers=kept)
+    return LineList(rows=rows, units=units, source=source, headers=kept, digest=digest)
 
 
 def _dialect(header: str) -> type[csv.Dialect]:

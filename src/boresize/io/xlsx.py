@@ -18,10 +18,9 @@ from pathlib import Path
 from typing import Any
 
 from boresize.errors import InputError
-from boresize.io.csv_reader import RESULT_PREFIX, LineList, check_header, file_digest, surplus_cells
+from boresize.io.csv_reader import LineList, file_digest, make_line_list, read_header, surplus_cells
 from boresize.io.safety import FORMULA_STARTS, as_number, restore
 from boresize.io.table import candidate_rows, result_rows
-from boresize.lines import parse_header
 from boresize.model import LineResult
 
 __all__ = ["read_xlsx", "write_xlsx", "cell_text"]
@@ -82,17 +81,9 @@ def read_xlsx(path: str | Path) -> LineList:
         raise InputError(f"{path} holds no header row", field="lines", value=str(path),
                          expected="a header row such as tag,fluid,flow,pressure,temperature")
     raw_headers = rows[0]
-    headers = [parse_header(h) for h in raw_headers]
-    names = ["" if h.field.startswith(RESULT_PREFIX) else h.field for h in headers]
-    duplicates = sorted({n for n in names if n and names.count(n) > 1})
-    if duplicates:
-        raise InputError(f"column {duplicates[0]!r} appears twice in {path}", field="header",
-                         value=duplicates[0], expected="each column once")
-    check_header(names, raw_headers, str(path))
+    headers, names = read_header(raw_headers, str(path))
     data = [{**{name: cell for name, cell in zip(names, row) if name}, **surplus_cells(raw_headers, row)} for row in rows[1:]]
-    units = {h.field: h.unit for h, name in zip(headers, names) if name}
-    kept = [text for text, name in zip(raw_headers, names) if name]
-    return LineList(rows=data, units=units, source=str(path), headers=kept, digest=file_digest(path))
+    return make_line_list(data, headers, names, raw_headers, str(path), file_digest(path))
 
 
 def _put(sheet: Any, row: int, column: int, value: Any, text_cells: bool = True) -> None:
