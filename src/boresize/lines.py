@@ -35,6 +35,7 @@ OPTIONAL_QUANTITIES = {
     "npsh_required": ("length", True, "NPSH required by the pump, e.g. '3.5 m'"),
     "roughness": ("length", True, "absolute roughness replacing the pipe class's, e.g. '0.5 mm'"),
 }
+_COLUMN_SET = frozenset(COLUMNS)
 REQUIRED = ("tag", "fluid", "flow", "pressure", "temperature")
 #: Key under which a reader keeps a row's non-empty cells that no header names. Such a row is
 #: refused: a decimal comma or an unquoted separator shifts every cell after it into the wrong column.
@@ -74,6 +75,11 @@ def _text(row: Mapping[str, object], name: str) -> str | None:
     return text or None
 
 
+def _cells(row: Mapping[str, object]) -> dict[str, str]:
+    """Every non-empty cell of ``row`` as stripped text (what :func:`_text` gives), read once per row."""
+    return {name: text for name in row if (text := _text(row, name)) is not None}
+
+
 def _positive(value: float, field: str, raw: object, expected: str) -> float:
     if not value > 0:
         raise InputError(f"{raw!r} is not above zero", field=field, value=raw, expected=expected)
@@ -86,17 +92,17 @@ def _flow(raw: str, unit: str | None) -> Flow:
     return flow
 
 
-def _optional_quantity(row: Mapping[str, object], units: Mapping[str, str | None], name: str,
+def _optional_quantity(cells: Mapping[str, str], units: Mapping[str, str | None], name: str,
                        kind: str, expected: str) -> float | None:
-    raw = _text(row, name)
+    raw = cells.get(name)
     if raw is None:
         return None
     value = parse_quantity(raw, name, kind, units.get(name))  # type: ignore[arg-type]
     return _positive(value, name, raw, expected)
 
 
-def _choice(row: Mapping[str, object], name: str, allowed: tuple[str, ...]) -> str | None:
-    raw = _text(row, name)
+def _choice(cells: Mapping[str, str], name: str, allowed: tuple[str, ...]) -> str | None:
+    raw = cells.get(name)
     if raw is None:
         return None
     if raw.lower() not in allowed:
@@ -113,60 +119,61 @@ def line_from_row(row: Mapping[str, object], units: Mapping[str, str | None] | N
     :raises InputError: naming the line, the field, the value and what was expected
     """
     units = units or {}
-    tag = _text(row, "tag") or (f"row {position}" if position is not None else "(untagged)")
+    cells = _cells(row)
+    tag = cells.get("tag") or (f"row {position}" if position is not None else "(untagged)")
     try:
-        if _text(row, BEYOND_HEADER) is not None:
+        if BEYOND_HEADER in cells:
             raise InputError(f"cells {row[BEYOND_HEADER]} lie outside the header's columns", field="row",
                              value=row[BEYOND_HEADER], expected="one cell per column; quote a cell that holds the "
                              "separator (a decimal comma such as 1,5 splits a cell in two)")
-        if _text(row, DUPLICATE_TAG) is not None:
+        if DUPLICATE_TAG in cells:
             raise InputError(f"tag {tag!r} is already the tag of the line in {row[DUPLICATE_TAG]}", field="tag",
                              value=tag, expected="each tag once; rows of one line's operating cases each name "
                              "their case in the case column")
         for name in REQUIRED:
-            if _text(row, name) is None:
+            if name not in cells:
                 raise InputError("missing value", field=name, value="", expected=_EXPECTED[name])
-        length = _optional_quantity(row, units, "length", "length", "a length above zero, e.g. '120 m'")
-        margin_raw = _text(row, "design_margin")
+        length = _optional_quantity(cells, units, "length", "length", "a length above zero, e.g. '120 m'")
+        margin_raw = cells.get("design_margin")
         margin = parse_quantity(margin_raw, "design_margin", "dimensionless") if margin_raw else None
         if margin is not None and not 0 <= margin < 1:
             raise InputError(f"{margin_raw!r} is outside 0 to 100 %", field="design_margin", value=margin_raw,
                              expected="a fraction of the flow such as '10 %' or 0.1")
-        nps_raw = _text(row, "nps")
-        optional = _optional_fields(row, units)
+        nps_raw, schedule = cells.get("nps"), cells.get("schedule")
+        optional = _optional_fields(cells, units)
         return Line(
             tag=tag,
-            fluid=str(_text(row, "fluid")),
-            flow=_flow(str(_text(row, "flow")), units.get("flow")),
-            pressure=parse_quantity(_text(row, "pressure"), "pressure", "pressure", units.get("pressure")),
-            temperature=parse_quantity(_text(row, "temperature"), "temperature", "temperature",
+            fluid=cells["fluid"],
+            flow=_flow(cells["flow"], units.get("flow")),
+            pressure=parse_quantity(cells["pressure"], "pressure", "pressure", units.get("pressure")),
+            temperature=parse_quantity(cells["temperature"], "temperature", "temperature",
                                        units.get("temperature")),
             length=length if length is not None else DEFAULT_LENGTH_M,
-            service=_text(row, "service"),
-            pipe_class=_text(row, "pipe_class"),
+            service=cells.get("service"),
+            pipe_class=cells.get("pipe_class"),
             nps=normalise_nps(nps_raw) if nps_raw else None,
-            density=_optional_quantity(row, units, "density", "density", "a density above zero, e.g. '850 kg/m3'"),
-            viscosity=_optional_quantity(row, units, "viscosity", "viscosity", "a viscosity above zero, e.g. '1.2 cP'"),
+            density=_optional_quantity(cells, units, "density", "density", "a density above zero, e.g. '850 kg/m3'"),
+            viscosity=_optional_quantity(cells, units, "viscosity", "viscosity", "a viscosity above zero, e.g. '1.2 cP'"),
             design_margin=margin,
-            phase=_choice(row, "phase", ("liquid", "gas")),  # type: ignore[arg-type]
-            backend=_text(row, "backend"),
-            eos=_text(row, "eos"),
-            fittings=parse_fittings(_text(row, "fittings")),
-            fittings_method=_fittings_method(_text(row, "fittings_method")),
-            compressible=_choice(row, "compressible", ("isothermal", "adiabatic")),
-            case=_text(row, "case"),
-            schedule=normalise_schedule(_text(row, "schedule") or "", "schedule") if _text(row, "schedule") else None,
+            phase=_choice(cells, "phase", ("liquid", "gas")),  # type: ignore[arg-type]
+            backend=cells.get("backend"),
+            eos=cells.get("eos"),
+            fittings=parse_fittings(cells.get("fittings")),
+            fittings_method=_fittings_method(cells.get("fittings_method")),
+            compressible=_choice(cells, "compressible", ("isothermal", "adiabatic")),
+            case=cells.get("case"),
+            schedule=normalise_schedule(schedule, "schedule") if schedule else None,
             **optional,
-            extra=tuple((k, str(v)) for k, v in row.items() if k not in COLUMNS and v not in (None, "")),
+            extra=tuple((k, str(v)) for k, v in row.items() if k not in _COLUMN_SET and v not in (None, "")),
         )
     except InputError as exc:
         raise exc.for_line(tag) from None
 
 
-def _optional_fields(row: Mapping[str, object], units: Mapping[str, str | None]) -> dict[str, float]:
+def _optional_fields(cells: Mapping[str, str], units: Mapping[str, str | None]) -> dict[str, float]:
     values: dict[str, float] = {}
     for name, (kind, positive, example) in OPTIONAL_QUANTITIES.items():
-        raw = _text(row, name)
+        raw = cells.get(name)
         if raw is None:
             continue
         value = parse_quantity(raw, name, kind, units.get(name))  # type: ignore[arg-type]
@@ -176,9 +183,11 @@ def _optional_fields(row: Mapping[str, object], units: Mapping[str, str | None])
 
 def _fittings_method(raw: str | None) -> str | None:
     """The fittings method id ("darby-3k", "hooper-2k", "crane"), None when the cell is empty."""
+    if not raw:
+        return None
     from boresize.hydraulics.fittings import normalise_method  # lazy: the hydraulics package loads scipy
 
-    return normalise_method(raw) if raw else None
+    return normalise_method(raw)
 
 
 def parse_fittings(text: str | None) -> tuple[tuple[str, float], ...]:

@@ -35,6 +35,16 @@ _KINDS: dict[str, tuple[str, str, str]] = {
     "drop_per_length": ("Pa/m", "a pressure drop per length", "kPa/100 m, bar/km, psi/100 ft, Pa/m"),
     "dimensionless": ("dimensionless", "a plain number", "0.1, 10 %"),
 }
+# SI unit in pint -> what a quantity of that dimension is, in the trade's words (for a wrong dimension)
+_DESCRIPTIONS = (("kg/s", "a mass flow"), ("m**3/s", "a volume flow"), ("Pa", "a pressure"),
+                 ("K", "a temperature"), ("m", "a length"), ("kg/m**3", "a density"),
+                 ("Pa*s", "a dynamic viscosity"), ("m**2/s", "a kinematic viscosity"),
+                 ("m/s", "a velocity"), ("Pa/m", "a pressure drop per length"), ("kg", "a mass"),
+                 ("m**3", "a volume"), ("m**2", "an area"), ("s", "a time"), ("1/s", "a rate per time"),
+                 ("dimensionless", "a plain number"), ("Sm3", "a standard gas volume"),
+                 ("Nm3", "a standard gas volume"), ("scf", "a standard gas volume"),
+                 ("Sm3/s", "a standard gas volume flow"), ("Nm3/s", "a standard gas volume flow"),
+                 ("scf/s", "a standard gas volume flow"))
 _STANDARD_HELP = "a standard gas volume flow (Sm3/h, Nm3/h, MMSCFD)"
 _FLOW_HELP = (f"{_KINDS['mass_flow'][1]} ({_KINDS['mass_flow'][2]}), {_KINDS['volume_flow'][1]} "
               f"({_KINDS['volume_flow'][2]}) or {_STANDARD_HELP}")
@@ -231,3 +241,27 @@ def _number_and_unit(cell: _Cell) -> tuple[float, str, _Cell]:
         return _finite(float(value), cell), "", cell
     except OverflowError:  # an int beyond the float range
         raise cell.error(f"'{shown}' is not a finite number", "a finite number", InputError) from None
+
+
+def _plain_split(value: object, default_unit: str | None) -> tuple[float, str] | None:
+    """(number, unit text) of a cell that :func:`_number_and_unit` splits without complaint, the unit of
+    ``default_unit`` (a header's) standing in for a missing one: the key of a conversion already read.
+    None for anything else (the full parse then gives the message)."""
+    if isinstance(value, str):
+        match = _NUMBER.fullmatch(value)
+        if match is None:
+            return None
+        unit = match.group(2).strip()
+        if unit.startswith(",") or unit[:1].isdigit():
+            return None
+        number = float(match.group(1))
+    elif isinstance(value, numbers.Real) and not isinstance(value, bool):
+        try:
+            number, unit = float(value), ""
+        except OverflowError:
+            return None
+    else:
+        return None
+    if not math.isfinite(number):
+        return None
+    return number, unit or (default_unit or "").strip().strip("[]").strip()

@@ -27,7 +27,10 @@ Rules the parser applies (pint alone gets each of them wrong or refuses them):
   in different countries).
 
 The spelling tables and the splitting of the text live in :mod:`boresize.unit_text`; this module
-builds the registry and the quantities and checks their dimensions.
+builds the registry and the quantities and checks their dimensions. A unit text that passed every
+check for a kind keeps its conversion (``SI = number * factor * scale + offset``, the same float
+operations as the full parse, found once by pint): the next number in that unit costs a multiply
+(a logarithmic unit, which no straight line converts, goes to pint every time).
 """
 
 from __future__ import annotations
@@ -39,10 +42,11 @@ from tokenize import TokenError
 from typing import TYPE_CHECKING, Literal, NamedTuple
 
 from boresize.errors import InputError
-from boresize.model import Flow
+from boresize.model import Flow, FlowBasis
 from boresize.unit_text import (
     _ABSOLUTE,
     _DEFINITIONS,
+    _DESCRIPTIONS,
     _GAUGE,
     _KINDS,
     _OFFSET,
@@ -52,6 +56,7 @@ from boresize.unit_text import (
     _help,
     _normalise,
     _number_and_unit,
+    _plain_split,
 )
 
 if TYPE_CHECKING:  # pint costs 0.2-0.3 s to import: it loads with the registry, on first use
@@ -115,15 +120,16 @@ def format_unit_help(kind: QuantityKind) -> str:
 # Quantity (the text is split and respelled in boresize.unit_text)
 
 
-def _quantity(value: object, field: str, kind: str, default_unit: str | None) -> tuple[_Parsed, _Cell]:
-    """Parse a cell into a pint Quantity (the unit in the cell wins over ``default_unit``)."""
+def _quantity(value: object, field: str, kind: str, default_unit: str | None) -> tuple[_Parsed, _Cell, str]:
+    """Parse a cell into a pint Quantity (the unit in the cell wins over ``default_unit``); also the unit
+    text it was read in (the key of :data:`_CONVERSIONS`, "" for a plain number)."""
     number, unit, cell = _number_and_unit(_Cell(field, value, kind))
     default = (default_unit or "").strip().strip("[]").strip()
     if not unit and default:
         unit, cell = default, _Cell(field, value, kind, f"{cell.shown} [{default}]")
     elif not unit and kind == "dimensionless":
-        unit = _unit_of("dimensionless")
-        return _Parsed(number, unit.units, unit.dimensionality), cell
+        one = _unit_of("dimensionless")
+        return _Parsed(number, one.units, one.dimensionality, 1.0), cell, ""
     elif not unit:
         raise cell.error(f"missing unit in '{cell.shown}'")
     expression = _normalise(unit, cell)
@@ -137,7 +143,7 @@ def _quantity(value: object, field: str, kind: str, default_unit: str | None) ->
         raise cell.error(f"'{cell.shown}' is in megapascal-seconds (1 MPa s = 1e6 Pa s)",
                          f"{_help(kind)}; mPa s with a small m is the millipascal")
     _check_powers(expression, cell)
-    return _build(number, expression, cell), cell
+    return _build(number, expression, cell), cell, unit
 
 
 _POWER_OP = re.compile(r"\*\*|\^")
@@ -160,25 +166,32 @@ def _unit_of(expression: str) -> pint.Quantity:
 
 
 @functools.lru_cache(maxsize=4096)
-def _to_si(units: pint.Unit, si: str) -> tuple[float, float]:
-    """(scale, offset) with value_si = value * scale + offset, from pint's own conversion of 0 and 1."""
+def _to_si(units: pint.Unit, si: str) -> tuple[float, float] | None:
+    """(scale, offset) with value_si = value * scale + offset, from pint's own conversion of 0 and 1;
+    None for a unit pint does not convert linearly (the logarithmic dB, neper, decade, octave)."""
     ureg = registry()
-    zero = float(ureg.Quantity(0.0, units).to(si).magnitude)
-    return float(ureg.Quantity(1.0, units).to(si).magnitude) - zero, zero
+    zero, one, two = (float(ureg.Quantity(x, units).to(si).magnitude) for x in (0.0, 1.0, 2.0))
+    if not math.isclose(two, 2.0 * one - zero, rel_tol=1e-9, abs_tol=1e-12 * abs(one - zero)):
+        return None
+    return one - zero, zero
 
 
 def _magnitude_si(quantity: _Parsed, si: str) -> float:
-    """``quantity.to(si).magnitude`` through the cached linear map of its unit."""
-    scale, offset = _to_si(quantity.units, si)
+    """``quantity.to(si).magnitude``, through the cached linear map of its unit where it has one."""
+    linear = _to_si(quantity.units, si)
+    if linear is None:
+        return float(registry().Quantity(float(quantity.magnitude), quantity.units).to(si).magnitude)
+    scale, offset = linear
     return float(quantity.magnitude) * scale + offset
 
 
 class _Parsed(NamedTuple):
     """A parsed cell: what pint's Quantity would hold, without building one per cell (~100 us each)."""
 
-    magnitude: float
+    magnitude: float  # the number times ``factor``
     units: pint.Unit
     dimensionality: object
+    factor: float  # the magnitude of the unit expression (1000 for "1000*scf"), 1.0 for an offset unit
 
 
 def _build(number: float, expression: str, cell: _Cell) -> _Parsed:
@@ -188,9 +201,10 @@ def _build(number: float, expression: str, cell: _Cell) -> _Parsed:
     try:
         if expression in _OFFSET:  # offset units are built, never multiplied
             unit = _offset_unit(expression)
-            return _Parsed(number, unit.units, unit.dimensionality)
+            return _Parsed(number, unit.units, unit.dimensionality, 1.0)
         unit = _unit_of(expression)
-        return _Parsed(number * float(unit.magnitude), unit.units, unit.dimensionality)
+        factor = float(unit.magnitude)
+        return _Parsed(number * factor, unit.units, unit.dimensionality, factor)
     except pint.UndefinedUnitError as exc:
         names = ", ".join(f"'{name}'" for name in exc.unit_names)
         raise cell.error(f"unknown unit {names} in '{cell.shown}'") from exc
@@ -209,16 +223,6 @@ def _offset_unit(expression: str) -> pint.Quantity:
 
 # ---------------------------------------------------------------------------------------------
 # Dimension check and the public parsers
-
-_DESCRIPTIONS = (("kg/s", "a mass flow"), ("m**3/s", "a volume flow"), ("Pa", "a pressure"),
-                 ("K", "a temperature"), ("m", "a length"), ("kg/m**3", "a density"),
-                 ("Pa*s", "a dynamic viscosity"), ("m**2/s", "a kinematic viscosity"),
-                 ("m/s", "a velocity"), ("Pa/m", "a pressure drop per length"), ("kg", "a mass"),
-                 ("m**3", "a volume"), ("m**2", "an area"), ("s", "a time"), ("1/s", "a rate per time"),
-                 ("dimensionless", "a plain number"), ("Sm3", "a standard gas volume"),
-                 ("Nm3", "a standard gas volume"), ("scf", "a standard gas volume"),
-                 ("Sm3/s", "a standard gas volume flow"), ("Nm3/s", "a standard gas volume flow"),
-                 ("scf/s", "a standard gas volume flow"))
 
 
 @functools.cache
@@ -253,10 +257,16 @@ def parse_quantity(value: str | float | int | None, field: str, kind: QuantityKi
     :raises InputError: no value, not a number, NaN/inf, separators, pressure <= 0 Pa abs, T <= 0 K
     :raises UnitError: missing, unknown or ambiguous unit, wrong dimension, gauge unit on a difference
     """
-    quantity, cell = _quantity(value, field, kind, default_unit)
+    split = _plain_split(value, default_unit)
+    if split is not None and (known := _CONVERSIONS.get((split[1], kind))) is not None:
+        fast = split[0] * known.factor * known.scale + known.offset  # a unit read before: the operations below
+        if math.isfinite(fast) and (fast > 0.0 or kind not in ("pressure", "temperature")):
+            return fast
+    quantity, cell, unit = _quantity(value, field, kind, default_unit)
     si, noun, _ = _KINDS[kind]
     if quantity.dimensionality != _dimension(si):
         raise _wrong_dimension(quantity, noun, cell)
+    _remember(unit, kind, quantity.factor, _to_si(quantity.units, si))
     result = _finite(_magnitude_si(quantity, si), cell)  # "1e308 m*10" overflows to inf
     if kind == "pressure" and result <= 0.0:
         raise cell.error(f"absolute pressure must be above zero: '{cell.shown}' is {result:g} Pa abs",
@@ -275,16 +285,49 @@ def parse_flow(value: str | float | int | None, field: str = "flow", default_uni
     see :data:`STANDARD_CONDITIONS`] (Sm3/h, Nm3/h, scfm, MMSCFD ...). A flow <= 0 is returned
     as is (the line validator judges it); a wrong dimension raises :class:`UnitError`.
     """
-    quantity, cell = _quantity(value, field, "flow", default_unit)
+    split = _plain_split(value, default_unit)
+    if split is not None and (known := _CONVERSIONS.get((split[1], "flow"))) is not None:
+        magnitude = split[0] * known.factor  # a unit read before: the operations below, without pint
+        if math.isfinite(magnitude):
+            return Flow(known.basis, magnitude * known.scale + known.offset, *known.reference)
+    quantity, cell, unit = _quantity(value, field, "flow", default_unit)
     if not math.isfinite(float(quantity.magnitude)):  # "1e308 t/h*1e10" overflows to inf
         raise cell.error(f"'{cell.shown}' is not a finite number", "a finite number", InputError)
-    dimension = quantity.dimensionality
-    if dimension == _dimension("kg/s"):
-        return Flow("mass", _magnitude_si(quantity, "kg/s"))
-    if dimension == _dimension("m**3/s"):
-        return Flow("volume", _magnitude_si(quantity, "m**3/s"))
-    for name, si in _STANDARD_SI.items():
-        if dimension == _dimension(si):
-            temperature, pressure, label = STANDARD_CONDITIONS[name]
-            return Flow("standard-volume", _magnitude_si(quantity, si), temperature, pressure, label)
+    for basis, si, reference in _FLOW_BASES:
+        if quantity.dimensionality == _dimension(si):
+            _remember(unit, "flow", quantity.factor, _to_si(quantity.units, si), basis, reference)
+            return Flow(basis, _magnitude_si(quantity, si), *reference)
     raise _wrong_dimension(quantity, "a flow", cell)
+
+
+# basis, SI unit in pint, (reference T [K], reference P [Pa abs], label) of each flow basis
+_FLOW_BASES: tuple[tuple[FlowBasis, str, tuple[float | None, float | None, str | None]], ...] = (
+    ("mass", "kg/s", (None, None, None)), ("volume", "m**3/s", (None, None, None)),
+    *(("standard-volume", si, STANDARD_CONDITIONS[name]) for name, si in _STANDARD_SI.items()))
+
+
+# ---------------------------------------------------------------------------------------------
+# The conversions already read: (unit text, kind) -> how a number in that unit becomes SI
+
+
+class _Conversion(NamedTuple):
+    """``(number * factor) * scale + offset`` is the SI value: the same float operations in the same order as
+    the full parse (:func:`_build`, then :func:`_magnitude_si`), so both give the same float to the last bit."""
+
+    factor: float
+    scale: float
+    offset: float
+    basis: FlowBasis = "mass"  # a flow's basis (unused for any other kind)
+    reference: tuple[float | None, float | None, str | None] = (None, None, None)  # a standard volume's state
+
+
+_CONVERSIONS: dict[tuple[str, str], _Conversion] = {}
+_CONVERSIONS_KEPT = 4096  # unit spellings remembered; a line list uses a handful
+
+
+def _remember(unit: str, kind: str, factor: float, linear: tuple[float, float] | None, basis: FlowBasis = "mass",
+              reference: tuple[float | None, float | None, str | None] = (None, None, None)) -> None:
+    """Keep the conversion of a unit text whose unit passed the checks of ``kind`` (none for a non-linear unit);
+    the checks of the number itself (finite, above zero) run on every call."""
+    if linear is not None and len(_CONVERSIONS) < _CONVERSIONS_KEPT:
+        _CONVERSIONS[(unit, kind)] = _Conversion(factor, *linear, basis, reference)

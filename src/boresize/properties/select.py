@@ -60,7 +60,6 @@ def fluid_state(host: PluginHost, line: Line) -> FluidState:
 def _state_of(host: PluginHost, backend: Any, line: Line, pressure: float, temperature: float) -> FluidState:
     """``backend.state`` at ``pressure`` [Pa abs] and ``temperature`` [K], with a plugin's fault named: an
     exception outside boresize's tree, a wrong type or an implausible value is a PropertyError naming it."""
-    who = f"property backend {backend.id!r} of plugin {host.backends.owner(backend.id)!r}"
     try:
         state = backend.state(line, pressure, temperature)
     except InputError as exc:
@@ -68,28 +67,49 @@ def _state_of(host: PluginHost, backend: Any, line: Line, pressure: float, tempe
     except BoresizeError:
         raise
     except Exception as exc:  # a plugin's fault: named, and the batch goes on
-        raise PropertyError(f"{who} raised {type(exc).__name__}: {exc}") from exc
+        raise PropertyError(f"{_who(host, backend)} raised {type(exc).__name__}: {exc}") from exc
     if not isinstance(state, FluidState):
-        raise PropertyError(f"{who} returned {type(state).__name__}, not a FluidState")
+        raise PropertyError(f"{_who(host, backend)} returned {type(state).__name__}, not a FluidState")
     if state.phase not in _PHASES:
-        raise PropertyError(f"{who} returned phase {state.phase!r}, not one of {', '.join(_PHASES)}")
+        raise PropertyError(f"{_who(host, backend)} returned phase {state.phase!r}, not one of {', '.join(_PHASES)}")
     check_plausible(state.density, state.viscosity, backend=backend.id, fluid=line.fluid, pressure=pressure,
                     temperature=temperature)
     return _recorded(state, backend, pressure, temperature)
 
 
+def _who(host: PluginHost, backend: Any) -> str:
+    """The backend and the plugin that registered it, for the message of a fault."""
+    return f"property backend {backend.id!r} of plugin {host.backends.owner(backend.id)!r}"
+
+
+# The recorded state of the last states a backend returned (a caching backend, such as coolprop, returns the
+# same object for the same state point; rebuilding its record costs more than the look-up): key
+# (id(state), id(backend), pressure, temperature) -> (state, backend, recorded). Holding the state and the
+# backend keeps their ids from being reused while the entry lives.
+_RECORDED: dict[tuple[int, int, float, float], tuple[FluidState, Any, FluidState]] = {}
+_RECORDED_KEPT = 4096
+
+
 def _recorded(state: FluidState, backend: Any, pressure: float, temperature: float) -> FluidState:
     """The state with its backend version, state point [Pa abs, K] and, for one phase, its vapour mass
     fraction (0 liquid, 1 gas) filled in where the backend left them out."""
+    key = (id(state), id(backend), pressure, temperature)
+    kept = _RECORDED.get(key)
+    if kept is not None and kept[0] is state and kept[1] is backend:
+        return kept[2]
     quality = state.vapour_fraction
     if quality is None and state.phase != "two-phase":
         quality = 0.0 if state.phase == "liquid" else 1.0
     if (state.backend_version is not None and state.pressure is not None and state.temperature is not None
             and quality == state.vapour_fraction):
         return state
-    return replace(state, backend_version=state.backend_version or str(backend.version()), vapour_fraction=quality,
-                   pressure=state.pressure if state.pressure is not None else pressure,
-                   temperature=state.temperature if state.temperature is not None else temperature)
+    recorded = replace(state, backend_version=state.backend_version or str(backend.version()),
+                       vapour_fraction=quality, pressure=state.pressure if state.pressure is not None else pressure,
+                       temperature=state.temperature if state.temperature is not None else temperature)
+    if len(_RECORDED) >= _RECORDED_KEPT:
+        _RECORDED.clear()
+    _RECORDED[key] = (state, backend, recorded)
+    return recorded
 
 
 def mass_flow_of(host: PluginHost, line: Line, state: FluidState) -> float:

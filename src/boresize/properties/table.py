@@ -13,6 +13,7 @@ should carry its phase). The model text says which rule was used.
 
 from __future__ import annotations
 
+import functools
 import importlib.metadata
 import math
 
@@ -37,7 +38,7 @@ class TableBackend:
 
     def version(self) -> str:
         """The boresize version (the values come from the line list itself)."""
-        return importlib.metadata.version("boresize")
+        return _boresize_version()
 
     def handles(self, line: Line) -> bool:
         """True when the line gives both its density and its viscosity."""
@@ -62,6 +63,12 @@ class TableBackend:
             model=f"line list values ({rule})",
             fluid_name=line.fluid or None,
         )
+
+
+@functools.cache
+def _boresize_version() -> str:
+    """The installed boresize's version, read once per process (a metadata look-up costs about 3 ms)."""
+    return importlib.metadata.version("boresize")
 
 
 def _given(value: float | None, field: str, unit: str, plausible: tuple[float, float]) -> float:
