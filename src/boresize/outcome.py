@@ -30,6 +30,11 @@ def verdict_fault(verdict: Verdict) -> str | None:
     None: a NaN drop compares false with every limit and would read as a pass."""
     if verdict.status not in _STATUSES:
         return f"returned status {verdict.status!r}, not one of {', '.join(_STATUSES)}"
+    value, limit, utilisation = verdict.value, verdict.limit, verdict.utilisation
+    if ((value is None or (type(value) is float and value == value))  # x == x is False for NaN
+            and (limit is None or (type(limit) is float and limit == limit))
+            and (utilisation is None or (type(utilisation) is float and utilisation == utilisation))):
+        return None  # the common case (floats that are not NaN, or None), without the loop below
     for name in ("value", "limit", "utilisation"):
         number = getattr(verdict, name)
         if number is not None and (isinstance(number, bool) or not isinstance(number, (int, float))

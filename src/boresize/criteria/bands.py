@@ -22,6 +22,7 @@ from __future__ import annotations
 
 from collections.abc import Mapping, Sequence
 from dataclasses import dataclass, replace
+from functools import cached_property
 from typing import Any
 
 from boresize.criteria.base import CriterionContext, parse_options
@@ -53,6 +54,11 @@ class Band:
         return ((self.up_to_nps is None or nps <= self.up_to_nps)
                 and (self.up_to_pressure is None or pressure <= self.up_to_pressure))
 
+    @cached_property
+    def reason(self) -> str:
+        """The note a banded verdict's reasons end with: ``(band: <label>)``."""
+        return f"(band: {self.label})"
+
     @property
     def label(self) -> str:
         parts = []
@@ -79,7 +85,10 @@ class BandedCriterion:
 
     def band_for(self, nps: float, pressure: float) -> Band | None:
         """The first band that covers NPS ``nps`` [-] at inlet pressure ``pressure`` [Pa abs], or None."""
-        return next((band for band in self.bands if band.covers(nps, pressure)), None)
+        for band in self.bands:
+            if band.covers(nps, pressure):
+                return band
+        return None
 
     def evaluate(self, context: CriterionContext) -> Verdict:
         cand, line = context.candidate, context.line
@@ -88,10 +97,17 @@ class BandedCriterion:
             return Verdict(criterion=self.id, status="error", source=self.source, reasons=(
                 f"no band of {self.where} covers NPS {cand.nps} at {line.pressure / 1e5:.4g} bar abs; "
                 f"end the bands with one without bounds",))
-        result = self.inner.evaluate(replace(context, options=band.options))
+        if type(context) is CriterionContext:  # the engine's: build it directly (replace is slow on a hot path)
+            banded = CriterionContext(line, context.state, cand, context.hydraulics, band.options, context.service)
+        else:
+            banded = replace(context, options=band.options)
+        result = self.inner.evaluate(banded)
+        if type(result) is Verdict:
+            return Verdict(result.criterion, result.status, (*result.reasons, band.reason), result.source,
+                           result.value, result.limit, result.unit, result.utilisation)
         if not isinstance(result, Verdict):
             return result  # type: ignore[no-any-return]  # the engine reports the wrong type, naming the plugin
-        return replace(result, reasons=(*result.reasons, f"(band: {band.label})"))
+        return replace(result, reasons=(*result.reasons, band.reason))
 
     def __repr__(self) -> str:
         return f"<criterion {self.id} in {len(self.bands)} bands>"

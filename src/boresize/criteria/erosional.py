@@ -47,7 +47,7 @@ class ErosionalVelocity(Criterion):
                                         expected="a positive number such as c_us = 100")
 
     def c_si(self, options: dict[str, float] | object) -> float:
-        opts = dict(options)  # type: ignore[call-overload]
+        opts = options if type(options) is dict else dict(options)  # type: ignore[call-overload]
         if "c_si" in opts:
             return float(opts["c_si"])
         return float(opts.get("c_us", 100.0)) * C_US_TO_SI

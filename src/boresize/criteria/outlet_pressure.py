@@ -11,6 +11,7 @@ from __future__ import annotations
 
 import math
 from collections.abc import Mapping
+from functools import cached_property
 
 from boresize.criteria.base import Criterion, CriterionContext, OptionSpec, verdict
 from boresize.errors import CriteriaFileError
@@ -46,11 +47,16 @@ class OutletPressure(Criterion):
             return verdict(self, "fail", f"choked flow: the line reaches its sonic limit before its end at this "
                            f"size ({_parts(h)})", utilisation=1.0)
         if h.outlet_pressure is None or (minimum is None and max_drop is None):
-            return verdict(self, "not-applicable", "no minimum outlet pressure (column min_outlet_pressure or "
-                           "option min) and no max_drop option for this line")
+            return self._not_applicable
         judged = [v for v in (self._minimum(h, line.pressure, minimum), self._drop(h, max_drop)) if v is not None]
         failed = [v for v in judged if v.status == "fail"]
         return max(failed or judged, key=lambda v: v.utilisation if v.utilisation is not None else 0.0)
+
+    @cached_property
+    def _not_applicable(self) -> Verdict:
+        """The same verdict for every candidate of a line without limits (built once: a Verdict is immutable)."""
+        return verdict(self, "not-applicable", "no minimum outlet pressure (column min_outlet_pressure or "
+                       "option min) and no max_drop option for this line")
 
     def _minimum(self, h: Hydraulics, inlet: float, minimum: float | None) -> Verdict | None:
         if minimum is None or h.outlet_pressure is None:

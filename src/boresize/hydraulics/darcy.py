@@ -11,10 +11,12 @@ from __future__ import annotations
 import math
 
 from boresize.errors import InputError
-from boresize.hydraulics.friction import darcy_friction_factor
+from boresize.hydraulics.friction import Regime, darcy_friction_factor
 from boresize.model import Hydraulics
 
 __all__ = ["flow_area", "velocity", "reynolds", "drop_per_length", "rate_pipe"]
+
+_INF = math.inf
 
 
 def require_positive(value: float, field: str, unit: str) -> None:
@@ -85,6 +87,12 @@ def _check_rating_inputs(
     roughness: float,
     length: float,
 ) -> None:
+    try:  # the common case in one expression (a NaN fails every comparison); else find the culprit below
+        if (0.0 < mass_flow < _INF and 0.0 < density < _INF and 0.0 < viscosity < _INF
+                and 0.0 < inside_diameter < _INF and 0.0 <= length < _INF and 0.0 <= roughness < inside_diameter):
+            return
+    except TypeError:  # not a number: the checks below raise what they always raised
+        pass
     require_positive(mass_flow, "mass_flow", "kg/s")
     require_positive(density, "density", "kg/m3")
     require_positive(viscosity, "viscosity", "Pa s")
@@ -123,15 +131,8 @@ def rate_pipe(
         without a speed of sound); ``drop`` = ``drop_per_length`` * ``length`` [Pa]
     :raises InputError: naming the first input that is not usable
     """
-    _check_rating_inputs(mass_flow, density, viscosity, inside_diameter, roughness, length)
-    mach: float | None = None
-    v = velocity(mass_flow, density, inside_diameter)
-    if speed_of_sound is not None:
-        require_positive(speed_of_sound, "speed_of_sound", "m/s")
-        mach = v / speed_of_sound
-    re = reynolds(density, v, inside_diameter, viscosity)
-    f, regime = darcy_friction_factor(re, roughness / inside_diameter)
-    dpl = drop_per_length(f, density, v, inside_diameter)
+    v, re, f, regime, dpl, mach = _pipe_flow(mass_flow, density, viscosity, inside_diameter, roughness, length,
+                                            speed_of_sound)
     return Hydraulics(
         mass_flow=mass_flow,
         volume_flow=mass_flow / density,
@@ -144,3 +145,30 @@ def rate_pipe(
         momentum=density * v * v,
         mach=mach,
     )
+
+
+def _pipe_flow(
+    mass_flow: float,
+    density: float,
+    viscosity: float,
+    inside_diameter: float,
+    roughness: float,
+    length: float,
+    speed_of_sound: float | None = None,
+) -> tuple[float, float, float, Regime, float, float | None]:
+    """The numbers of :func:`rate_pipe` without building a :class:`~boresize.model.Hydraulics` (for callers
+    that build one with more fields, once): inputs and checks as :func:`rate_pipe`.
+
+    :returns: (velocity [m/s], Reynolds number [-], Darcy friction factor [-], regime, drop per length [Pa/m],
+        Mach number [-] or None without a speed of sound)
+    :raises InputError: naming the first input that is not usable
+    """
+    _check_rating_inputs(mass_flow, density, viscosity, inside_diameter, roughness, length)
+    mach: float | None = None
+    v = velocity(mass_flow, density, inside_diameter)
+    if speed_of_sound is not None:
+        require_positive(speed_of_sound, "speed_of_sound", "m/s")
+        mach = v / speed_of_sound
+    re = reynolds(density, v, inside_diameter, viscosity)
+    f, regime = darcy_friction_factor(re, roughness / inside_diameter)
+    return v, re, f, regime, drop_per_length(f, density, v, inside_diameter), mach

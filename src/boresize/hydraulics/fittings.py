@@ -213,19 +213,31 @@ def fitting_k(kind: str, method: str, reynolds: float, inside_diameter: float, n
     :param nps: nominal pipe size [in] (Darby's correlation uses the nominal size)
     :raises InputError: for an unknown kind, listing the valid ones
     """
+    k1, rest, source = _kind_terms(kind, method, inside_diameter, nps)
+    return (k1 / reynolds + rest if k1 else rest), source
+
+
+def _kind_terms(kind: str, method: str, inside_diameter: float, nps: float) -> tuple[float, float, str]:
+    """(K1 [-], rest [-], method) of one named fitting, K = K1/Re + rest; K1 is 0 when K does not depend on Re.
+
+    ``rest`` is the second term of :func:`darby_k` or :func:`hooper_k` (the same arithmetic), or the
+    whole K of Crane's L/D and geometric losses. Arguments and errors as :func:`fitting_k`.
+    """
     data = KINDS.get(_ALIASES.get(kind, kind))
     if data is None:
         raise InputError(f"unknown fitting {kind!r}", field="fittings", value=kind, expected=syntax_help())
     if data.crane_k is not None:
-        return data.crane_k, "crane-geometry"
+        return 0.0, data.crane_k, "crane-geometry"
     crane_ld = _crane_ld(data, nps)
     for name in (method, *METHODS):
         if name == "darby-3k" and data.darby is not None:
-            return darby_k(*data.darby, reynolds, nps), name
+            k1, ki, kd = data.darby
+            return k1, ki * (1.0 + kd / nps**0.3), name
         if name == "hooper-2k" and data.hooper is not None:
-            return hooper_k(*data.hooper, reynolds, inside_diameter), name
+            k1, kinf = data.hooper
+            return k1, kinf * (1.0 + 0.0254 / inside_diameter), name
         if name == "crane" and crane_ld is not None:
-            return crane_ft(inside_diameter) * crane_ld, name
+            return 0.0, crane_ft(inside_diameter) * crane_ld, name
     raise AssertionError(f"fitting kind {kind!r} has no constants")  # pragma: no cover - table is complete
 
 
@@ -268,17 +280,38 @@ def _reducer(match: re.Match[str], spec: str) -> float:
     return expansion_k(beta, angle)  # the line is the smaller, upstream bore
 
 
-def _item(spec: str, count: float, method: str, reynolds: float, inside_diameter: float, nps: float) -> FittingItem:
+_Term = tuple[str, float, float, float, float, str]  # spec, count, K1, rest (K = K1/Re + rest), Leq each [m], source
+#: (fittings, method, inside diameter, nps) -> the terms, and the whole loss when no K depends on Re (else None)
+_PLANS: dict[tuple[object, ...], tuple[tuple[_Term, ...], FittingsLoss | None]] = {}
+_PLANS_MAX = 4096
+
+
+def _term(spec: str, count: float, method: str, inside_diameter: float, nps: float) -> _Term:
     text = spec.strip().lower()
     explicit = _EXPLICIT.match(text)
     if explicit:
         k, leq, source = _explicit(explicit.group(1), explicit.group(2).strip(), spec, inside_diameter)
-        return FittingItem(spec, count, k, leq, source)
+        return spec, count, 0.0, k, leq, source
     reducer = _REDUCER.match(text)
     if reducer:
-        return FittingItem(spec, count, _reducer(reducer, spec), 0.0, "crane-geometry")
-    k, source = fitting_k(text, method, reynolds, inside_diameter, nps)
-    return FittingItem(spec, count, k, 0.0, source)
+        return spec, count, 0.0, _reducer(reducer, spec), 0.0, "crane-geometry"
+    k1, rest, source = _kind_terms(text, method, inside_diameter, nps)
+    return spec, count, k1, rest, 0.0, source
+
+
+def _loss(terms: tuple[_Term, ...], chosen: str, reynolds: float) -> FittingsLoss:
+    items = tuple(FittingItem(spec, count, k1 / reynolds + rest if k1 else rest, leq, source)
+                  for spec, count, k1, rest, leq, source in terms)
+    k_total = sum(item.k * item.count for item in items)
+    leq = sum(item.equivalent_length * item.count for item in items)
+    return FittingsLoss(k_total, leq, _method_text(chosen, items), items)
+
+
+def _plan(fittings: tuple[tuple[str, float], ...], chosen: str, inside_diameter: float,
+          nps: float) -> tuple[tuple[_Term, ...], FittingsLoss | None]:
+    terms = tuple(_term(spec, count, chosen, inside_diameter, nps) for spec, count in fittings)
+    fixed = None if any(term[2] for term in terms) else _loss(terms, chosen, 1.0)
+    return terms, fixed
 
 
 def fittings_loss(fittings: Iterable[tuple[str, float]], method: str | None, *, reynolds: float,
@@ -289,12 +322,23 @@ def fittings_loss(fittings: Iterable[tuple[str, float]], method: str | None, *, 
     :param method: one of :data:`METHODS` (aliases accepted), None for :data:`DEFAULT_METHOD`
     :param reynolds: [-]; :param inside_diameter: [m]; :param nps: nominal size [in]
     :raises InputError: unknown kind or method, or a malformed explicit item (field "fittings")
+
+    The parsing, and every K that does not depend on Re, is worked out once per fittings, method and size.
     """
     chosen = normalise_method(method)
-    items = tuple(_item(spec, count, chosen, reynolds, inside_diameter, nps) for spec, count in fittings)
-    k_total = sum(item.k * item.count for item in items)
-    leq = sum(item.equivalent_length * item.count for item in items)
-    return FittingsLoss(k_total, leq, _method_text(chosen, items), items)
+    fittings = tuple(fittings)
+    key = (fittings, chosen, inside_diameter, nps)
+    try:
+        plan = _PLANS.get(key)
+    except TypeError:  # unhashable items (lists): work it out every time
+        return _loss(_plan(fittings, chosen, inside_diameter, nps)[0], chosen, reynolds)
+    if plan is None:
+        plan = _plan(fittings, chosen, inside_diameter, nps)
+        if len(_PLANS) >= _PLANS_MAX:
+            _PLANS.clear()
+        _PLANS[key] = plan
+    terms, fixed = plan
+    return fixed if fixed is not None else _loss(terms, chosen, reynolds)
 
 
 def _method_text(chosen: str, items: tuple[FittingItem, ...]) -> str:

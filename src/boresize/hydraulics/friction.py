@@ -90,6 +90,11 @@ def colebrook(reynolds: float, relative_roughness: float) -> float:
     """
     _check_reynolds(reynolds)
     _check_relative_roughness(relative_roughness)
+    return _colebrook(reynolds, relative_roughness)
+
+
+def _colebrook(reynolds: float, relative_roughness: float) -> float:
+    """:func:`colebrook` on inputs already checked (Re [-] finite > 0, 0 <= e/D < 1); returns f [-]."""
     a_over_b = relative_roughness * reynolds / (3.7 * 2.51)
     bk = 2.51 * _K / reynolds
     omega = float(wrightomega(a_over_b / _K - math.log(bk)))
@@ -151,5 +156,6 @@ def darcy_friction_factor(reynolds: float, relative_roughness: float) -> tuple[f
     if reynolds < LAMINAR_LIMIT:
         _check_relative_roughness(relative_roughness)
         return 64.0 / reynolds, "laminar"
+    _check_relative_roughness(relative_roughness)
     regime: Regime = "transition" if reynolds < TURBULENT_LIMIT else "turbulent"
-    return colebrook(reynolds, relative_roughness), regime
+    return _colebrook(reynolds, relative_roughness), regime

@@ -13,7 +13,8 @@ and Reynolds number stay the inlet's, and ``drop_per_length`` is the mean over t
 
 from __future__ import annotations
 
-from dataclasses import replace
+from dataclasses import fields, replace
+from typing import Any
 
 from boresize.hydraulics.compressible import (
     SIMPLE_LIMIT,
@@ -23,7 +24,7 @@ from boresize.hydraulics.compressible import (
     scaled_properties,
     segment_count,
 )
-from boresize.hydraulics.darcy import rate_pipe
+from boresize.hydraulics.darcy import _pipe_flow
 from boresize.hydraulics.fittings import FittingsLoss, fittings_loss
 from boresize.model import Candidate, FluidState, Hydraulics, Line
 
@@ -51,22 +52,49 @@ def rate_line(line: Line, state: FluidState, candidate: Candidate, mass_flow: fl
     :returns: Hydraulics with every drop [Pa], the outlet pressure [Pa abs] and the method text
     :raises InputError: an unknown fitting or method (field "fittings", "fittings_method", "compressible")
     """
-    diameter = candidate.inside_diameter
+    diameter, density = candidate.inside_diameter, state.density
     roughness = line.roughness if line.roughness is not None else candidate.roughness
-    hyd = rate_pipe(mass_flow, state.density, state.viscosity, diameter, roughness, line.length,
-                    state.speed_of_sound)
-    loss = fittings_loss(line.fittings, line.fittings_method, reynolds=hyd.reynolds, inside_diameter=diameter,
+    v, re, f, regime, dpl, mach = _pipe_flow(mass_flow, density, state.viscosity, diameter, roughness, line.length,
+                                             state.speed_of_sound)
+    drop = dpl * line.length
+    loss = fittings_loss(line.fittings, line.fittings_method, reynolds=re, inside_diameter=diameter,
                          nps=candidate.nps_value)
-    fittings = loss.drop(hyd.friction_factor, state.density, hyd.velocity, diameter)
-    static = state.density * G * line.elevation
-    fraction = (hyd.drop + fittings + static) / line.pressure
+    fittings = loss.drop(f, density, v, diameter)
+    static = density * G * line.elevation
+    fraction = (drop + fittings + static) / line.pressure
     if march and is_gas(state) and fraction > SIMPLE_LIMIT and line.length + loss.equivalent_length + loss.k_total > 0.0:
-        hyd = replace(hyd, fittings_k=loss.k_total, fittings_method=loss.method)
+        hyd = Hydraulics(mass_flow=mass_flow, volume_flow=mass_flow / density, velocity=v, reynolds=re,
+                         friction_factor=f, regime=regime, drop_per_length=dpl, drop=drop, momentum=density * v * v,
+                         mach=mach, fittings_k=loss.k_total, fittings_method=loss.method)
         return _compressible(line, state, hyd, loss, (diameter, roughness), properties, fraction)
-    total = hyd.drop + fittings + static + line.fixed_drop
-    return replace(hyd, fittings_k=loss.k_total, fittings_method=loss.method, fittings_drop=fittings,
-                   static_drop=static, fixed_drop=line.fixed_drop, total_drop=total,
-                   outlet_pressure=line.pressure - total, method=_simple_text(state, fraction, loss))
+    total = drop + fittings + static + line.fixed_drop
+    return _hydraulics(mass_flow=mass_flow, volume_flow=mass_flow / density, velocity=v, reynolds=re,
+                       friction_factor=f, regime=regime, drop_per_length=dpl, drop=drop, momentum=density * v * v,
+                       mach=mach, fittings_drop=fittings, static_drop=static, fixed_drop=line.fixed_drop,
+                       total_drop=total, outlet_pressure=line.pressure - total,
+                       method=_simple_text(state, fraction, loss), fittings_k=loss.k_total,
+                       fittings_method=loss.method, acceleration_drop=0.0, outlet_velocity=None, outlet_mach=None,
+                       choked=False)
+
+
+def _hydraulics(**values: Any) -> Hydraulics:
+    """``Hydraulics(**values)``; when ``values`` names every field, built by filling the instance dict.
+
+    The generated __init__ of a frozen dataclass sets each of Hydraulics' 22 fields through
+    ``object.__setattr__``, a third of the cost of rating a liquid candidate; the dict filled with every
+    field is the same object, as long as Hydraulics has no __post_init__ and no __slots__ (checked once).
+    """
+    if _FILL and values.keys() == _FIELDS:
+        built = _new_object(Hydraulics)
+        built.__dict__.update(values)
+        return built
+    return Hydraulics(**values)
+
+
+_new_object = object.__new__
+_FIELDS = frozenset(f.name for f in fields(Hydraulics))
+_FILL = (all(f.init for f in fields(Hydraulics)) and not hasattr(Hydraulics, "__post_init__")
+         and not hasattr(Hydraulics, "__slots__"))
 
 
 def needs_march(line: Line, state: FluidState, hyd: Hydraulics) -> bool:
