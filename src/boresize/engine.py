@@ -12,7 +12,7 @@ from bisect import bisect_left
 from collections.abc import Iterable, Mapping, Sequence
 from dataclasses import replace
 from pathlib import Path
-from typing import NamedTuple
+from typing import Any, NamedTuple
 
 from boresize import cases as _cases
 from boresize.config import Service, SizingConfig, load_config
@@ -171,32 +171,31 @@ class Sizer:
                             properties=lambda p, t: choose_backend(self.host, line).state(line, p, t))
         except (OverflowError, ZeroDivisionError) as exc:
             raise _beyond_range(mass_flow, f"in NPS {candidate.nps}") from exc
-        if not all(math.isfinite(x) for x in (hyd.velocity, hyd.reynolds, hyd.friction_factor, hyd.drop_per_length,
-                                              hyd.total_drop)):  # an inf drop would fail every size, a NaN pass it
+        isfinite = math.isfinite  # an inf drop would fail every size, a NaN pass it
+        if not (isfinite(hyd.velocity) and isfinite(hyd.reynolds) and isfinite(hyd.friction_factor)
+                and isfinite(hyd.drop_per_length) and isfinite(hyd.total_drop)):
             raise _beyond_range(mass_flow, f"in NPS {candidate.nps}")
         return hyd
 
     def _verdicts(self, line: Line, state: FluidState, service: Service, candidate: Candidate,
                   hyd: Hydraulics) -> tuple[Verdict, ...]:
-        verdicts = []
-        for criterion, options in service.criteria:
-            if state.phase not in criterion.phases and phase_group(state.phase) not in criterion.phases:
-                continue
-            context = CriterionContext(line, state, candidate, hyd, options, service.name)
-            verdicts.append(self._judge(criterion, context))
-        return tuple(verdicts)
+        judge = self._judge
+        return tuple(judge(criterion, CriterionContext(line, state, candidate, hyd, options, service.name))
+                     for criterion, options in _applicable(service, state.phase))
 
     def _judge(self, criterion: object, context: CriterionContext) -> Verdict:
-        ident = getattr(criterion, "id", "?")
         try:
             result = criterion.evaluate(context)  # type: ignore[attr-defined]
         except Exception as exc:  # a plugin's fault: an error verdict naming it, the batch goes on
-            return error_verdict(ident, self.host.criteria.owner(ident), f"raised {type(exc).__name__}: {exc}")
+            return self._fault(criterion, f"raised {type(exc).__name__}: {exc}")
         if not isinstance(result, Verdict):
-            return error_verdict(ident, self.host.criteria.owner(ident),
-                                  f"returned {type(result).__name__}, not a Verdict")
+            return self._fault(criterion, f"returned {type(result).__name__}, not a Verdict")
         fault = verdict_fault(result)
-        return error_verdict(ident, self.host.criteria.owner(ident), fault) if fault else result
+        return self._fault(criterion, fault) if fault else result
+
+    def _fault(self, criterion: object, what: str) -> Verdict:
+        ident = getattr(criterion, "id", "?")
+        return error_verdict(ident, self.host.criteria.owner(ident), what)
 
     def _first_guess(self, service: Service, state: FluidState, mass_flow: float, roughness: float) -> float | None:
         for criterion, options in service.criteria:
@@ -302,6 +301,23 @@ def _candidates(pipe_class: PipeClass, line: Line) -> tuple[Candidate, ...]:
     if not line.schedule:
         return (pipe_class.candidate(line.nps),)
     return (replace(pipe_class, schedule=line.schedule, schedule_by_nps=()).candidate(line.nps),)
+
+
+def _applicable(service: Service, phase: str) -> tuple[tuple[Any, Mapping[str, float]], ...]:
+    """The service's (criterion, options) pairs that judge a fluid in ``phase`` (worked out once per service
+    and phase; the service is kept with the answer, so that a reused id never returns another's)."""
+    key = (id(service), phase)
+    known = _APPLICABLE.get(key)
+    if known is None or known[0] is not service:
+        group = phase_group(phase)
+        pairs = tuple((c, o) for c, o in service.criteria if phase in c.phases or group in c.phases)
+        if len(_APPLICABLE) > 1024:
+            _APPLICABLE.clear()
+        known = _APPLICABLE[key] = (service, pairs)
+    return known[1]
+
+
+_APPLICABLE: dict[tuple[int, str], tuple[Service, tuple[tuple[Any, Mapping[str, float]], ...]]] = {}
 
 
 def _check_roughness(line: Line, smallest: Candidate) -> None:
