@@ -345,3 +345,31 @@ def test_results_do_not_depend_on_the_units_of_the_input(sizer: Sizer, budget: s
             assert other.state.density == pytest.approx(first.state.density, rel=REL)  # type: ignore[union-attr]
 
     check()
+
+
+@pytest.mark.parametrize(("names", "budget"), SERVICE_RUNS)
+def test_the_guided_scan_selects_what_rating_every_size_selects(lab: Sizer, names: tuple[str, ...],
+                                                               budget: settings) -> None:
+    """The definition of the selection (the smallest size that passes, rating every size from the smallest)
+    against the guided scan the engine uses by default (boresize.scan): same status, size and verdicts."""
+    every = Sizer(lab.host, config=lab.config, every_size=True)
+
+    @budget
+    @given(case=service_lines(lab, names), factor=st.floats(0.2, 5.0))
+    def check(case: tuple[Service, Line, float], factor: float) -> None:
+        _, line, flow = case
+        guided, full = lab.run(_with_flow(line, flow * factor)), every.run(_with_flow(line, flow * factor))
+        assert (guided.status, guided.error, guided.controlling) == (full.status, full.error, full.controlling)
+        if full.selected is not None:
+            assert guided.selected == full.selected, (line, flow * factor)
+            assert len(guided.candidates) <= len(full.candidates)
+
+    check()
+
+
+def test_every_built_in_criterion_says_which_way_its_fails_point(lab: Sizer) -> None:
+    """The guided scan knows every built-in criterion (boresize.scan.BUILTIN_TRENDS): a new built-in without
+    a trend would silently fall back to rating every size."""
+    from boresize.scan import BUILTIN_TRENDS
+
+    assert set(lab.host.criteria.ids()) <= set(BUILTIN_TRENDS)

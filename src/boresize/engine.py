@@ -8,10 +8,11 @@ friction factor; the Swamee-Jain diameter is only a first guess shown in the rec
 from __future__ import annotations
 
 import math
+from bisect import bisect_left
 from collections.abc import Iterable, Mapping, Sequence
 from dataclasses import replace
 from pathlib import Path
-from typing import NamedTuple
+from typing import Any, NamedTuple
 
 from boresize import cases as _cases
 from boresize.config import Service, SizingConfig, load_config
@@ -24,12 +25,11 @@ from boresize.pipes import PipeClass
 from boresize.plugins import PluginHost
 from boresize.outcome import build_result, error_result, error_verdict, internal_error, select, verdict_fault
 from boresize.properties.select import choose_backend, fluid_state, mass_flow_of
+from boresize.scan import RATED_ABOVE, criterion_trends, rated_span, start_diameter
 from boresize.service_phase import check_phase, default_service, phase_group
 
 __all__ = ["RATED_ABOVE", "Sizer"]
 
-#: Sizes rated above the selected one when sizing (the calculation record shows one below to two above).
-RATED_ABOVE = 2
 
 
 class _Prepared(NamedTuple):
@@ -43,6 +43,7 @@ class _Prepared(NamedTuple):
     margin: float
     mode: str
     notes: tuple[str, ...]
+    start: float  # diameter the guided candidate scan starts from [m]
 
 
 class Sizer:
@@ -53,13 +54,17 @@ class Sizer:
     :param criteria_file: a criteria TOML to load instead of passing ``config``
     :param check_roughness: absolute roughness [m] for lines checked at a given NPS that give no
         ``roughness`` of their own (a corroded existing line); None keeps the pipe class's
+    :param every_size: rate every size of the pipe class from the smallest (slower; the record then shows
+        all the sizes below the selected one) instead of the guided scan of :mod:`boresize.scan`
     """
 
     def __init__(self, host: PluginHost | None = None, config: SizingConfig | None = None,
-                 criteria_file: str | Path | None = None, *, check_roughness: float | None = None) -> None:
+                 criteria_file: str | Path | None = None, *, check_roughness: float | None = None,
+                 every_size: bool = False) -> None:
         self.host = host or PluginHost.load()
         self.config = config or load_config(self.host, criteria_file)
         self.check_roughness = check_roughness
+        self.every_size = every_size
         self._candidates: dict[tuple[int, str | None, str | None], tuple[PipeClass, tuple[Candidate, ...]]] = {}
 
     # -- one line -----------------------------------------------------------------------------
@@ -86,24 +91,35 @@ class Sizer:
         pipe_class = self.config.pipe_class(line.pipe_class or service.pipe_class)
         margin = line.design_margin if line.design_margin is not None else service.design_margin
         mass_flow = mass_flow_of(self.host, line, state) * (1.0 + margin)
-        return _Prepared(line, state, service, pipe_class, mass_flow, margin, mode, notes)
+        return _Prepared(line, state, service, pipe_class, mass_flow, margin, mode, notes,
+                         start_diameter(service, line.pressure, state, mass_flow,
+                                                        line.roughness))
 
     def _rate_all(self, p: _Prepared) -> tuple[CandidateResult, ...]:
         return self._rate_cases([p])[0]
 
     def _rate_cases(self, ready: Sequence[_Prepared]) -> list[tuple[CandidateResult, ...]]:
-        """Rate every case's candidates smallest first, size by size; stop :data:`RATED_ABOVE` sizes after the
-        first that passes in every case (the selection is the same; the record shows the sizes around it)."""
-        rated: list[list[CandidateResult]] = [[] for _ in ready]
-        first_pass: int | None = None
-        for i, candidate in enumerate(self._candidates_of(ready[0].line, ready[0].pipe_class)):
-            for p, done in zip(ready, rated):
-                done.append(self._rate(p.line, p.state, p.service, candidate, p.mass_flow))
-            if first_pass is None and all(done[-1].passed for done in rated):
-                first_pass = i
-            if first_pass is not None and i - first_pass >= RATED_ABOVE:
-                break
-        return [tuple(done) for done in rated]
+        """Rate every case's candidates around the smallest size that passes in every case, and
+        :data:`RATED_ABOVE` sizes above it (the record shows one size below to two above).
+
+        The guided scan (:mod:`boresize.scan`) starts near the first-guess diameter and walks; when it cannot
+        prove its answer (a criterion without a known trend fails, an error verdict, nothing passes), or
+        ``every_size`` is set, every size is rated from the smallest, as the selection is defined."""
+        candidates = self._candidates_of(ready[0].line, ready[0].pipe_class)
+        _check_roughness(ready[0].line, candidates[0])
+        memo: dict[int, list[CandidateResult]] = {}
+
+        def rate(i: int) -> list[CandidateResult]:
+            if i not in memo:
+                memo[i] = [self._rate(p.line, p.state, p.service, candidates[i], p.mass_flow) for p in ready]
+            return memo[i]
+
+        pressures = {p.line.pressure for p in ready}
+        trends = criterion_trends([c for p in ready for c, _ in p.service.criteria], pressures, candidates)
+        span = rated_span(len(candidates), rate, trends, bisect_left([c.inside_diameter for c in candidates],
+                                                                     max(p.start for p in ready)),
+                          every_size=self.every_size)
+        return [tuple(memo[i][k] for i in range(span[0], span[1] + 1)) for k in range(len(ready))]
 
     def _candidates_of(self, line: Line, pipe_class: PipeClass) -> tuple[Candidate, ...]:
         """The class's sizes, or the one size a checked line gives (cached: building them costs more than rating)."""
@@ -155,32 +171,31 @@ class Sizer:
                             properties=lambda p, t: choose_backend(self.host, line).state(line, p, t))
         except (OverflowError, ZeroDivisionError) as exc:
             raise _beyond_range(mass_flow, f"in NPS {candidate.nps}") from exc
-        if not all(math.isfinite(x) for x in (hyd.velocity, hyd.reynolds, hyd.friction_factor, hyd.drop_per_length,
-                                              hyd.total_drop)):  # an inf drop would fail every size, a NaN pass it
+        isfinite = math.isfinite  # an inf drop would fail every size, a NaN pass it
+        if not (isfinite(hyd.velocity) and isfinite(hyd.reynolds) and isfinite(hyd.friction_factor)
+                and isfinite(hyd.drop_per_length) and isfinite(hyd.total_drop)):
             raise _beyond_range(mass_flow, f"in NPS {candidate.nps}")
         return hyd
 
     def _verdicts(self, line: Line, state: FluidState, service: Service, candidate: Candidate,
                   hyd: Hydraulics) -> tuple[Verdict, ...]:
-        verdicts = []
-        for criterion, options in service.criteria:
-            if state.phase not in criterion.phases and phase_group(state.phase) not in criterion.phases:
-                continue
-            context = CriterionContext(line, state, candidate, hyd, options, service.name)
-            verdicts.append(self._judge(criterion, context))
-        return tuple(verdicts)
+        judge = self._judge
+        return tuple(judge(criterion, CriterionContext(line, state, candidate, hyd, options, service.name))
+                     for criterion, options in _applicable(service, state.phase))
 
     def _judge(self, criterion: object, context: CriterionContext) -> Verdict:
-        ident = getattr(criterion, "id", "?")
         try:
             result = criterion.evaluate(context)  # type: ignore[attr-defined]
         except Exception as exc:  # a plugin's fault: an error verdict naming it, the batch goes on
-            return error_verdict(ident, self.host.criteria.owner(ident), f"raised {type(exc).__name__}: {exc}")
+            return self._fault(criterion, f"raised {type(exc).__name__}: {exc}")
         if not isinstance(result, Verdict):
-            return error_verdict(ident, self.host.criteria.owner(ident),
-                                  f"returned {type(result).__name__}, not a Verdict")
+            return self._fault(criterion, f"returned {type(result).__name__}, not a Verdict")
         fault = verdict_fault(result)
-        return error_verdict(ident, self.host.criteria.owner(ident), fault) if fault else result
+        return self._fault(criterion, fault) if fault else result
+
+    def _fault(self, criterion: object, what: str) -> Verdict:
+        ident = getattr(criterion, "id", "?")
+        return error_verdict(ident, self.host.criteria.owner(ident), what)
 
     def _first_guess(self, service: Service, state: FluidState, mass_flow: float, roughness: float) -> float | None:
         for criterion, options in service.criteria:
@@ -288,6 +303,32 @@ def _candidates(pipe_class: PipeClass, line: Line) -> tuple[Candidate, ...]:
     return (replace(pipe_class, schedule=line.schedule, schedule_by_nps=()).candidate(line.nps),)
 
 
+def _applicable(service: Service, phase: str) -> tuple[tuple[Any, Mapping[str, float]], ...]:
+    """The service's (criterion, options) pairs that judge a fluid in ``phase`` (worked out once per service
+    and phase; the service is kept with the answer, so that a reused id never returns another's)."""
+    key = (id(service), phase)
+    known = _APPLICABLE.get(key)
+    if known is None or known[0] is not service:
+        group = phase_group(phase)
+        pairs = tuple((c, o) for c, o in service.criteria if phase in c.phases or group in c.phases)
+        if len(_APPLICABLE) > 1024:
+            _APPLICABLE.clear()
+        known = _APPLICABLE[key] = (service, pairs)
+    return known[1]
+
+
+_APPLICABLE: dict[tuple[int, str], tuple[Service, tuple[tuple[Any, Mapping[str, float]], ...]]] = {}
+
+
+def _check_roughness(line: Line, smallest: Candidate) -> None:
+    """A line's own roughness must be below the smallest candidate's bore, whichever sizes the scan rates."""
+    rough = line.roughness
+    if rough is not None and not rough < smallest.inside_diameter:
+        raise InputError(f"{rough!r} m is not usable", field="roughness", value=rough,
+                         expected=f"a roughness >= 0 m and smaller than the inside diameter "
+                                  f"{smallest.inside_diameter!r} m").for_line(line.tag)
+
+
 def _beyond_range(mass_flow: float, where: str) -> InputError:
     """The error of a flow so large or so small that the hydraulics leave floating-point range."""
     return InputError(f"sizing flow {mass_flow:.6g} kg/s is beyond the range the hydraulics can compute {where}",
@@ -303,5 +344,3 @@ def _fails_beyond_march(verdict: Verdict) -> bool:
     """A fail above a maximum, by a criterion that marching cannot turn into a pass."""
     return (verdict.criterion in _MARCH_ONLY_WORSENS and verdict.status == "fail" and verdict.value is not None
             and verdict.limit is not None and verdict.value > verdict.limit)
-
-

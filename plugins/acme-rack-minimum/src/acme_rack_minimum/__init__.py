@@ -29,6 +29,7 @@ class RackMinimumSize(Criterion):
     phases = frozenset({"liquid", "gas"})
     source = "company (ACME piping practice: mechanical integrity on racks)"
     options = (OptionSpec("min_nps", "dimensionless", 2, None, "smallest NPS allowed on a pipe rack (1.5 = 1-1/2)"),)
+    size_trend = "larger-passes"  # a size below the minimum is cured by a larger one: the engine may walk
 
     def check_options(self, values: Mapping[str, float], where: str) -> None:
         valid = {nps_value(label) for label in NPS_LABELS}
