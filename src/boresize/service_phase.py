@@ -15,8 +15,11 @@ from boresize.properties.phase import two_phase_error
 __all__ = ["check_phase", "conditions_text", "default_service", "phase_group"]
 
 
+_GROUPS = {"supercritical": "gas", "two-phase": "two-phase"}
+
+
 def phase_group(phase: str) -> str:
-    return {"supercritical": "gas", "two-phase": "two-phase"}.get(phase, phase)
+    return _GROUPS.get(phase, phase)
 
 
 def default_service(line: Line, state: FluidState) -> str:

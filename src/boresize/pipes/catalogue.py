@@ -60,6 +60,7 @@ def _label_fraction(label: str) -> Fraction:
 
 
 _NPS_BY_VALUE = {_label_fraction(label): label for label in NPS_LABELS}
+_VALUE_BY_LABEL = {label: float(_label_fraction(label)) for label in NPS_LABELS}
 _VALID_NPS = f"one of {', '.join(NPS_LABELS)}"
 
 
@@ -85,9 +86,17 @@ class PipeSize:
     standard: str
 
 
+# Texts already read, text -> label (texts only: 1, 1.0 and True are equal keys, and True is no NPS). Only
+# valid texts are kept, so an unknown one always reaches the full reader and its error. A line list repeats
+# a few spellings; the bound only guards against an endless stream of new ones.
+_LABEL_BY_TEXT: dict[str, str] = {label: label for label in NPS_LABELS}
+_SCHEDULE_BY_TEXT: dict[str, str] = {name: name for name in SCHEDULES}
+_TEXTS_KEPT = 1024
+
+
 def nps_value(nps: str | float | int) -> float:
     """The numeric value of an NPS (``"1-1/2"`` -> 1.5) [-]; unknown sizes raise InputError."""
-    return float(_label_fraction(normalise_nps(nps)))
+    return _VALUE_BY_LABEL[normalise_nps(nps)]
 
 
 def normalise_nps(value: str | float | int, field: str = "nps") -> str:
@@ -95,11 +104,26 @@ def normalise_nps(value: str | float | int, field: str = "nps") -> str:
 
     :raises InputError: the value is not a nominal pipe size the catalogue knows
     """
+    if type(value) is str:
+        label = _LABEL_BY_TEXT.get(value)
+        if label is not None:
+            return label
     number = _nps_fraction(value)
     label = _NPS_BY_VALUE.get(number) if number is not None else None
     if label is None:
         raise InputError(f"unknown NPS {value!r}", field=field, value=value, expected=_VALID_NPS)
+    if type(value) is str:
+        _remember(_LABEL_BY_TEXT, value, label)
     return label
+
+
+def _remember(texts: dict[str, str], text: str, label: str) -> None:
+    """Keep ``text`` -> ``label``; past the bound, forget the texts read before (the labels themselves stay)."""
+    if len(texts) >= _TEXTS_KEPT:
+        kept = {name: name for name in texts.values()}
+        texts.clear()
+        texts.update(kept)
+    texts[text] = label
 
 
 def _nps_fraction(value: object) -> Fraction | None:
@@ -133,10 +157,16 @@ def normalise_schedule(value: str | int, field: str = "schedule") -> str:
 
     :raises InputError: the value names no schedule of ASME B36.10M or B36.19M
     """
+    if type(value) is str:
+        known = _SCHEDULE_BY_TEXT.get(value)
+        if known is not None:
+            return known
     label = _schedule_label(value)
     if label not in SCHEDULES:
         raise InputError(f"unknown schedule {value!r}", field=field, value=value,
                          expected=f"one of {', '.join(SCHEDULES)}")
+    if type(value) is str:
+        _remember(_SCHEDULE_BY_TEXT, value, label)  # type: ignore[arg-type]
     return label
 
 

@@ -81,6 +81,9 @@ def check_plausible(
     :param fluid: fluid name, named in the message
     :param pressure: [Pa abs]; :param temperature: [K] (named in the message)
     """
+    if (type(density) is float and type(viscosity) is float and DENSITY_RANGE[0] <= density <= DENSITY_RANGE[1]
+            and VISCOSITY_RANGE[0] <= viscosity <= VISCOSITY_RANGE[1]):
+        return  # both plausible (a NaN or an infinity fails a finite range): no message to build
     where = f"{fluid} at {describe_conditions(pressure, temperature)}"
     checks = (
         ("density", density, DENSITY_RANGE, "kg/m3"),

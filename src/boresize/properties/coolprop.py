@@ -67,6 +67,8 @@ _PHASE_BY_INDEX: dict[int, Phase] = {
 }
 
 _MODEL = "HEOS (reference EOS)"
+_UNSEEN = object()
+_SPELLINGS_KEPT = 1024
 
 
 def _normalise(name: str) -> str:
@@ -102,6 +104,7 @@ class CoolPropBackend:
 
     def __init__(self, cache_size: int = 4096) -> None:
         self._names: dict[str, str] | None = None
+        self._known: dict[str, str | None] = {}  # fluid as written -> canonical name, None if not served
         self._states: dict[str, Any] = {}
         self._limits: dict[str, _Limits] = {}
         self._lock = threading.RLock()
@@ -115,15 +118,16 @@ class CoolPropBackend:
         """True for a pure fluid CoolProp knows, unless the line gives its own density and viscosity."""
         if line.density is not None and line.viscosity is not None:
             return False
-        if is_mixture(line.fluid):
-            return False
-        return _normalise(line.fluid) in self._name_map()
+        return self._known_name(line.fluid) is not None
 
     def resolve(self, fluid: str) -> str:
         """CoolProp's canonical name for ``fluid`` (name, alias, CAS number or trade name).
 
         :raises InputError: (field "fluid") for a mixture or an unknown name, with close matches
         """
+        name = self._known_name(fluid)
+        if name is not None:
+            return name
         if is_mixture(fluid):
             raise InputError(
                 f"'{fluid}' is a mixture; the coolprop backend handles pure fluids only",
@@ -158,6 +162,17 @@ class CoolPropBackend:
         self._cached_state.cache_clear()
 
     # --- internals -----------------------------------------------------------------------------
+
+    def _known_name(self, fluid: str) -> str | None:
+        """The canonical name of a pure fluid CoolProp knows, else None; read once per spelling (a line
+        list repeats a few; the bound only guards against an endless stream of new ones)."""
+        known = self._known.get(fluid, _UNSEEN)
+        if known is _UNSEEN:
+            known = None if is_mixture(fluid) else self._name_map().get(_normalise(fluid))
+            if len(self._known) >= _SPELLINGS_KEPT:
+                self._known.clear()
+            self._known[fluid] = known
+        return known  # type: ignore[return-value]
 
     def _name_map(self) -> dict[str, str]:
         """Normalised name -> canonical name, built once from CoolProp's fluid list."""
@@ -282,12 +297,15 @@ def _evaluate(
     else:
         state.update(CP.PT_INPUTS, pressure, temperature)
         phase = _map_phase(int(state.phase()), name, pressure, temperature)
-        fraction = None
+        fraction = None if phase == "two-phase" else 0.0 if phase == "liquid" else 1.0
+    # recorded whole here (version, state point, a single phase's vapour fraction), so that the engine's
+    # record of the state (properties.select) has nothing to fill in and need not copy it
     return FluidState(
         density=state.rhomass(), viscosity=state.viscosity(), phase=phase, source="coolprop",
         model=_model_text(saturated, hint), vapour_fraction=fraction,
         vapour_pressure=vapour_pressure, speed_of_sound=state.speed_sound(),
-        molar_mass=limits.molar_mass, fluid_name=name,
+        molar_mass=limits.molar_mass, fluid_name=name, backend_version=_coolprop_version(),
+        pressure=pressure, temperature=temperature,
     )
 
 

@@ -55,13 +55,17 @@ class TableBackend:
         viscosity = _given(line.viscosity, "viscosity", "Pa s", VISCOSITY_RANGE)
         _check_same_point(line, pressure, temperature)
         phase, rule = _phase(line, density)
-        return FluidState(
+        return FluidState(  # recorded whole (version, state point, vapour fraction): the engine need not copy it
             density=density,
             viscosity=viscosity,
             phase=phase,
             source=self.id,
             model=f"line list values ({rule})",
             fluid_name=line.fluid or None,
+            vapour_fraction=None if phase == "two-phase" else 0.0 if phase == "liquid" else 1.0,
+            backend_version=_boresize_version(),
+            pressure=pressure,
+            temperature=temperature,
         )
 
 
