@@ -11,8 +11,11 @@ garbage collector, paused in the parent while results arrive, is restored as it 
 from __future__ import annotations
 
 import gc
+import os
 import pickle
 import sys
+import tempfile
+import time
 from collections.abc import Sequence
 from pathlib import Path
 
@@ -119,3 +122,34 @@ def test_objects_the_caller_froze_stay_frozen(spec: SizerSpec, pairs: list,  # t
         assert gc.isenabled()
     finally:
         gc.unfreeze()
+
+
+def _whose(spec: SizerSpec, chunk: Sequence[int]) -> list[tuple[int, int]]:
+    """A worker's task: (item, process id) for every item of the chunk."""
+    return [(item, os.getpid()) for item in chunk]
+
+
+@FORK_ONLY
+def test_this_process_takes_chunks_from_the_end_while_the_worker_takes_them_from_the_start(
+        spec: SizerSpec, tmp_path: Path, monkeypatch: pytest.MonkeyPatch) -> None:
+    monkeypatch.setattr(tempfile, "tempdir", str(tmp_path))  # where the workers' result files go
+
+    def here(chunk: Sequence[int]) -> list[tuple[int, int]]:
+        time.sleep(0.01)  # slow enough here for the started worker to take its first chunks
+        return [(item, os.getpid()) for item in chunk]
+
+    chunks = [[2 * i, 2 * i + 1] for i in range(30)]
+    done = run_chunks(_whose, spec, chunks, executor=None, workers=2, retry_hint="--workers 1",  # type: ignore[arg-type]
+                      sizer=spec.build(), local=here)  # type: ignore[arg-type]
+    assert [item for item, _ in done] == list(range(60))  # in input order, each item once
+    owners = [pid for _, pid in done]
+    here_at = [i for i, pid in enumerate(owners) if pid == os.getpid()]
+    assert here_at and len(here_at) < 60  # both this process and the worker sized some
+    assert here_at == list(range(here_at[0], 60))  # this process took a run from the end
+    assert list(tmp_path.iterdir()) == []  # the workers' result files and their folder are gone
+
+
+def test_with_one_process_nothing_is_started_and_all_is_done_here(spec: SizerSpec) -> None:
+    done = run_chunks(_whose, spec, [[1], [2]], executor=None, workers=1, retry_hint="--workers 1",  # type: ignore[arg-type]
+                      sizer=spec.build(), local=lambda chunk: _whose(spec, chunk))  # type: ignore[arg-type]
+    assert done == [(1, os.getpid()), (2, os.getpid())]

@@ -221,8 +221,8 @@ def size_many(lines: Iterable[Item], executor: Executor | None = None, *, worker
     :param executor: any :class:`concurrent.futures.Executor` (a thread or process pool, a dask
         client's ``get_executor()``); it is not shut down here. Workers build their own sizer from
         ``criteria`` (give a path every worker can read) and ``plugins``.
-    :param workers: processes to start when no executor is given; default: one per CPU from
-        :data:`PROCESS_THRESHOLD` lines, else 1 (in this process)
+    :param workers: processes to size on when no executor is given, this one included (it starts
+        ``workers - 1``); default: one per CPU from :data:`PROCESS_THRESHOLD` lines, else 1 (this one)
     :param chunk_size: lines per task (default: about eight tasks per worker, 1 to 64 lines each)
     :raises InputError: an item that is not a line, an executor that is not one, workers below 1
     :raises BoresizeError: a worker process died
@@ -256,4 +256,5 @@ def _run_parallel(items: list[Item], spec: SizerSpec, executor: Executor | None,
         items = items[1:]
     size = chunk_size or max(1, min(64, math.ceil(len(items) / (max(workers, 4) * 8))))
     chunks = [items[i:i + size] for i in range(0, len(items), size)]
-    return head + run_chunks(_run_chunk, spec, chunks, executor=executor, workers=workers, retry_hint="workers=1")
+    return head + run_chunks(_run_chunk, spec, chunks, executor=executor, workers=workers, retry_hint="workers=1",
+                             local=lambda chunk: _run_chunk(spec, chunk))
