@@ -146,3 +146,16 @@ def test_headroom_option_reports_the_flow_a_velocity_limit_allows(tmp_path, caps
     assert code == 0
     assert entry["headroom_percent"] == pytest.approx(expected * 100, abs=0.05)
     assert entry["headroom_limited_by"] == ["velocity"]
+
+
+def test_every_size_rates_from_the_smallest_and_selects_the_same(capsys):
+    # The selection's definition (smallest passing size, every size rated from the smallest) against the guided
+    # scan the CLI uses by default; the record of --every-size starts at the pipe class's smallest size.
+    args = (str(DEMO / "lines.csv"), "--criteria", str(DEMO / "criteria.toml"), "--json")
+    guided = json.loads(_run(capsys, *args)[1])["lines"]
+    every = json.loads(_run(capsys, *args, "--every-size")[1])["lines"]
+    keys = ("status", "nps", "schedule", "controlling", "verdicts", "governing")
+    assert [[g.get(k) for k in keys] for g in guided] == [[e.get(k) for k in keys] for e in every]
+    sized = [(g, e) for g, e in zip(guided, every) if g["mode"] == "size" and g["status"] == "pass"]
+    assert sized and all(e["candidates"][0]["nps"] == "1/2" for _, e in sized)  # the default class starts at 1/2
+    assert sum(len(g["candidates"]) for g, _ in sized) < sum(len(e["candidates"]) for _, e in sized)

@@ -50,17 +50,20 @@ class SizerSpec:
     :param criteria_file: path of the criteria TOML, or None for the shipped sets
     :param load_entry_points: False to use only boresize's built-in plugins
     :param check_roughness: corroded roughness for checked lines [m], or None
+    :param every_size: rate every size of the pipe class (see :class:`~boresize.engine.Sizer`)
     """
 
     criteria_file: str | None = None
     load_entry_points: bool = True
     check_roughness: float | None = None
+    every_size: bool = False
 
     def build(self) -> Sizer:
         from boresize.plugins import PluginHost
 
         host = PluginHost.load(load_entry_points=self.load_entry_points)
-        return Sizer(host, criteria_file=self.criteria_file, check_roughness=self.check_roughness)
+        return Sizer(host, criteria_file=self.criteria_file, check_roughness=self.check_roughness,
+                     every_size=self.every_size)
 
 
 def shared_sizer(spec: SizerSpec) -> Sizer:
@@ -331,7 +334,8 @@ def summary(results: Sequence[LineResult]) -> str:
     return f"{len(results)} lines: {counts['pass']} pass, {counts['fail']} fail, {counts['error']} error"
 
 
-def spec_for(criteria_file: str | Path | None, load_entry_points: bool, check_roughness: float | None) -> SizerSpec:
+def spec_for(criteria_file: str | Path | None, load_entry_points: bool, check_roughness: float | None, *,
+             every_size: bool = False) -> SizerSpec:
     """A spec with the criteria path made absolute (workers may not share the parent's working directory)."""
     path = str(Path(criteria_file).resolve()) if criteria_file else None
-    return SizerSpec(path, load_entry_points, check_roughness)
+    return SizerSpec(path, load_entry_points, check_roughness, every_size)

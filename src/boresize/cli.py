@@ -86,6 +86,9 @@ def _add_run_options(size: argparse.ArgumentParser) -> None:
     size.add_argument("--corroded-roughness", metavar="LENGTH",
                       help="check lines that give an NPS with this absolute roughness, e.g. '0.5 mm' "
                            "(a line's own roughness column wins)")
+    size.add_argument("--every-size", action="store_true",
+                      help="rate every size of the pipe class from the smallest, instead of walking from the "
+                           "first-guess diameter (same selection, slower; the record shows every size below)")
     size.add_argument("--headroom", action="store_true",
                       help="also rate each line at its size: how much more flow (%% of the design flow) it "
                            "carries before a criterion fails")

@@ -66,8 +66,9 @@ def _size_list(args: argparse.Namespace, line_list,  # type: ignore[no-untyped-d
 
     if args.workers < 1:
         raise UsageError(f"--workers {args.workers} is below 1")
-    spec = spec_for(args.criteria, not args.no_plugins, check_roughness)
-    sizer = Sizer(_host(args), criteria_file=args.criteria, check_roughness=check_roughness)
+    every_size = bool(getattr(args, "every_size", False))
+    spec = spec_for(args.criteria, not args.no_plugins, check_roughness, every_size=every_size)
+    sizer = Sizer(_host(args), criteria_file=args.criteria, check_roughness=check_roughness, every_size=every_size)
     results = run_batch(line_list.pairs(), spec, sizer=sizer, workers=args.workers,
                         progress=getattr(args, "progress", False))
     return sizer, results
