@@ -147,15 +147,9 @@ def rate_pipe(
     )
 
 
-def _pipe_flow(
-    mass_flow: float,
-    density: float,
-    viscosity: float,
-    inside_diameter: float,
-    roughness: float,
-    length: float,
-    speed_of_sound: float | None = None,
-) -> tuple[float, float, float, Regime, float, float | None]:
+def _pipe_flow(mass_flow: float, density: float, viscosity: float, inside_diameter: float, roughness: float,
+               length: float, speed_of_sound: float | None = None
+               ) -> tuple[float, float, float, Regime, float, float | None]:
     """The numbers of :func:`rate_pipe` without building a :class:`~boresize.model.Hydraulics` (for callers
     that build one with more fields, once): inputs and checks as :func:`rate_pipe`.
 
