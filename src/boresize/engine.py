@@ -93,7 +93,7 @@ class Sizer:
         mass_flow = mass_flow_of(self.host, line, state) * (1.0 + margin)
         return _Prepared(line, state, service, pipe_class, mass_flow, margin, mode, notes,
                          start_diameter(service, line.pressure, state, mass_flow,
-                                                        line.roughness))
+                                        line.roughness if line.roughness is not None else pipe_class.roughness))
 
     def _rate_all(self, p: _Prepared) -> tuple[CandidateResult, ...]:
         return self._rate_cases([p])[0]

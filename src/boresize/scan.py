@@ -194,14 +194,13 @@ def _walk(count: int, rate: Rate, trends: Mapping[str, SizeTrend | None], i: int
     return low, high
 
 
-def start_diameter(service: Any, pressure: float, state: FluidState, mass_flow: float,
-                   roughness: float | None) -> float:
+def start_diameter(service: Any, pressure: float, state: FluidState, mass_flow: float, roughness: float) -> float:
     """Where the guided scan starts [m]: the larger of the diameters at which the service's drop-per-length and
     velocity maxima are just met (Swamee-Jain; continuity), or 0 (the smallest size) when it gives neither. Only a
     starting point: the walk goes from it to the size the criteria select.
 
     :param pressure: inlet pressure [Pa abs] (picks pressure bands); :param mass_flow: [kg/s];
-    :param roughness: the line's absolute roughness [m], or None for carbon steel's 0.045 mm
+    :param roughness: absolute roughness [m] (the line's, else its pipe class's)
     """
     volume_flow, start = mass_flow / state.density, 0.0
     for criterion, options in service.criteria:
@@ -213,7 +212,7 @@ def start_diameter(service: Any, pressure: float, state: FluidState, mass_flow: 
                 start = max(start, math.sqrt(4.0 * volume_flow / (math.pi * limit)))
             else:
                 start = max(start, swamee_jain_diameter(volume_flow, limit, state.density, state.viscosity,
-                                                        roughness if roughness is not None else 4.5e-5))
+                                                        roughness))
         except (OverflowError, ValueError, ZeroDivisionError, BoresizeError):
             continue  # no start from this limit: another, or the smallest size
     return start
