@@ -82,34 +82,18 @@ def _who(host: PluginHost, backend: Any) -> str:
     return f"property backend {backend.id!r} of plugin {host.backends.owner(backend.id)!r}"
 
 
-# The recorded state of the last states a backend returned (a caching backend, such as coolprop, returns the
-# same object for the same state point; rebuilding its record costs more than the look-up): key
-# (id(state), id(backend), pressure, temperature) -> (state, backend, recorded). Holding the state and the
-# backend keeps their ids from being reused while the entry lives.
-_RECORDED: dict[tuple[int, int, float, float], tuple[FluidState, Any, FluidState]] = {}
-_RECORDED_KEPT = 4096
-
-
 def _recorded(state: FluidState, backend: Any, pressure: float, temperature: float) -> FluidState:
     """The state with its backend version, state point [Pa abs, K] and, for one phase, its vapour mass
     fraction (0 liquid, 1 gas) filled in where the backend left them out."""
-    key = (id(state), id(backend), pressure, temperature)
-    kept = _RECORDED.get(key)
-    if kept is not None and kept[0] is state and kept[1] is backend:
-        return kept[2]
     quality = state.vapour_fraction
     if quality is None and state.phase != "two-phase":
         quality = 0.0 if state.phase == "liquid" else 1.0
     if (state.backend_version is not None and state.pressure is not None and state.temperature is not None
             and quality == state.vapour_fraction):
         return state
-    recorded = replace(state, backend_version=state.backend_version or str(backend.version()),
-                       vapour_fraction=quality, pressure=state.pressure if state.pressure is not None else pressure,
-                       temperature=state.temperature if state.temperature is not None else temperature)
-    if len(_RECORDED) >= _RECORDED_KEPT:
-        _RECORDED.clear()
-    _RECORDED[key] = (state, backend, recorded)
-    return recorded
+    return replace(state, backend_version=state.backend_version or str(backend.version()), vapour_fraction=quality,
+                   pressure=state.pressure if state.pressure is not None else pressure,
+                   temperature=state.temperature if state.temperature is not None else temperature)
 
 
 def mass_flow_of(host: PluginHost, line: Line, state: FluidState) -> float:
