@@ -115,9 +115,9 @@ def test_worker_processes_start_by_default_for_a_large_batch(monkeypatch):
     started: list[int] = []
     real = batch.process_pool
 
-    def spy(workers: int, spec) -> ProcessPoolExecutor:  # type: ignore[no-untyped-def]
+    def spy(workers: int, spec, **options) -> ProcessPoolExecutor:  # type: ignore[no-untyped-def]
         started.append(workers)
-        return real(workers, spec)
+        return real(workers, spec, **options)
 
     monkeypatch.setattr(batch, "process_pool", spy)
     lines = [make_line(tag=f"L-{i}", fluid="water", flow=f"{10 + i % 50} t/h", pressure="5 barg",

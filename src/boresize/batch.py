@@ -257,8 +257,7 @@ def run_chunks(task: Callable[[SizerSpec, Any], list[LineResult]], spec: SizerSp
             return [result for chunk in chunks for result in _advanced(local(chunk), step)]
     if executor is None:
         started = workers - 1 if local is not None else workers
-        pool: Executor = process_pool(started, spec, sizer=sizer) if sizer is not None else \
-            process_pool(started, spec)
+        pool: Executor = process_pool(started, spec, sizer=sizer)
     else:
         pool, local = executor, None
     try:

@@ -19,13 +19,14 @@ from boresize.config import Service, SizingConfig, load_config
 from boresize.criteria.base import CriterionContext
 from boresize.errors import BoresizeError, InputError
 from boresize.hydraulics import swamee_jain_diameter
+from boresize.hydraulics.darcy import require_roughness
 from boresize.hydraulics.line import is_gas, needs_march, rate_line
 from boresize.model import Candidate, CandidateResult, FluidState, Hydraulics, Line, LineResult, Verdict
 from boresize.pipes import PipeClass
 from boresize.plugins import PluginHost
 from boresize.outcome import build_result, error_result, error_verdict, internal_error, select, verdict_fault
 from boresize.properties.select import choose_backend, fluid_state, mass_flow_of
-from boresize.scan import RATED_ABOVE, criterion_trends, rated_span, start_diameter
+from boresize.scan import RATED_ABOVE, BandsMemo, criterion_trends, rated_span, start_diameter
 from boresize.service_phase import check_phase, default_service, phase_group
 
 __all__ = ["RATED_ABOVE", "Sizer"]
@@ -66,6 +67,8 @@ class Sizer:
         self.check_roughness = check_roughness
         self.every_size = every_size
         self._candidates: dict[tuple[int, str | None, str | None], tuple[PipeClass, tuple[Candidate, ...]]] = {}
+        self._applicable: dict[tuple[int, str], tuple[Service, tuple[tuple[Any, Mapping[str, float]], ...]]] = {}
+        self._bands: BandsMemo = {}
 
     # -- one line -----------------------------------------------------------------------------
     def run(self, line: Line) -> LineResult:
@@ -115,7 +118,8 @@ class Sizer:
             return memo[i]
 
         pressures = {p.line.pressure for p in ready}
-        trends = criterion_trends([c for p in ready for c, _ in p.service.criteria], pressures, candidates)
+        trends = criterion_trends([c for p in ready for c, _ in p.service.criteria], pressures, candidates,
+                                  self._bands)
         span = rated_span(len(candidates), rate, trends, bisect_left([c.inside_diameter for c in candidates],
                                                                      max(p.start for p in ready)),
                           every_size=self.every_size)
@@ -181,7 +185,18 @@ class Sizer:
                   hyd: Hydraulics) -> tuple[Verdict, ...]:
         judge = self._judge
         return tuple(judge(criterion, CriterionContext(line, state, candidate, hyd, options, service.name))
-                     for criterion, options in _applicable(service, state.phase))
+                     for criterion, options in self._applicable_to(service, state.phase))
+
+    def _applicable_to(self, service: Service, phase: str) -> tuple[tuple[Any, Mapping[str, float]], ...]:
+        """The service's (criterion, options) pairs that judge a fluid in ``phase`` (worked out once per service
+        and phase; the service is kept with the answer, so that a reused id never returns another's)."""
+        key = (id(service), phase)
+        known = self._applicable.get(key)
+        if known is None or known[0] is not service:
+            group = phase_group(phase)
+            pairs = tuple((c, o) for c, o in service.criteria if phase in c.phases or group in c.phases)
+            known = self._applicable[key] = (service, pairs)
+        return known[1]
 
     def _judge(self, criterion: object, context: CriterionContext) -> Verdict:
         try:
@@ -303,30 +318,13 @@ def _candidates(pipe_class: PipeClass, line: Line) -> tuple[Candidate, ...]:
     return (replace(pipe_class, schedule=line.schedule, schedule_by_nps=()).candidate(line.nps),)
 
 
-def _applicable(service: Service, phase: str) -> tuple[tuple[Any, Mapping[str, float]], ...]:
-    """The service's (criterion, options) pairs that judge a fluid in ``phase`` (worked out once per service
-    and phase; the service is kept with the answer, so that a reused id never returns another's)."""
-    key = (id(service), phase)
-    known = _APPLICABLE.get(key)
-    if known is None or known[0] is not service:
-        group = phase_group(phase)
-        pairs = tuple((c, o) for c, o in service.criteria if phase in c.phases or group in c.phases)
-        if len(_APPLICABLE) > 1024:
-            _APPLICABLE.clear()
-        known = _APPLICABLE[key] = (service, pairs)
-    return known[1]
-
-
-_APPLICABLE: dict[tuple[int, str], tuple[Service, tuple[tuple[Any, Mapping[str, float]], ...]]] = {}
-
-
 def _check_roughness(line: Line, smallest: Candidate) -> None:
     """A line's own roughness must be below the smallest candidate's bore, whichever sizes the scan rates."""
-    rough = line.roughness
-    if rough is not None and not rough < smallest.inside_diameter:
-        raise InputError(f"{rough!r} m is not usable", field="roughness", value=rough,
-                         expected=f"a roughness >= 0 m and smaller than the inside diameter "
-                                  f"{smallest.inside_diameter!r} m").for_line(line.tag)
+    if line.roughness is not None:
+        try:
+            require_roughness(line.roughness, smallest.inside_diameter)
+        except InputError as exc:
+            raise exc.for_line(line.tag) from None
 
 
 def _beyond_range(mass_flow: float, where: str) -> InputError:

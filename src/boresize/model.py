@@ -24,6 +24,8 @@ __all__ = [
 ]
 
 VerdictStatus = Literal["pass", "fail", "warn", "not-applicable", "error"]
+#: The statuses that let a size pass (a warning does not stop it; a criterion that does not apply neither).
+PASSING_STATUSES = frozenset({"pass", "warn", "not-applicable"})
 Phase = Literal["liquid", "gas", "two-phase", "supercritical"]
 FlowBasis = Literal["mass", "volume", "standard-volume"]
 
@@ -243,7 +245,7 @@ class CandidateResult:
 
     @property
     def passed(self) -> bool:
-        return all(v.status in ("pass", "warn", "not-applicable") for v in self.verdicts)
+        return all(v.status in PASSING_STATUSES for v in self.verdicts)
 
     @property
     def worst(self) -> Verdict | None:

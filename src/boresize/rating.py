@@ -19,7 +19,7 @@ from dataclasses import dataclass, replace
 from typing import Any
 
 from boresize.engine import Sizer
-from boresize.model import Line, LineResult
+from boresize.model import PASSING_STATUSES, Line, LineResult
 
 __all__ = ["TOLERANCE", "Headroom", "find_headroom", "headroom", "headroom_to_dict"]
 
@@ -92,7 +92,7 @@ def find_headroom(sizer: Sizer, line: Line, *, tolerance: float = TOLERANCE) -> 
         low, high = (middle, high) if run(middle).status == "pass" else (low, middle)
     failing = run(high)
     limited = tuple(v.criterion for v in (failing.selected.verdicts if failing.selected else ())
-                    if v.status not in ("pass", "warn", "not-applicable"))
+                    if v.status not in PASSING_STATUSES)
     return Headroom(line.tag, (high - 1.0) * 100.0, nps, limited,
                     f"at NPS {nps} the flow can rise to {high * 100.0:.4g} % of the design flow (design margin "
                     f"not applied) before {', '.join(limited) or 'a criterion'} fails")

@@ -26,9 +26,9 @@ from typing import Any, Literal
 
 from boresize.errors import BoresizeError
 from boresize.hydraulics import swamee_jain_diameter
-from boresize.model import Candidate, CandidateResult, FluidState, Verdict
+from boresize.model import PASSING_STATUSES, Candidate, CandidateResult, FluidState, Verdict
 
-__all__ = ["BUILTIN_TRENDS", "RATED_ABOVE", "SizeTrend", "criterion_trends", "direction", "rated_span",
+__all__ = ["BUILTIN_TRENDS", "BandsMemo", "RATED_ABOVE", "SizeTrend", "criterion_trends", "direction", "rated_span",
            "start_diameter", "trend_of"]
 
 #: Sizes rated above the selected one when sizing (the calculation record shows one below to two above).
@@ -54,16 +54,21 @@ BUILTIN_TRENDS: Mapping[str, SizeTrend] = {
     "outlet-pressure": "larger-passes",
 }
 
-_PASSING = frozenset({"pass", "warn", "not-applicable"})
+#: (id of a banded criterion, id of the candidates, which pressure bounds hold) -> (criterion, candidates, whether
+#: its bands keep its trend): the same for every line of a list, so judged once; the objects are kept with the
+#: answer, so that a reused id never returns another's. The caller owns it (a Sizer: it dies with its config).
+BandsMemo = dict[tuple[int, int, tuple[bool, ...]], tuple[Any, Sequence[Candidate], bool]]
 
 
-def trend_of(criterion: Any, pressure: float, candidates: Sequence[Candidate]) -> SizeTrend | None:
+def trend_of(criterion: Any, pressure: float, candidates: Sequence[Candidate],
+             memo: BandsMemo | None = None) -> SizeTrend | None:
     """The criterion's trend on a line at inlet ``pressure`` [Pa abs] over ``candidates``, or None (unknown).
 
     A built-in criterion (from this package) takes its trend from :data:`BUILTIN_TRENDS`; any other from its
     ``size_trend`` attribute. A criterion banded by NPS keeps its trend only when, over the candidates, no
     limit of a later band is below the one before it (a limit that shrinks as sizes grow can make a larger
     size fail again); a ``larger-passes`` criterion keeps it only when its options are the same in every band.
+    ``memo`` remembers that judgement for the next line.
     """
     inner = getattr(criterion, "inner", None)
     base = inner if inner is not None and hasattr(criterion, "band_for") else criterion
@@ -72,15 +77,11 @@ def trend_of(criterion: Any, pressure: float, candidates: Sequence[Candidate]) -
         return trend
     signature = tuple(b.up_to_pressure is None or pressure <= b.up_to_pressure for b in criterion.bands)
     key = (id(criterion), id(candidates), signature)
-    kept = _BANDS_KEEP.get(key)
+    memo = {} if memo is None else memo
+    kept = memo.get(key)
     if kept is None or kept[0] is not criterion or kept[1] is not candidates:
-        kept = _BANDS_KEEP[key] = (criterion, candidates, _bands_keep(criterion, trend, pressure, candidates))
+        kept = memo[key] = (criterion, candidates, _bands_keep(criterion, trend, pressure, candidates))
     return trend if kept[2] else None
-
-
-#: (banded criterion, candidates, which pressure bounds hold) -> whether its bands keep its trend: the same for
-#: every line of a list, so judged once (the objects are kept with the answer, so an id is never reused).
-_BANDS_KEEP: dict[tuple[int, int, tuple[bool, ...]], tuple[Any, Sequence[Candidate], bool]] = {}
 
 
 def _declared(criterion: Any) -> SizeTrend | None:
@@ -115,7 +116,7 @@ def _bands_keep(banded: Any, trend: SizeTrend, pressure: float, candidates: Sequ
 def direction(verdict: Verdict, trend: SizeTrend | None) -> int | None:
     """Which way a verdict sends the scan: 0 when it passes, +1 to a larger size, -1 to a smaller one,
     None when it cannot say (an error verdict, no trend, a fail without a value and limit to compare)."""
-    if verdict.status in _PASSING:
+    if verdict.status in PASSING_STATUSES:
         return 0
     if verdict.status != "fail" or trend is None:
         return None
@@ -126,15 +127,15 @@ def direction(verdict: Verdict, trend: SizeTrend | None) -> int | None:
     return 1 if verdict.value > verdict.limit else -1
 
 
-def criterion_trends(criteria: Iterable[Any], pressures: Iterable[float],
-                     candidates: Sequence[Candidate]) -> dict[str, SizeTrend | None]:
+def criterion_trends(criteria: Iterable[Any], pressures: Iterable[float], candidates: Sequence[Candidate],
+                     memo: BandsMemo | None = None) -> dict[str, SizeTrend | None]:
     """Criterion id -> its trend over ``candidates`` at every inlet pressure of the line's cases (None if any
     case leaves it unknown, or the cases disagree)."""
     trends: dict[str, SizeTrend | None] = {}
     pressures = tuple(pressures)
     for criterion in criteria:
         for pressure in pressures:
-            trend = trend_of(criterion, pressure, candidates)
+            trend = trend_of(criterion, pressure, candidates, memo)
             known = trends.setdefault(criterion.id, trend)
             if known != trend:
                 trends[criterion.id] = None

@@ -100,6 +100,11 @@ def _check_rating_inputs(
     if not (math.isfinite(length) and length >= 0.0):
         raise InputError(f"{length!r} m is not usable", field="length", value=length,
                          expected="a finite length >= 0 m")
+    require_roughness(roughness, inside_diameter)
+
+
+def require_roughness(roughness: float, inside_diameter: float) -> None:
+    """Raise InputError unless 0 <= ``roughness`` < ``inside_diameter`` (both [m])."""
     if not (math.isfinite(roughness) and 0.0 <= roughness < inside_diameter):
         raise InputError(
             f"{roughness!r} m is not usable",
