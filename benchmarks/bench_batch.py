@@ -67,7 +67,7 @@ def run_boresize(path: Path, workers: int, progress: bool) -> tuple[float, int, 
     import CoolProp.CoolProp  # noqa: F401  # the floor is timed after this import too
 
     imported = time.perf_counter()
-    from boresize.batch import run_batch, spec_for
+    from boresize.sizing.batch import run_batch, spec_for
     from boresize.io import read_line_list
 
     spec = spec_for(DEMO / "criteria.toml", False, None)
@@ -83,7 +83,7 @@ def run_boresize(path: Path, workers: int, progress: bool) -> tuple[float, int, 
 
 def run_single_recording(path: Path) -> tuple[float, list[Point]]:
     """Seconds for the run in one process, and every (fluid, p, T) point boresize asked CoolProp for."""
-    from boresize.batch import run_batch, spec_for
+    from boresize.sizing.batch import run_batch, spec_for
     from boresize.io import read_line_list
 
     sizer = spec_for(DEMO / "criteria.toml", False, None).build()
@@ -105,7 +105,7 @@ def run_single_recording(path: Path) -> tuple[float, list[Point]]:
 def line_points(path: Path) -> list[Point]:
     """(CoolProp name, pressure [Pa abs], temperature [K]) of each line whose properties CoolProp gives."""
     from boresize.io import read_line_list
-    from boresize.lines import line_from_row
+    from boresize.io.rows import line_from_row
     from boresize.properties.coolprop import CoolPropBackend
 
     backend, points = CoolPropBackend(), []

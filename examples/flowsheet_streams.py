@@ -16,7 +16,7 @@ import argparse
 from dataclasses import dataclass
 
 import boresize
-from boresize.streams import stream_value
+from boresize.io.streams import stream_value
 
 COMPONENTS = ("water", "methanol", "methane", "ethane", "propane", "nitrogen")
 

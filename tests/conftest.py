@@ -4,7 +4,7 @@ from __future__ import annotations
 
 import pytest
 
-from boresize.engine import Sizer
+from boresize.sizing.engine import Sizer
 from boresize.plugins import PluginHost
 
 

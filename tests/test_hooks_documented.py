@@ -18,8 +18,8 @@ from pathlib import Path
 import pytest
 
 from boresize import hookspecs
-from boresize.engine import Sizer
-from boresize.lines import line_from_row
+from boresize.sizing.engine import Sizer
+from boresize.io.rows import line_from_row
 from boresize.plugins import PluginHost
 
 GUIDE = Path(__file__).resolve().parents[1] / "DEVELOPERS.md"

@@ -27,12 +27,12 @@ import pytest
 from hypothesis import HealthCheck, assume, given, settings
 from hypothesis import strategies as st
 
-from boresize.config import Service, SizingConfig
+from boresize.sizing.services import Service, SizingConfig
 from boresize.criteria.bands import BandedCriterion
 from boresize.criteria.base import parse_options
-from boresize.engine import Sizer
+from boresize.sizing.engine import Sizer
 from boresize.hydraulics.darcy import rate_pipe
-from boresize.lines import line_from_row
+from boresize.io.rows import line_from_row
 from boresize.model import Flow, Line, LineResult
 from boresize.pipes import pipe_class_from_table
 
@@ -195,7 +195,7 @@ def lab(host) -> Sizer:  # noqa: ANN001
 
 def _service_names() -> tuple[list[str], list[str]]:
     """(shipped services, one-criterion services), read at collection time with the built-in plugins."""
-    from boresize.config import load_config
+    from boresize.sizing.services import load_config
     from boresize.plugins import PluginHost
 
     host = PluginHost.load(load_entry_points=False)
@@ -351,7 +351,7 @@ def test_results_do_not_depend_on_the_units_of_the_input(sizer: Sizer, budget: s
 def test_the_guided_scan_selects_what_rating_every_size_selects(lab: Sizer, names: tuple[str, ...],
                                                                budget: settings) -> None:
     """The definition of the selection (the smallest size that passes, rating every size from the smallest)
-    against the guided scan the engine uses by default (boresize.scan): same status, size and verdicts."""
+    against the guided scan the engine uses by default (boresize.sizing.scan): same status, size and verdicts."""
     every = Sizer(lab.host, config=lab.config, every_size=True)
 
     @budget
@@ -368,8 +368,8 @@ def test_the_guided_scan_selects_what_rating_every_size_selects(lab: Sizer, name
 
 
 def test_every_built_in_criterion_says_which_way_its_fails_point(lab: Sizer) -> None:
-    """The guided scan knows every built-in criterion (boresize.scan.BUILTIN_TRENDS): a new built-in without
+    """The guided scan knows every built-in criterion (boresize.sizing.scan.BUILTIN_TRENDS): a new built-in without
     a trend would silently fall back to rating every size."""
-    from boresize.scan import BUILTIN_TRENDS
+    from boresize.sizing.scan import BUILTIN_TRENDS
 
     assert set(lab.host.criteria.ids()) <= set(BUILTIN_TRENDS)

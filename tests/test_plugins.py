@@ -10,10 +10,10 @@ import pytest
 
 import boresize.plugins as plugins_module
 from boresize.criteria.base import Criterion
-from boresize.engine import Sizer
+from boresize.sizing.engine import Sizer
 from boresize.errors import PluginError
 from boresize.hookspecs import hookimpl
-from boresize.lines import line_from_row
+from boresize.io.rows import line_from_row
 from boresize.plugins import PluginHost
 
 

@@ -68,16 +68,16 @@ __all__ = [
 ]
 
 _LAZY = {
-    "Sizer": "boresize.engine",
+    "Sizer": "boresize.sizing.engine",
     "PluginHost": "boresize.plugins",
-    "line_from_row": "boresize.lines",
-    "load_config": "boresize.config",
+    "line_from_row": "boresize.io.rows",
+    "load_config": "boresize.sizing.services",
     "make_line": "boresize.api",
     "size": "boresize.api",
     "check": "boresize.api",
     "size_many": "boresize.api",
-    "SizingResult": "boresize.result",
-    "line_from_stream": "boresize.streams",
+    "SizingResult": "boresize.api.result",
+    "line_from_stream": "boresize.io.streams",
     "read_dataframe": "boresize.io.dataframe",
     "results_dataframe": "boresize.io.dataframe",
     "size_dataframe": "boresize.io.dataframe",

@@ -2,7 +2,7 @@
 
 Inside boresize every number is a plain float in SI units (kg, m, s, Pa absolute, K).
 Conversion from what the user typed happens once, in :mod:`boresize.units` and
-:mod:`boresize.lines`.
+:mod:`boresize.io.rows`.
 """
 
 from __future__ import annotations

@@ -14,7 +14,7 @@ import pytest
 import acme_rack_minimum
 from acme_rack_minimum import RackMinimumSize, location_of
 from boresize.criteria.base import parse_options
-from boresize.engine import Sizer
+from boresize.sizing.engine import Sizer
 from boresize.errors import CriteriaFileError
 from boresize.plugins import PluginHost
 

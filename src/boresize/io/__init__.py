@@ -2,7 +2,7 @@
 
 from boresize.io.csv_reader import LineList, read_csv
 from boresize.io.read import read_line_list
-from boresize.io.results import document, result_to_dict
+from boresize.io.document import document, result_to_dict
 from boresize.io.write import write_output
 
 __all__ = ["LineList", "document", "read_csv", "read_line_list", "result_to_dict", "write_output"]

@@ -1,6 +1,6 @@
 """Reading a line list from CSV: headers with optional default units, one row per line case.
 
-Columns whose header starts with ``result.`` are boresize's own output (see :mod:`boresize.io.table`)
+Columns whose header starts with ``result.`` are boresize's own output (see :mod:`boresize.io.sheet_rows`)
 and are skipped, so that a results file can be read back as a line list; cells that the writer
 neutralised against formula injection (a leading apostrophe) are restored.
 """
@@ -15,7 +15,7 @@ from pathlib import Path
 
 from boresize.errors import InputError
 from boresize.io.safety import restore
-from boresize.lines import BEYOND_HEADER, COLUMNS, REQUIRED, Header, parse_header
+from boresize.io.rows import BEYOND_HEADER, COLUMNS, REQUIRED, Header, parse_header
 
 __all__ = ["RESULT_PREFIX", "LineList", "read_csv", "parse_csv_text", "file_digest", "check_header", "surplus_cells",
            "read_header", "make_line_list"]
@@ -120,7 +120,7 @@ def check_header(names: list[str], raw_headers: list[str], source: str) -> None:
     """Refuse a header that is not one, lacks a required column, or misspells a column ("lenght"):
     a misspelt column would be ignored and its default used, a silently wrong answer.
 
-    :param names: the field of each header (as :func:`~boresize.lines.parse_header` gives it)
+    :param names: the field of each header (as :func:`~boresize.io.rows.parse_header` gives it)
     :raises InputError: field "header", naming the column and what was expected
     """
     shown = ", ".join(raw_headers)
@@ -155,7 +155,7 @@ def _near_miss(word: str, column: str) -> bool:
 
 def surplus_cells(raw_headers: list[str], cells: list[str]) -> dict[str, str]:
     """The row's non-empty cells under no header (beyond the last column, or under a blank header cell), under
-    :data:`~boresize.lines.BEYOND_HEADER`; empty cells, as spreadsheets export them, are not surplus."""
+    :data:`~boresize.io.rows.BEYOND_HEADER`; empty cells, as spreadsheets export them, are not surplus."""
     heads = list(raw_headers) + [""] * max(0, len(cells) - len(raw_headers))
     surplus = [str(c).strip() for c, head in zip(cells, heads) if str(c).strip() and not str(head).strip()]
     return {BEYOND_HEADER: ", ".join(repr(cell) for cell in surplus)} if surplus else {}

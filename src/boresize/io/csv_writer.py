@@ -1,4 +1,4 @@
-"""Writing results as CSV: the input columns as given, then the result columns (see :mod:`boresize.io.table`).
+"""Writing results as CSV: the input columns as given, then the result columns (see :mod:`boresize.io.sheet_rows`).
 
 Text that a spreadsheet would run as a formula is neutralised (:mod:`boresize.io.safety`); numbers
 are written as numbers. UTF-8 with a byte-order mark, so that spreadsheet programs read the units'
@@ -13,7 +13,7 @@ from pathlib import Path
 from typing import Any
 
 from boresize.io.safety import neutralise
-from boresize.io.table import candidate_rows, result_rows
+from boresize.io.sheet_rows import candidate_rows, result_rows
 from boresize.model import LineResult
 
 __all__ = ["write_csv", "csv_cell"]

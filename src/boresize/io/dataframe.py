@@ -5,7 +5,7 @@ plain number whose unit the column gives: in the header (``"flow [t/h]"``), in a
 (``pd.read_csv(..., header=[0, 1])``), or in a first row of units (tag and fluid empty, ``t/h`` under
 flow). Cells may also be pint Quantities. Empty cells (None, NaN) are empty.
 
-The frame out has the rows and columns of the CSV results file (:mod:`boresize.io.table`): the input
+The frame out has the rows and columns of the CSV results file (:mod:`boresize.io.sheet_rows`): the input
 columns as given, then ``result.*`` columns. Read back with :func:`read_dataframe` the result columns
 are skipped, as the CSV reader skips them, so a frame goes out and in like a CSV file.
 """
@@ -23,7 +23,7 @@ from typing import TYPE_CHECKING
 from boresize.errors import InputError
 from boresize.io.csv_reader import RESULT_PREFIX, LineList, check_header, surplus_cells
 from boresize.io.safety import restore
-from boresize.lines import parse_header
+from boresize.io.rows import parse_header
 from boresize.model import LineResult
 
 if TYPE_CHECKING:
@@ -148,7 +148,7 @@ def results_dataframe(results: Sequence[LineResult], headers: Sequence[str] | No
     """
     import pandas as pd
 
-    from boresize.io.table import result_rows
+    from boresize.io.sheet_rows import result_rows
 
     head, rows = result_rows(results, headers)
     return pd.DataFrame(rows, columns=head)
@@ -162,7 +162,7 @@ def size_dataframe(frame: pd.DataFrame, *, criteria: str | Path | None = None, p
     ``error`` row and the others go on. ``executor`` and ``workers`` as in :func:`boresize.api.size_many`.
     """
     from boresize.api import default_sizer
-    from boresize.batch import run_batch, spec_for
+    from boresize.sizing.batch import run_batch, spec_for
 
     line_list = read_dataframe(frame, units_row=units_row)
     spec = spec_for(criteria, plugins, None)

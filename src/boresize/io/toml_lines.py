@@ -32,7 +32,7 @@ from typing import Any
 
 from boresize.errors import InputError
 from boresize.io.csv_reader import LineList, check_header, file_digest
-from boresize.lines import parse_header
+from boresize.io.rows import parse_header
 
 if sys.version_info >= (3, 11):
     import tomllib

@@ -9,7 +9,7 @@ from typing import Any
 
 from boresize.errors import InputError
 from boresize.io.csv_reader import LineList
-from boresize.io.results import document
+from boresize.io.document import document
 from boresize.model import LineResult
 
 __all__ = ["OUTPUT_SUFFIXES", "check_output", "write_output"]

@@ -20,7 +20,7 @@ from typing import Any
 from boresize.errors import InputError
 from boresize.io.csv_reader import LineList, file_digest, make_line_list, read_header, surplus_cells
 from boresize.io.safety import FORMULA_STARTS, as_number, restore
-from boresize.io.table import candidate_rows, result_rows
+from boresize.io.sheet_rows import candidate_rows, result_rows
 from boresize.model import LineResult
 
 __all__ = ["read_xlsx", "write_xlsx", "cell_text"]

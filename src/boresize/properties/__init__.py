@@ -7,7 +7,7 @@ from __future__ import annotations
 
 from boresize.properties.base import PropertyBackend, check_plausible
 from boresize.properties.coolprop import CoolPropBackend
-from boresize.properties.table import TableBackend
+from boresize.properties.given import TableBackend
 
 __all__ = [
     "PropertyBackend",

@@ -10,7 +10,7 @@ from __future__ import annotations
 from boresize.hookspecs import hookimpl
 from boresize.properties.coolprop import CoolPropBackend
 from boresize.properties.coolprop_mixture import CoolPropMixtureBackend
-from boresize.properties.table import TableBackend
+from boresize.properties.given import TableBackend
 from boresize.properties.thermo import ThermoBackend
 from boresize.registry import BackendRegistry
 

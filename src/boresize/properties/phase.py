@@ -29,7 +29,7 @@ def two_phase_screen(state: FluidState) -> tuple[float, float] | None:
     state whose vapour fraction is known, else None (a pure fluid on its saturation curve)."""
     if state.phase != "two-phase" or state.vapour_fraction is None:
         return None
-    from boresize.criteria.erosional import C_US_TO_SI, erosional_velocity
+    from boresize.hydraulics.erosional import C_US_TO_SI, erosional_velocity
 
     return state.density, erosional_velocity(state.density, SCREEN_C_US * C_US_TO_SI)
 

@@ -13,10 +13,10 @@ from collections.abc import Mapping, Sequence
 from pathlib import Path
 from typing import Any
 
-from boresize.batch import summary
-from boresize.io.results import CAUTION
-from boresize.io.table import case_name, case_rows
-from boresize.lines import parse_header
+from boresize.sizing.batch import summary
+from boresize.io.document import CAUTION
+from boresize.io.sheet_rows import case_name, case_rows
+from boresize.io.rows import parse_header
 from boresize.model import CandidateResult, LineResult
 
 __all__ = ["MAX_PLOTS", "render_html", "write_html"]

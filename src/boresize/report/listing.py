@@ -2,7 +2,7 @@
 
 from __future__ import annotations
 
-from boresize.config import SizingConfig
+from boresize.sizing.services import SizingConfig
 from boresize.plugins import PluginHost
 
 __all__ = ["render_criteria", "render_pipe_classes", "render_nps"]

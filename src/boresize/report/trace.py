@@ -8,7 +8,7 @@ import platform
 from typing import Any
 
 from boresize import __version__
-from boresize.engine import Sizer
+from boresize.sizing.engine import Sizer
 
 __all__ = ["traceability", "LIBRARIES"]
 

@@ -1,0 +1,7 @@
+"""``python -m boresize``: the ``boresize`` command."""
+
+import sys
+
+from boresize.cli.main import main
+
+sys.exit(main())

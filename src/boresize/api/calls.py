@@ -1,0 +1,260 @@
+"""The Python API: build lines from quantities or text, then size or check them, one or many at a time.
+
+What simulation scripts and notebooks call (the CLI is a thin layer over the same engine)::
+
+    line = make_line(tag="P-1", fluid="water", flow="45 t/h", pressure="9 barg", temperature="30 degC")
+    result = size(line)              # a SizingResult: result.nps, result.velocity (pint), result.velocity_m_s
+    results = size_many(lines)       # input order; worker processes by default from PROCESS_THRESHOLD lines
+
+Values are text with a unit ("65 t/h"), pint Quantities from any registry (read by magnitude and unit
+name, so registries never mix), or bare numbers with their unit stated (``units={"flow": "t/h"}``, or
+``si=True`` for SI: kg/s, Pa absolute, K, m, kg/m3, Pa s). A bare number without a unit is an error.
+Every fault is an exception of :mod:`boresize.errors` naming the field and the value; a line that cannot
+be sized in a batch becomes a result with status ``error`` and the batch goes on.
+"""
+
+from __future__ import annotations
+
+import math
+import numbers
+import os
+import re
+from collections.abc import Iterable, Mapping, Sequence
+from concurrent.futures import Executor
+from dataclasses import replace
+from pathlib import Path
+from typing import TYPE_CHECKING, Union
+
+from boresize.api.result import SizingResult
+from boresize.sizing.batch import SizerSpec, run_chunks, shared_sizer, spec_for
+from boresize.errors import InputError, UnitError
+from boresize.model import Line, LineResult
+
+if TYPE_CHECKING:
+    import pint
+
+    from boresize.sizing.engine import Sizer
+
+__all__ = ["PROCESS_THRESHOLD", "SI_UNITS", "check", "default_sizer", "make_line", "quantity_text",
+           "size", "size_many"]
+
+#: Lines from which :func:`size_many` starts worker processes when given no executor nor ``workers``.
+PROCESS_THRESHOLD = 200
+#: Unit of a bare number per field with ``si=True`` (pressures absolute; a bare flow is a mass flow).
+SI_UNITS: dict[str, str] = {
+    "flow": "kg/s", "pressure": "Pa", "temperature": "K", "length": "m", "density": "kg/m3", "viscosity": "Pa*s",
+    "elevation": "m", "fixed_drop": "Pa", "min_outlet_pressure": "Pa", "source_pressure": "Pa",
+    "liquid_level": "m", "npsh_required": "m", "roughness": "m",
+}
+Value = Union[str, float, int, "pint.Quantity[float]", None]
+Item = Union[Line, Sequence[Line]]
+_OFFSET_NAMES = {"delta_degree_Celsius": "delta_degC", "delta_degree_Fahrenheit": "delta_degF",
+                 "degree_Celsius": "degC", "degree_Fahrenheit": "degF", "degree_Rankine": "degR"}
+
+
+# -- building a line ---------------------------------------------------------------------------
+def make_line(tag: str, fluid: str | Mapping[str, float], flow: Value, pressure: Value, temperature: Value, *,
+              units: Mapping[str, str] | None = None, si: bool = False, length: Value = None,
+              service: str | None = None, pipe_class: str | None = None, nps: str | float | None = None,
+              schedule: str | int | None = None, density: Value = None, viscosity: Value = None,
+              design_margin: Value = None, phase: str | None = None, backend: str | None = None,
+              eos: str | None = None, elevation: Value = None, fittings: str | Mapping[str, float] | None = None,
+              fixed_drop: Value = None, min_outlet_pressure: Value = None, source_pressure: Value = None,
+              liquid_level: Value = None, npsh_required: Value = None, roughness: Value = None,
+              case: str | None = None, fittings_method: str | None = None, compressible: str | None = None,
+              extra: Mapping[str, str] | None = None) -> Line:
+    """A validated :class:`~boresize.model.Line` (SI inside) from text, pint Quantities or numbers.
+
+    The fields are the line-list columns of the README (``fluid`` may also be a mapping component ->
+    mole fraction; ``fittings`` a mapping kind -> count). Pressures without a ``g`` are absolute.
+
+    :param units: the unit of a bare number per field, as a header's brackets give it (``{"flow": "t/h"}``)
+    :param si: bare numbers without a unit in ``units`` are in the field's SI unit (:data:`SI_UNITS`)
+    :param extra: further columns kept with the line (e.g. ``{"composition_basis": "mass"}``)
+    :raises InputError: (UnitError for units) naming the line, the field, the value and what was expected
+    """
+    given = dict(locals())
+    _check_units_keys(units or {}, tag)
+    row: dict[str, object] = {}
+    cell_units: dict[str, str | None] = {}
+    for name, value in given.items():
+        if name in ("units", "si", "extra") or value is None:
+            continue
+        row[name], cell_units[name] = _cell(name, value, units or {}, si, tag)
+    for key, value in (extra or {}).items():
+        row[str(key)] = str(value)
+    from boresize.io.rows import line_from_row
+
+    return line_from_row(row, cell_units)
+
+
+def _cell(name: str, value: object, units: Mapping[str, str], si: bool, tag: str) -> tuple[object, str | None]:
+    """The line-list cell of one value, and the unit of a bare number (None when the cell carries it)."""
+    if name == "fluid" and not isinstance(value, str):
+        from boresize.properties.composition import composition_text
+
+        return composition_text(value), None
+    if name == "fittings" and isinstance(value, Mapping):
+        return "; ".join(f"{kind}: {_number_text(count, name, tag)}" for kind, count in value.items()), None
+    if hasattr(value, "magnitude") and hasattr(value, "units"):
+        return quantity_text(value, name, tag), None
+    if isinstance(value, bool) or not isinstance(value, (str, numbers.Real)):
+        raise InputError(f"a {type(value).__name__} is not a value boresize reads", field=name, value=value,
+                         expected="text such as '65 t/h', a pint Quantity, or a number with its unit stated",
+                         tag=str(tag))
+    if isinstance(value, str):
+        return value, units.get(name)
+    unit = units.get(name) or (SI_UNITS.get(name) if si else None)
+    if name in SI_UNITS and unit is None:
+        raise UnitError(f"bare number {value!r} has no unit", field=name, value=value, tag=str(tag),
+                        expected=f"text with its unit, a pint Quantity, units={{'{name}': ...}}, or si=True "
+                        f"for {SI_UNITS[name]}")
+    return _number_text(value, name, tag), unit
+
+
+def _check_units_keys(units: Mapping[str, str], tag: str) -> None:
+    unknown = sorted(set(units) - set(SI_UNITS))
+    if unknown:
+        raise InputError(f"units given for {', '.join(map(repr, unknown))}, which take no unit", field="units",
+                         value=dict(units), expected=f"units for {', '.join(SI_UNITS)}", tag=str(tag))
+
+
+def _number_text(value: object, field: str, tag: str) -> str:
+    """A real number as exact text ("65", "0.1"); numpy scalars too."""
+    if isinstance(value, bool) or not isinstance(value, numbers.Real):
+        raise InputError(f"{value!r} is not a number", field=field, value=value, expected="a real number",
+                         tag=str(tag))
+    if isinstance(value, numbers.Integral):
+        return str(int(value))
+    number = float(value)
+    if not math.isfinite(number):
+        raise InputError(f"{value!r} is not a finite number", field=field, value=value, expected="a finite number",
+                         tag=str(tag))
+    return repr(number)
+
+
+def quantity_text(quantity: object, field: str, tag: str = "(untagged)") -> str:
+    """A pint Quantity of any registry as line-list text: "65.0 metric_ton/hour", "20.0 degC".
+
+    Only the magnitude and the unit's name cross over, so boresize's registry never meets the caller's.
+    :raises InputError: a magnitude that is not one real number (an array, a string)
+    """
+    magnitude = getattr(quantity, "magnitude")
+    unit = format(getattr(quantity, "units"), "C")
+    unit = re.sub(r"[A-Za-z_]+", lambda m: _OFFSET_NAMES.get(m.group(0), m.group(0)), unit)
+    number = _number_text(magnitude, field, tag)
+    return number if unit in ("", "dimensionless") else f"{number} {unit}"
+
+
+# -- one line ----------------------------------------------------------------------------------
+def size(line: Item, *, criteria: str | Path | None = None, plugins: bool = True,
+         sizer: Sizer | None = None) -> SizingResult:
+    """Size a line (or check the NPS it gives); a list of Lines with one tag is one line's operating cases.
+
+    A fault on the line (an unknown fluid, a fluid in the wrong phase) is a result with status
+    ``error``; :meth:`SizingResult.raise_for_error` turns it into an exception.
+
+    :param criteria: a criteria TOML file (the shipped sets when None)
+    :param plugins: False to use only boresize's built-in plugins (no entry points)
+    :param sizer: an engine to use instead of one built from ``criteria`` and ``plugins``
+    :raises InputError: (field "line") something that is not a Line or a list of one line's cases
+    """
+    if sizer is not None and criteria is not None:
+        raise InputError("both a sizer and a criteria file given", field="criteria", value=str(criteria),
+                         expected="one of them: a Sizer already holds its criteria")
+    item = _item(line, 1)
+    engine = sizer or default_sizer(spec_for(criteria, plugins, None))
+    return SizingResult.of(_run_item(engine, item))
+
+
+def check(line: Item, nps: str | float | None = None, *, schedule: str | int | None = None,
+          criteria: str | Path | None = None, plugins: bool = True, sizer: Sizer | None = None) -> SizingResult:
+    """Check the line at ``nps`` (in ``schedule``, else the pipe class's), or at the NPS the line gives.
+
+    :raises InputError: an unknown NPS or schedule, or no NPS at all (field "nps")
+    """
+    from boresize.pipes import normalise_nps, normalise_schedule
+
+    item = _item(line, 1)
+    lines = [item] if isinstance(item, Line) else list(item)
+    given = normalise_nps(nps) if nps is not None else lines[0].nps
+    if given is None:
+        raise InputError("no NPS to check", field="nps", value=None, tag=lines[0].tag,
+                         expected="nps= or a line that gives its NPS (size() sizes a line)")
+    wall = normalise_schedule(schedule) if schedule is not None else None
+    lines = [replace(one, nps=given, schedule=wall or one.schedule) for one in lines]
+    return size(lines[0] if isinstance(item, Line) else lines, criteria=criteria, plugins=plugins, sizer=sizer)
+
+
+def default_sizer(spec: SizerSpec) -> Sizer:
+    """The sizer of this process for ``spec`` (built once: loading plugins and criteria costs time)."""
+    return shared_sizer(spec)
+
+
+def _item(value: object, position: int) -> Item:
+    """A Line, or a non-empty list of Lines sharing one tag (one line's cases)."""
+    if isinstance(value, Line):
+        return value
+    if isinstance(value, Sequence) and not isinstance(value, str) and value \
+            and all(isinstance(v, Line) for v in value):
+        tags = {v.tag for v in value}
+        if len(tags) == 1:
+            return tuple(value)
+        raise InputError(f"the cases of item {position} have different tags: {', '.join(sorted(tags))}",
+                         field="line", value=sorted(tags), expected="one tag for every case of a line")
+    raise InputError(f"item {position} is a {type(value).__name__}, not a Line", field="line",
+                     value=repr(value)[:80], expected="a Line from make_line() or line_from_stream(), or a "
+                     "list of one line's cases")
+
+
+def _run_item(sizer: Sizer, item: Item) -> LineResult:
+    return sizer.run_safely(item) if isinstance(item, Line) else sizer.run_cases(list(item))
+
+
+# -- many lines --------------------------------------------------------------------------------
+def size_many(lines: Iterable[Item], executor: Executor | None = None, *, workers: int | None = None,
+              criteria: str | Path | None = None, plugins: bool = True,
+              chunk_size: int | None = None) -> list[SizingResult]:
+    """Size (or check) many lines; one result per item, in input order.
+
+    :param lines: Lines, or lists of one line's operating cases
+    :param executor: any :class:`concurrent.futures.Executor` (a thread or process pool, a dask
+        client's ``get_executor()``); it is not shut down here. Workers build their own sizer from
+        ``criteria`` (give a path every worker can read) and ``plugins``.
+    :param workers: processes to size on when no executor is given, this one included (it starts
+        ``workers - 1``); default: one per CPU from :data:`PROCESS_THRESHOLD` lines, else 1 (this one)
+    :param chunk_size: lines per task (default: about eight tasks per worker, 1 to 64 lines each)
+    :raises InputError: an item that is not a line, an executor that is not one, workers below 1
+    :raises BoresizeError: a worker process died
+    """
+    items = [_item(value, i) for i, value in enumerate(lines, start=1)]
+    spec = spec_for(criteria, plugins, None)
+    if executor is not None and not isinstance(executor, Executor):
+        raise InputError(f"a {type(executor).__name__} is not an executor", field="executor",
+                         value=repr(executor)[:80], expected="a concurrent.futures.Executor or None")
+    if workers is not None and (isinstance(workers, bool) or not isinstance(workers, int) or workers < 1):
+        raise InputError(f"workers {workers!r} is not a whole number of 1 or more", field="workers", value=workers,
+                         expected="1 or more worker processes, or None")
+    count = workers or ((os.cpu_count() or 1) if len(items) >= PROCESS_THRESHOLD else 1)
+    if executor is None and (count == 1 or len(items) < 2):
+        sizer = default_sizer(spec)
+        return [SizingResult.of(_run_item(sizer, item)) for item in items]
+    return [SizingResult.of(r) for r in _run_parallel(items, spec, executor, count, chunk_size)]
+
+
+def _run_chunk(spec: SizerSpec, chunk: Sequence[Item]) -> list[LineResult]:
+    """A worker's task: size a chunk of items with the worker's own sizer (plain LineResults travel back)."""
+    sizer = default_sizer(spec)
+    return [_run_item(sizer, item) for item in chunk]
+
+
+def _run_parallel(items: list[Item], spec: SizerSpec, executor: Executor | None, workers: int,
+                  chunk_size: int | None) -> list[LineResult]:
+    head: list[LineResult] = []
+    if executor is None:  # size one line here first: forked workers inherit the property libraries it loaded
+        head = _run_chunk(spec, items[:1])
+        items = items[1:]
+    size = chunk_size or max(1, min(64, math.ceil(len(items) / (max(workers, 4) * 8))))
+    chunks = [items[i:i + size] for i in range(0, len(items), size)]
+    return head + run_chunks(_run_chunk, spec, chunks, executor=executor, workers=workers, retry_hint="workers=1",
+                             local=lambda chunk: _run_chunk(spec, chunk))

@@ -1,0 +1,7 @@
+"""``python -m boresize.cli``: the ``boresize`` command."""
+
+import sys
+
+from boresize.cli.main import main
+
+sys.exit(main())

@@ -1,0 +1,130 @@
+"""The ``boresize`` command: a thin shell over the Python API.
+
+Exit codes: 0 every line passed, 1 a line failed or errored, 2 a usage error (bad option, unreadable
+file, bad criteria file). No Python traceback reaches the user: faults of boresize's own error tree are
+printed as one message; anything else is reported as an internal error with a request to report it.
+"""
+
+from __future__ import annotations
+
+import argparse
+import json
+import os
+import sys
+from collections.abc import Sequence
+
+from boresize import __version__
+from boresize.cli.commands import UsageError
+from boresize.errors import BoresizeError
+
+__all__ = ["main", "build_parser"]
+
+CAUTION_SHORT = ("Screening calculations: check them against the applicable codes and your company's standards "
+                 "(a competent engineer must review them; local codes govern).")
+
+SINGLE_LINE_FIELDS = (
+    ("tag", "line tag (default: LINE-1)"), ("fluid", "fluid name, CoolProp name or CAS number"),
+    ("flow", "flow with its unit: '65 t/h', '120 m3/h', '2 MMSCFD'"),
+    ("pressure", "inlet pressure: '10 barg', '1100 kPa' (bare bar, kPa, psi are absolute)"),
+    ("temperature", "temperature: '40 degC', '313 K', '100 degF'"), ("length", "straight length: '120 m'"),
+    ("service", "criteria set (see 'boresize criteria')"), ("pipe-class", "pipe class (see 'boresize pipes')"),
+    ("nps", "check this NPS instead of sizing"), ("density", "given density: '850 kg/m3'"),
+    ("viscosity", "given viscosity: '1.2 cP'"), ("design-margin", "margin on flow: '10 %%'"),
+    ("phase", "liquid or gas: what the line must carry"), ("backend", "property backend id"),
+    ("schedule", "schedule of the NPS to check (default: the pipe class's)"),
+)
+
+
+def build_parser() -> argparse.ArgumentParser:
+    parser = argparse.ArgumentParser(
+        prog="boresize",
+        description="Size and check process piping lines from stream conditions.",
+        epilog=CAUTION_SHORT,
+    )
+    parser.add_argument("--version", action="version", version=f"boresize {__version__}")
+    sub = parser.add_subparsers(dest="command", metavar="COMMAND")
+    size = sub.add_parser("size", help="size (or check) the lines of a line list, or one line from options",
+                          epilog=CAUTION_SHORT)
+    size.add_argument("lines", nargs="?", help="line list: CSV, XLSX or TOML (omit to give one line with the "
+                                               "options below)")
+    size.add_argument("--criteria", metavar="FILE.toml", help="criteria sets and pipe classes to use")
+    size.add_argument("--json", action="store_true", help="print one JSON document instead of the table")
+    size.add_argument("--no-plugins", action="store_true", help="use only boresize's built-in plugins")
+    _add_run_options(size)
+    single = size.add_argument_group("one line from options")
+    for name, text in SINGLE_LINE_FIELDS:
+        single.add_argument(f"--{name}", help=text)
+    crit = sub.add_parser("criteria", help="list the installed criteria and the criteria sets by service")
+    crit.add_argument("--criteria", metavar="FILE.toml", help="a criteria file to list as well")
+    crit.add_argument("--no-plugins", action="store_true", help="use only boresize's built-in plugins")
+    pipes = sub.add_parser("pipes", help="list pipe classes, or the catalogue sizes of one NPS")
+    pipes.add_argument("--criteria", metavar="FILE.toml", help="a criteria file whose pipe classes to list")
+    pipes.add_argument("--nps", help="show every schedule of this NPS (ASME B36.10M / B36.19M)")
+    pipes.add_argument("--no-plugins", action="store_true", help="use only boresize's built-in plugins")
+    _add_diff(sub.add_parser("diff", help="compare two revisions: result JSON files, or line lists (sized first)",
+                             epilog="Exit code 0 when nothing changed, 1 when something did, 2 for a usage error."))
+    return parser
+
+
+def _add_diff(diff: argparse.ArgumentParser) -> None:
+    diff.add_argument("old", help="the earlier revision: results .json, or a line list (.csv, .xlsx, .toml)")
+    diff.add_argument("new", help="the later revision, likewise")
+    diff.add_argument("--criteria", metavar="FILE.toml", help="criteria for sizing a line list")
+    diff.add_argument("--json", action="store_true", help="print the differences as one JSON document")
+    diff.add_argument("--no-plugins", action="store_true", help="use only boresize's built-in plugins")
+    diff.add_argument("--workers", type=int, default=1, metavar="N", help="processes for sizing line lists (this one and N-1 started)")
+
+
+def _add_run_options(size: argparse.ArgumentParser) -> None:
+    size.add_argument("--output", "-o", action="append", default=[], metavar="FILE",
+                      help="write the results to FILE: .json, .csv, .xlsx (with a candidates sheet) or .html "
+                           "(the calculation report); repeat for several")
+    size.add_argument("--workers", type=int, default=1, metavar="N",
+                      help="size on N processes: this one and N-1 started for the run (default 1: this one)")
+    size.add_argument("--progress", action=argparse.BooleanOptionalAction, default=None,
+                      help="show a progress bar on stderr (default: on a terminal, for 50 lines or more)")
+    size.add_argument("--corroded-roughness", metavar="LENGTH",
+                      help="check lines that give an NPS with this absolute roughness, e.g. '0.5 mm' "
+                           "(a line's own roughness column wins)")
+    size.add_argument("--every-size", action="store_true",
+                      help="rate every size of the pipe class from the smallest, instead of walking from the "
+                           "first-guess diameter (same selection, slower; the record shows every size below)")
+    size.add_argument("--headroom", action="store_true",
+                      help="also rate each line at its size: how much more flow (%% of the design flow) it "
+                           "carries before a criterion fails")
+
+
+def main(argv: Sequence[str] | None = None) -> int:
+    try:
+        return _dispatch(build_parser(), argv)
+    except (UsageError, BoresizeError) as exc:
+        print(f"boresize: error: {exc}", file=sys.stderr)
+        return 2
+    except KeyboardInterrupt:
+        print("boresize: interrupted", file=sys.stderr)
+        return 130
+    except Exception as exc:  # the last guard: no traceback reaches the user
+        print(f"boresize: internal error {type(exc).__name__}: {exc}\nPlease report it with the input that "
+              f"caused it; run with BORESIZE_DEBUG=1 for the traceback.", file=sys.stderr)
+        if os.environ.get("BORESIZE_DEBUG"):
+            raise
+        return 2
+
+
+def _dispatch(parser: argparse.ArgumentParser, argv: Sequence[str] | None) -> int:
+    args = parser.parse_args(argv)
+    if args.command is None:
+        parser.print_help()
+        return 2
+    from boresize.cli import commands
+
+    return int(getattr(commands, f"run_{args.command}")(args))
+
+
+def print_json(payload: object) -> None:
+    json.dump(payload, sys.stdout, indent=2, ensure_ascii=False)
+    sys.stdout.write("\n")
+
+
+if __name__ == "__main__":  # pragma: no cover
+    sys.exit(main())

@@ -1,0 +1,227 @@
+"""Turning one line-list row (text cells) into a validated :class:`~boresize.model.Line` in SI.
+
+Header names are case-insensitive and may carry a default unit in brackets (``flow [t/h]``).
+A cell may carry its own unit (``65 t/h``), which wins over the header's. Every dimensional
+field needs a unit from one of the two: a bare number is an error, never a guess.
+"""
+
+from __future__ import annotations
+
+import math
+import re
+from collections.abc import Mapping
+from dataclasses import dataclass
+
+from boresize.errors import InputError
+from boresize.model import Flow, Line
+from boresize.pipes import normalise_nps, normalise_schedule
+from boresize.units import parse_flow, parse_quantity
+
+__all__ = ["COLUMNS", "Header", "parse_header", "line_from_row", "DEFAULT_LENGTH_M"]
+
+COLUMNS = (
+    "tag", "fluid", "flow", "pressure", "temperature", "length", "service", "pipe_class", "nps",
+    "density", "viscosity", "design_margin", "phase", "backend", "eos", "elevation", "fittings", "fixed_drop",
+    "min_outlet_pressure", "source_pressure", "liquid_level", "npsh_required", "roughness", "case", "schedule",
+    "fittings_method", "compressible",
+)
+# Optional quantities: column -> (quantity kind, must be above zero, example for messages)
+OPTIONAL_QUANTITIES = {
+    "elevation": ("length", False, "outlet minus inlet elevation, rise positive, e.g. '12 m' or '-3 m'"),
+    "fixed_drop": ("pressure_difference", False, "equipment and control-valve allowances, e.g. '0.7 bar'"),
+    "min_outlet_pressure": ("pressure", True, "lowest pressure at the line end, e.g. '2 barg'"),
+    "source_pressure": ("pressure", True, "pressure of the vessel a pump draws from, e.g. '0.5 barg'"),
+    "liquid_level": ("length", False, "liquid level above the pump datum, e.g. '4 m'"),
+    "npsh_required": ("length", True, "NPSH required by the pump, e.g. '3.5 m'"),
+    "roughness": ("length", True, "absolute roughness replacing the pipe class's, e.g. '0.5 mm'"),
+}
+_COLUMN_SET = frozenset(COLUMNS)
+REQUIRED = ("tag", "fluid", "flow", "pressure", "temperature")
+#: Key under which a reader keeps a row's non-empty cells that no header names. Such a row is
+#: refused: a decimal comma or an unquoted separator shifts every cell after it into the wrong column.
+BEYOND_HEADER = "(beyond the header)"
+#: Key under which :func:`boresize.sizing.cases.group_rows` marks a row whose tag an earlier line already has
+#: (same tag, no case or a different line); its value names that earlier row.
+DUPLICATE_TAG = "(tag given before)"
+DEFAULT_LENGTH_M = 100.0
+_HEADER = re.compile(r"^\s*([^\[\]]*?)\s*(?:\[(.*)\])?\s*$")
+
+
+@dataclass(frozen=True)
+class Header:
+    """A column: the field it feeds (lower case, spaces and dashes as ``_``) and its default unit."""
+
+    field: str
+    unit: str | None
+    text: str
+
+
+def parse_header(text: str) -> Header:
+    """``"Flow [t/h]"`` -> Header("flow", "t/h"); ``"Pipe Class"`` -> Header("pipe_class", None)."""
+    match = _HEADER.match(text or "")
+    name = (match.group(1) if match else text).strip().lower()
+    name = re.sub(r"[\s\-]+", "_", name)
+    unit = match.group(2).strip() if match and match.group(2) else None
+    return Header(field=name, unit=unit or None, text=text)
+
+
+def _text(row: Mapping[str, object], name: str) -> str | None:
+    value = row.get(name)
+    if value is None:
+        return None
+    if isinstance(value, float) and math.isnan(value):
+        return None
+    text = str(value).strip()
+    return text or None
+
+
+def _cells(row: Mapping[str, object]) -> dict[str, str]:
+    """Every non-empty cell of ``row`` as stripped text (what :func:`_text` gives), read once per row."""
+    return {name: text for name in row if (text := _text(row, name)) is not None}
+
+
+def _positive(value: float, field: str, raw: object, expected: str) -> float:
+    if not value > 0:
+        raise InputError(f"{raw!r} is not above zero", field=field, value=raw, expected=expected)
+    return value
+
+
+def _flow(raw: str, unit: str | None) -> Flow:
+    flow = parse_flow(raw, "flow", unit)
+    _positive(flow.value, "flow", raw, "a flow above zero, e.g. '65 t/h'")
+    return flow
+
+
+def _optional_quantity(cells: Mapping[str, str], units: Mapping[str, str | None], name: str,
+                       kind: str, expected: str) -> float | None:
+    raw = cells.get(name)
+    if raw is None:
+        return None
+    value = parse_quantity(raw, name, kind, units.get(name))  # type: ignore[arg-type]
+    return _positive(value, name, raw, expected)
+
+
+def _choice(cells: Mapping[str, str], name: str, allowed: tuple[str, ...]) -> str | None:
+    raw = cells.get(name)
+    if raw is None:
+        return None
+    if raw.lower() not in allowed:
+        raise InputError(f"unknown {name} {raw!r}", field=name, value=raw, expected=f"one of {', '.join(allowed)}")
+    return raw.lower()
+
+
+def line_from_row(row: Mapping[str, object], units: Mapping[str, str | None] | None = None,
+                  position: int | None = None) -> Line:
+    """Validate one row (field name -> cell) into a Line.
+
+    :param units: default unit per field, from the header brackets
+    :param position: 1-based row number, used to name a line that has no tag
+    :raises InputError: naming the line, the field, the value and what was expected
+    """
+    units = units or {}
+    cells = _cells(row)
+    tag = cells.get("tag") or (f"row {position}" if position is not None else "(untagged)")
+    try:
+        if BEYOND_HEADER in cells:
+            raise InputError(f"cells {row[BEYOND_HEADER]} lie outside the header's columns", field="row",
+                             value=row[BEYOND_HEADER], expected="one cell per column; quote a cell that holds the "
+                             "separator (a decimal comma such as 1,5 splits a cell in two)")
+        if DUPLICATE_TAG in cells:
+            raise InputError(f"tag {tag!r} is already the tag of the line in {row[DUPLICATE_TAG]}", field="tag",
+                             value=tag, expected="each tag once; rows of one line's operating cases each name "
+                             "their case in the case column")
+        for name in REQUIRED:
+            if name not in cells:
+                raise InputError("missing value", field=name, value="", expected=_EXPECTED[name])
+        length = _optional_quantity(cells, units, "length", "length", "a length above zero, e.g. '120 m'")
+        margin_raw = cells.get("design_margin")
+        margin = parse_quantity(margin_raw, "design_margin", "dimensionless") if margin_raw else None
+        if margin is not None and not 0 <= margin < 1:
+            raise InputError(f"{margin_raw!r} is outside 0 to 100 %", field="design_margin", value=margin_raw,
+                             expected="a fraction of the flow such as '10 %' or 0.1")
+        nps_raw, schedule = cells.get("nps"), cells.get("schedule")
+        optional = _optional_fields(cells, units)
+        return Line(
+            tag=tag,
+            fluid=cells["fluid"],
+            flow=_flow(cells["flow"], units.get("flow")),
+            pressure=parse_quantity(cells["pressure"], "pressure", "pressure", units.get("pressure")),
+            temperature=parse_quantity(cells["temperature"], "temperature", "temperature",
+                                       units.get("temperature")),
+            length=length if length is not None else DEFAULT_LENGTH_M,
+            service=cells.get("service"),
+            pipe_class=cells.get("pipe_class"),
+            nps=normalise_nps(nps_raw) if nps_raw else None,
+            density=_optional_quantity(cells, units, "density", "density", "a density above zero, e.g. '850 kg/m3'"),
+            viscosity=_optional_quantity(cells, units, "viscosity", "viscosity", "a viscosity above zero, e.g. '1.2 cP'"),
+            design_margin=margin,
+            phase=_choice(cells, "phase", ("liquid", "gas")),  # type: ignore[arg-type]
+            backend=cells.get("backend"),
+            eos=cells.get("eos"),
+            fittings=parse_fittings(cells.get("fittings")),
+            fittings_method=_fittings_method(cells.get("fittings_method")),
+            compressible=_choice(cells, "compressible", ("isothermal", "adiabatic")),
+            case=cells.get("case"),
+            schedule=normalise_schedule(schedule, "schedule") if schedule else None,
+            **optional,
+            extra=tuple((k, str(v)) for k, v in row.items() if k not in _COLUMN_SET and v not in (None, "")),
+        )
+    except InputError as exc:
+        raise exc.for_line(tag) from None
+
+
+def _optional_fields(cells: Mapping[str, str], units: Mapping[str, str | None]) -> dict[str, float]:
+    values: dict[str, float] = {}
+    for name, (kind, positive, example) in OPTIONAL_QUANTITIES.items():
+        raw = cells.get(name)
+        if raw is None:
+            continue
+        value = parse_quantity(raw, name, kind, units.get(name))  # type: ignore[arg-type]
+        values[name] = _positive(value, name, raw, example) if positive else value
+    return values
+
+
+def _fittings_method(raw: str | None) -> str | None:
+    """The fittings method id ("darby-3k", "hooper-2k", "crane"), None when the cell is empty."""
+    if not raw:
+        return None
+    from boresize.hydraulics.fittings import normalise_method  # lazy: the hydraulics package loads scipy
+
+    return normalise_method(raw)
+
+
+def parse_fittings(text: str | None) -> tuple[tuple[str, float], ...]:
+    """``"elbow-90-lr: 4; gate: 2"`` (``;`` or ``|`` between items) -> (("elbow-90-lr", 4.0), ("gate", 2.0)).
+
+    A kind without a count counts once. The kinds are checked by the fittings method, not here.
+    Explicit items ``K=2.5``, ``Leq=12 m``, ``L/D=340``, ``Kv=500``, ``Cv=580`` keep their ``=`` (see
+    :mod:`boresize.hydraulics.fittings`).
+    """
+    if not text:
+        return ()
+    pairs = []
+    for item in re.split(r"[;|]", text):
+        item = item.strip()
+        if not item:
+            continue
+        explicit = re.match(r"(?i)\s*(k|leq|l/d|kv|cv)\s*=", item)  # "K=2.5", "Leq=12 m": no count after "="
+        kind, _, count = item.partition(":") if ":" in item or explicit else item.partition("=")
+        try:
+            number = float(count) if count.strip() else 1.0
+        except ValueError:
+            raise InputError(f"count {count.strip()!r} of {kind.strip()!r} is not a number", field="fittings",
+                             value=text, expected="items such as 'elbow-90-lr: 4; gate: 2'") from None
+        if not (number > 0 and math.isfinite(number)):
+            raise InputError(f"count of {kind.strip()!r} must be above zero", field="fittings", value=text,
+                             expected="items such as 'elbow-90-lr: 4; gate: 2'")
+        pairs.append((kind.strip().lower(), number))
+    return tuple(pairs)
+
+
+_EXPECTED = {
+    "tag": "a line tag such as '6\"-P-1001'",
+    "fluid": "a fluid name (water, methane), CoolProp name or CAS number",
+    "flow": "a flow with its unit, e.g. '65 t/h', '120 m3/h' or '2 MMSCFD'",
+    "pressure": "an inlet pressure with its unit, e.g. '10 barg' or '1100 kPa' (bare bar/kPa are absolute)",
+    "temperature": "a temperature with its unit, e.g. '40 degC'",
+}

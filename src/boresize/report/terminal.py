@@ -1,0 +1,52 @@
+"""The sized line list as a plain-text table, with errors and the caution below it."""
+
+from __future__ import annotations
+
+from collections.abc import Sequence
+
+from boresize.sizing.services import SizingConfig
+from boresize.io.document import CAUTION
+from boresize.model import LineResult
+
+__all__ = ["render_table"]
+
+COLUMNS = ("Tag", "Service", "Status", "NPS", "Sch", "ID mm", "v m/s", "dP kPa/100m", "rho kg/m3", "mu cP",
+           "Controlling", "Source")
+
+
+def _row(r: LineResult) -> tuple[str, ...]:
+    sel, state = r.selected, r.state
+    if sel is None or state is None:
+        return (r.tag, r.service or "-", r.status.upper(), "-", "-", "-", "-", "-", "-", "-", "-", "-")
+    h, worst = sel.hydraulics, sel.worst
+    controlling = f"{worst.criterion} {worst.utilisation:.0%}" if worst and worst.utilisation is not None else "-"
+    if r.cases and r.line is not None and r.line.case:
+        controlling += f" ({r.line.case})"  # the governing case of a line with several
+    status = r.status.upper() + (" (check)" if r.mode == "check" else "")
+    return (r.tag, r.service or "-", status, sel.candidate.nps, sel.candidate.schedule,
+            f"{sel.candidate.inside_diameter * 1e3:.1f}", f"{h.velocity:.2f}", f"{h.drop_per_length / 10:.1f}",
+            f"{state.density:.4g}", f"{state.viscosity * 1e3:.3g}", controlling, state.source)
+
+
+def render_table(results: Sequence[LineResult], config: SizingConfig) -> str:
+    rows = [COLUMNS] + [_row(r) for r in results]
+    widths = [max(len(row[i]) for row in rows) for i in range(len(COLUMNS))]
+    out = ["  ".join(cell.ljust(w) for cell, w in zip(row, widths)).rstrip() for row in rows]
+    out.insert(1, "  ".join("-" * w for w in widths))
+    counts = {s: sum(1 for r in results if r.status == s) for s in ("pass", "fail", "error")}
+    out.append("")
+    out.append(f"{len(results)} lines: {counts['pass']} pass, {counts['fail']} fail, {counts['error']} error   "
+               f"(criteria: {config.origin}, set {config.version})")
+    details = [r for r in results if r.status != "pass" or r.notes]
+    for r in details:
+        if r.error:
+            out.append(f"  ERROR {r.error}")
+            continue
+        failing = [v for v in (r.selected.verdicts if r.selected else ()) if v.status in ("fail", "error")]
+        for v in failing:
+            out.append(f"  {r.status.upper()} {r.tag}: {v.criterion}: {v.reason}")
+        for note in r.notes:
+            out.append(f"  note {r.tag}: {note}")
+    out.append("")
+    out.append("CAUTION: " + CAUTION)
+    return "\n".join(out) + "\n"

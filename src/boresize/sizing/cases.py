@@ -1,0 +1,154 @@
+"""Operating cases: several rows of a line list that share a tag and name a ``case``.
+
+A line is often given for several operating cases (normal, maximum, minimum, start-up ...), each
+with its own flow, pressure and temperature. They are one line: the size chosen is the smallest that
+passes every case, and for each criterion the case with the highest utilisation at that size governs
+it. These helpers group rows into lines and combine per-case results; the engine does the rating.
+
+A row without a ``case`` value is a line of its own, exactly as before cases existed (two such rows
+with the same tag stay two lines, and the second is refused as a duplicate tag).
+"""
+
+from __future__ import annotations
+
+from collections.abc import Iterable, Mapping, Sequence
+from dataclasses import replace
+
+from boresize.errors import InputError
+from boresize.io.rows import DUPLICATE_TAG
+from boresize.model import CandidateResult, Line, LineResult
+
+__all__ = ["Row", "group_rows", "check_cases", "name_cases", "common_index", "combine", "case_error",
+           "cases_error"]
+
+#: One input row: (1-based position, field -> cell, field -> default unit).
+Row = tuple[int, Mapping[str, object], Mapping[str, "str | None"]]
+
+
+def _cell(row: Mapping[str, object], name: str) -> str:
+    value = row.get(name)
+    return "" if value is None else str(value).strip()
+
+
+def group_rows(pairs: Iterable[tuple[Mapping[str, object], Mapping[str, str | None]]]) -> list[list[Row]]:
+    """Group rows into lines, in the order of each line's first row.
+
+    Rows with the same tag and a non-empty ``case`` are one line; every other row is a line alone.
+    """
+    groups: list[list[Row]] = []
+    by_tag: dict[str, list[Row]] = {}
+    first: dict[str, int] = {}  # tag -> the row that began its line: a later line with that tag is refused
+    for position, (row, units) in enumerate(pairs, start=1):
+        tag, case = _cell(row, "tag"), _cell(row, "case")
+        if tag and case and tag in by_tag:
+            by_tag[tag].append((position, row, units))
+            continue
+        if tag in first:
+            row = {**row, DUPLICATE_TAG: f"row {first[tag]}"}
+        elif tag:
+            first[tag] = position
+        group: list[Row] = [(position, row, units)]
+        groups.append(group)
+        if tag and case:
+            by_tag[tag] = group
+    return groups
+
+
+def name_cases(lines: Sequence[Line]) -> tuple[Line, ...]:
+    """Give an unnamed case the name ``case N`` (N its 1-based place), so every case can be named."""
+    return tuple(line if line.case else replace(line, case=f"case {i}") for i, line in enumerate(lines, start=1))
+
+
+def check_cases(lines: Sequence[Line]) -> None:
+    """The cases of one line must name each case once and agree on the pipe (class, NPS, schedule).
+
+    :raises InputError: naming the field at fault and the values the cases give
+    """
+    tag = lines[0].tag
+    names = [line.case for line in lines]
+    twice = [name for name in names if names.count(name) > 1]
+    if twice:
+        raise InputError(f"case {twice[0]!r} appears {names.count(twice[0])} times", field="case", value=twice[0],
+                         expected="each case name once per line").for_line(tag)
+    for name in ("pipe_class", "nps", "schedule"):
+        given = {getattr(line, name) for line in lines}
+        if len(given) > 1:
+            shown = ", ".join(f"{getattr(line, name) or '(none)'} (case {line.case})" for line in lines)
+            raise InputError(f"the cases give different values: {shown}", field=name, value=shown,
+                             expected=f"one {name} for every case of a line (a line is one pipe)").for_line(tag)
+
+
+def _clean(result: CandidateResult) -> bool:
+    return result.worst is not None and not any(v.status == "error" for v in result.verdicts)
+
+
+def common_index(rated: Sequence[Sequence[CandidateResult]], mode: str) -> tuple[int | None, bool]:
+    """Index of the candidate to show for every case, and whether every case passes there.
+
+    Size mode: the smallest candidate that every case passes; when none does, the candidate whose
+    highest utilisation over the cases is lowest (None if no candidate could be rated in every case).
+    Check mode: the one candidate the line gives.
+    """
+    if mode == "check":
+        return 0, all(r[0].passed for r in rated)
+    count = min(len(r) for r in rated)
+    for i in range(count):
+        if all(r[i].passed for r in rated):
+            return i, True
+    scores = [(max(r[i].worst.utilisation or 0.0 for r in rated), i)  # type: ignore[union-attr]
+              for i in range(count) if all(_clean(r[i]) for r in rated)]
+    return (min(scores)[1] if scores else None), False
+
+
+def _governing(cases: Sequence[LineResult]) -> dict[str, tuple[float, str]]:
+    """Per criterion id: (highest utilisation at the selected size, the case it comes from)."""
+    best: dict[str, tuple[float, str]] = {}
+    for case in cases:
+        for verdict in case.selected.verdicts if case.selected else ():
+            if verdict.utilisation is None:
+                continue
+            if verdict.criterion not in best or verdict.utilisation > best[verdict.criterion][0]:
+                best[verdict.criterion] = (verdict.utilisation, str(case.line.case if case.line else ""))
+    return best
+
+
+def combine(cases: Sequence[LineResult], passed: bool, mode: str) -> LineResult:
+    """One line's result from its case results (all rated at the same candidate).
+
+    The line's own fields come from the governing case: the one whose worst utilisation is highest
+    (the first such case in input order on a tie). Status: pass only when every case passes.
+    """
+    def worst(case: LineResult) -> float:
+        w = case.selected.worst if case.selected else None
+        return w.utilisation if w is not None and w.utilisation is not None else float("-inf")
+
+    main = max(cases, key=worst)
+    notes = []
+    if not passed and mode == "size" and main.selected is not None:
+        notes.append(f"no size the pipe class allows passes every case; closest is NPS {main.selected.candidate.nps}")
+    notes += [f"case {c.line.case if c.line else '?'}: {note}" for c in cases for note in c.notes]
+    governing = tuple((criterion, case) for criterion, (_, case) in _governing(cases).items())
+    return replace(main, status="pass" if passed else "fail", notes=tuple(notes), cases=tuple(cases),
+                   governing=governing, raw={})
+
+
+def case_error(result: LineResult, case: str) -> LineResult:
+    """An error result of one case, its message naming the case after the line tag."""
+    message = result.error or "error"
+    prefix = f"line {result.tag}: "
+    if message.startswith(prefix):
+        message = f"line {result.tag}, case {case}: {message[len(prefix):]}"
+    else:
+        message = f"case {case}: {message}"
+    line = replace(result.line, case=case) if result.line is not None else None
+    return replace(result, error=message, line=line)
+
+
+def cases_error(tag: str, cases: Sequence[LineResult], mode: str, message: str | None = None,
+                field: str | None = None) -> LineResult:
+    """The error result of a line whose case(s) could not be rated; ``cases`` keeps every case's result."""
+    failed = [c for c in cases if c.status == "error"]
+    first = failed[0] if failed else None
+    return LineResult(tag=tag, status="error", mode=mode,  # type: ignore[arg-type]
+                      line=first.line if first else None, error=message or (first.error if first else None),
+                      error_field=field or (first.error_field if first else None), cases=tuple(cases))

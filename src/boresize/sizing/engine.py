@@ -1,0 +1,344 @@
+"""Size or check lines: properties, candidates, hydraulics, verdicts, selection.
+
+Sizing picks the smallest allowed candidate that every applicable criterion passes. Checking
+judges the one size the line gives (``nps``). Every candidate is rated with the exact Colebrook
+friction factor; the Swamee-Jain diameter is only a first guess shown in the record.
+"""
+
+from __future__ import annotations
+
+import math
+from bisect import bisect_left
+from collections.abc import Iterable, Mapping, Sequence
+from dataclasses import replace
+from pathlib import Path
+from typing import Any, NamedTuple
+
+from boresize.sizing import cases as _cases
+from boresize.sizing.services import Service, SizingConfig, load_config
+from boresize.criteria.base import CriterionContext
+from boresize.errors import BoresizeError, InputError
+from boresize.hydraulics import swamee_jain_diameter
+from boresize.hydraulics.darcy import require_roughness
+from boresize.hydraulics.line import is_gas, needs_march, rate_line
+from boresize.model import Candidate, CandidateResult, FluidState, Hydraulics, Line, LineResult, Verdict
+from boresize.pipes import PipeClass
+from boresize.plugins import PluginHost
+from boresize.sizing.selection import build_result, error_result, error_verdict, internal_error, select, verdict_fault
+from boresize.properties.select import choose_backend, fluid_state, mass_flow_of
+from boresize.sizing.scan import RATED_ABOVE, BandsMemo, criterion_trends, rated_span, start_diameter
+from boresize.sizing.service_phase import check_phase, default_service, phase_group
+
+__all__ = ["RATED_ABOVE", "Sizer"]
+
+
+
+class _Prepared(NamedTuple):
+    """One line case made ready for rating (SI): properties, service, pipe class, sizing mass flow [kg/s]."""
+
+    line: Line
+    state: FluidState
+    service: Service
+    pipe_class: PipeClass
+    mass_flow: float
+    margin: float
+    mode: str
+    notes: tuple[str, ...]
+    start: float  # diameter the guided candidate scan starts from [m]
+
+
+class Sizer:
+    """Sizes and checks lines with the installed plugins and a criteria configuration.
+
+    :param host: the plugin host (built with entry points when not given)
+    :param config: services and pipe classes (the shipped set when not given)
+    :param criteria_file: a criteria TOML to load instead of passing ``config``
+    :param check_roughness: absolute roughness [m] for lines checked at a given NPS that give no
+        ``roughness`` of their own (a corroded existing line); None keeps the pipe class's
+    :param every_size: rate every size of the pipe class from the smallest (slower; the record then shows
+        all the sizes below the selected one) instead of the guided scan of :mod:`boresize.sizing.scan`
+    """
+
+    def __init__(self, host: PluginHost | None = None, config: SizingConfig | None = None,
+                 criteria_file: str | Path | None = None, *, check_roughness: float | None = None,
+                 every_size: bool = False) -> None:
+        self.host = host or PluginHost.load()
+        self.config = config or load_config(self.host, criteria_file)
+        self.check_roughness = check_roughness
+        self.every_size = every_size
+        self._candidates: dict[tuple[int, str | None, str | None], tuple[PipeClass, tuple[Candidate, ...]]] = {}
+        self._applicable: dict[tuple[int, str], tuple[Service, tuple[tuple[Any, Mapping[str, float]], ...]]] = {}
+        self._bands: BandsMemo = {}
+
+    # -- one line -----------------------------------------------------------------------------
+    def run(self, line: Line) -> LineResult:
+        """Check the line if it gives an NPS, else size it. Faults become an ``error`` result."""
+        try:
+            return self._run(line)
+        except BoresizeError as exc:
+            return error_result(line.tag, exc, line=line, mode="check" if line.nps else "size")
+
+    def _run(self, line: Line) -> LineResult:
+        prepared = self._prepare(line)
+        rated = self._rate_all(prepared)
+        return self._finish(prepared, rated, select(rated) if prepared.mode == "size" else rated[0])
+
+    def _prepare(self, line: Line) -> _Prepared:
+        mode = "check" if line.nps else "size"
+        notes: tuple[str, ...] = ()
+        if mode == "check" and line.roughness is None and self.check_roughness is not None:
+            line = replace(line, roughness=self.check_roughness)
+            notes = (f"checked with corroded roughness {self.check_roughness * 1e3:g} mm",)
+        state = fluid_state(self.host, line)
+        service = self._service(line, state)
+        pipe_class = self.config.pipe_class(line.pipe_class or service.pipe_class)
+        margin = line.design_margin if line.design_margin is not None else service.design_margin
+        mass_flow = mass_flow_of(self.host, line, state) * (1.0 + margin)
+        return _Prepared(line, state, service, pipe_class, mass_flow, margin, mode, notes,
+                         start_diameter(service, line.pressure, state, mass_flow,
+                                        line.roughness if line.roughness is not None else pipe_class.roughness))
+
+    def _rate_all(self, p: _Prepared) -> tuple[CandidateResult, ...]:
+        return self._rate_cases([p])[0]
+
+    def _rate_cases(self, ready: Sequence[_Prepared]) -> list[tuple[CandidateResult, ...]]:
+        """Rate every case's candidates around the smallest size that passes in every case, and
+        :data:`RATED_ABOVE` sizes above it (the record shows one size below to two above).
+
+        The guided scan (:mod:`boresize.sizing.scan`) starts near the first-guess diameter and walks; when it cannot
+        prove its answer (a criterion without a known trend fails, an error verdict, nothing passes), or
+        ``every_size`` is set, every size is rated from the smallest, as the selection is defined."""
+        candidates = self._candidates_of(ready[0].line, ready[0].pipe_class)
+        _check_roughness(ready[0].line, candidates[0])
+        memo: dict[int, list[CandidateResult]] = {}
+
+        def rate(i: int) -> list[CandidateResult]:
+            if i not in memo:
+                memo[i] = [self._rate(p.line, p.state, p.service, candidates[i], p.mass_flow) for p in ready]
+            return memo[i]
+
+        pressures = {p.line.pressure for p in ready}
+        trends = criterion_trends([c for p in ready for c, _ in p.service.criteria], pressures, candidates,
+                                  self._bands)
+        span = rated_span(len(candidates), rate, trends, bisect_left([c.inside_diameter for c in candidates],
+                                                                     max(p.start for p in ready)),
+                          every_size=self.every_size)
+        return [tuple(memo[i][k] for i in range(span[0], span[1] + 1)) for k in range(len(ready))]
+
+    def _candidates_of(self, line: Line, pipe_class: PipeClass) -> tuple[Candidate, ...]:
+        """The class's sizes, or the one size a checked line gives (cached: building them costs more than rating)."""
+        key = (id(pipe_class), line.nps, line.schedule)
+        cached = self._candidates.get(key)
+        if cached is None or cached[0] is not pipe_class:
+            cached = self._candidates[key] = (pipe_class, _candidates(pipe_class, line))
+        return cached[1]
+
+    def _finish(self, p: _Prepared, rated: tuple[CandidateResult, ...], selected: CandidateResult | None,
+                closest_note: bool = True) -> LineResult:
+        first_guess = self._first_guess(p.service, p.state, p.mass_flow, p.pipe_class.roughness)
+        result = build_result(p.line, p.state, p.service, rated, selected, p.mode, p.mass_flow, p.margin,
+                         p.service.stamp, first_guess, closest_note)
+        return replace(result, notes=result.notes + p.notes) if p.notes else result
+
+    def _service(self, line: Line, state: FluidState) -> Service:
+        name = line.service or default_service(line, state)
+        if name not in self.config.services:
+            raise InputError(f"unknown service {name!r}", field="service", value=name,
+                             expected=f"one of {', '.join(self.config.service_names())}").for_line(line.tag)
+        service = self.config.services[name]
+        check_phase(line, state, service)
+        return service
+
+    def _rate(self, line: Line, state: FluidState, service: Service, candidate: Candidate,
+              mass_flow: float) -> CandidateResult:
+        """Rate one candidate. A gas candidate that needs marching is first screened with the simple
+        method: if it already fails a criterion that marching can only make worse, the march is skipped."""
+        if is_gas(state):
+            simple = self._hydraulics(line, state, candidate, mass_flow, march=False)
+            if needs_march(line, state, simple):
+                verdicts = self._verdicts(line, state, service, candidate, simple)
+                fails = [v.criterion for v in verdicts if _fails_beyond_march(v)]
+                if fails:
+                    note = (f"; not marched: fails {', '.join(fails)} already with the simple method, which "
+                            f"understates a gas line's drop and outlet velocity")
+                    hyd = replace(simple, method=simple.method + note)
+                    return CandidateResult(candidate, hyd, self._verdicts(line, state, service, candidate, hyd))
+            else:
+                return CandidateResult(candidate, simple, self._verdicts(line, state, service, candidate, simple))
+        hyd = self._hydraulics(line, state, candidate, mass_flow, march=True)
+        return CandidateResult(candidate, hyd, self._verdicts(line, state, service, candidate, hyd))
+
+    def _hydraulics(self, line: Line, state: FluidState, candidate: Candidate, mass_flow: float,
+                    march: bool) -> Hydraulics:
+        try:
+            hyd = rate_line(line, state, candidate, mass_flow, march=march,
+                            properties=lambda p, t: choose_backend(self.host, line).state(line, p, t))
+        except (OverflowError, ZeroDivisionError) as exc:
+            raise _beyond_range(mass_flow, f"in NPS {candidate.nps}") from exc
+        isfinite = math.isfinite  # an inf drop would fail every size, a NaN pass it
+        if not (isfinite(hyd.velocity) and isfinite(hyd.reynolds) and isfinite(hyd.friction_factor)
+                and isfinite(hyd.drop_per_length) and isfinite(hyd.total_drop)):
+            raise _beyond_range(mass_flow, f"in NPS {candidate.nps}")
+        return hyd
+
+    def _verdicts(self, line: Line, state: FluidState, service: Service, candidate: Candidate,
+                  hyd: Hydraulics) -> tuple[Verdict, ...]:
+        judge = self._judge
+        return tuple(judge(criterion, CriterionContext(line, state, candidate, hyd, options, service.name))
+                     for criterion, options in self._applicable_to(service, state.phase))
+
+    def _applicable_to(self, service: Service, phase: str) -> tuple[tuple[Any, Mapping[str, float]], ...]:
+        """The service's (criterion, options) pairs that judge a fluid in ``phase`` (worked out once per service
+        and phase; the service is kept with the answer, so that a reused id never returns another's)."""
+        key = (id(service), phase)
+        known = self._applicable.get(key)
+        if known is None or known[0] is not service:
+            group = phase_group(phase)
+            pairs = tuple((c, o) for c, o in service.criteria if phase in c.phases or group in c.phases)
+            known = self._applicable[key] = (service, pairs)
+        return known[1]
+
+    def _judge(self, criterion: object, context: CriterionContext) -> Verdict:
+        try:
+            result = criterion.evaluate(context)  # type: ignore[attr-defined]
+        except Exception as exc:  # a plugin's fault: an error verdict naming it, the batch goes on
+            return self._fault(criterion, f"raised {type(exc).__name__}: {exc}")
+        if not isinstance(result, Verdict):
+            return self._fault(criterion, f"returned {type(result).__name__}, not a Verdict")
+        fault = verdict_fault(result)
+        return self._fault(criterion, fault) if fault else result
+
+    def _fault(self, criterion: object, what: str) -> Verdict:
+        ident = getattr(criterion, "id", "?")
+        return error_verdict(ident, self.host.criteria.owner(ident), what)
+
+    def _first_guess(self, service: Service, state: FluidState, mass_flow: float, roughness: float) -> float | None:
+        for criterion, options in service.criteria:
+            if criterion.id == "drop-per-length" and "max" in options:
+                try:
+                    return swamee_jain_diameter(mass_flow / state.density, options["max"], state.density,
+                                                state.viscosity, roughness)
+                except OverflowError as exc:
+                    raise _beyond_range(mass_flow, "for the first-guess diameter") from exc
+        return None
+
+    # -- one line, several operating cases ---------------------------------------------------
+    def run_cases(self, lines: Sequence[Line]) -> LineResult:
+        """Size (or check) one line over its operating cases (one :class:`Line` per case, same tag).
+
+        Sizing takes the smallest candidate that passes every case; the result carries every case's
+        result in ``cases`` and, per criterion, the governing case (see :mod:`boresize.sizing.cases`).
+        Faults of one case make the line an ``error`` whose message names the case; never raises.
+        """
+        if len(lines) == 1:
+            return self.run_safely(lines[0])
+        named = _cases.name_cases(lines)
+        mode = "check" if named[0].nps else "size"
+        try:
+            return self._run_cases(named, mode)
+        except BoresizeError as exc:
+            failed = [error_result(line.tag, exc, line=line, mode=mode) for line in named]
+            return _cases.cases_error(named[0].tag, failed, mode)
+        except Exception as exc:  # a bug: report it on the line, never lose the line
+            failed = [internal_error(line, exc) for line in named]
+            return _cases.cases_error(named[0].tag, failed, mode)
+
+    def _run_cases(self, lines: tuple[Line, ...], mode: str) -> LineResult:
+        _cases.check_cases(lines)
+        prepared: list[_Prepared | LineResult] = []
+        for line in lines:
+            try:
+                prepared.append(self._prepare(line))
+            except BoresizeError as exc:
+                prepared.append(_cases.case_error(error_result(line.tag, exc, line=line, mode=mode), str(line.case)))
+        if any(isinstance(p, LineResult) for p in prepared):
+            each = [p if isinstance(p, LineResult) else self.run_safely(p.line) for p in prepared]
+            return _cases.cases_error(lines[0].tag, each, mode)
+        ready = [p for p in prepared if isinstance(p, _Prepared)]
+        classes = {p.pipe_class.name for p in ready}
+        if len(classes) > 1:
+            raise InputError(f"the cases' services use different pipe classes: {', '.join(sorted(classes))}",
+                             field="pipe_class", value=", ".join(sorted(classes)),
+                             expected="one pipe class for every case of a line").for_line(lines[0].tag)
+        rated = self._rate_cases(ready)
+        index, passed = _cases.common_index(rated, mode)
+        if index is None:
+            each = [self._finish(p, r, None) for p, r in zip(ready, rated)]
+            return _cases.cases_error(lines[0].tag, each, mode, f"line {lines[0].tag}: no candidate size could "
+                                      f"be rated in every case", "criteria")
+        each = [self._finish(p, r, r[index], closest_note=False) for p, r in zip(ready, rated)]
+        return _cases.combine(each, passed, mode)
+
+    # -- many lines ---------------------------------------------------------------------------
+    def run_rows(self, rows: Iterable[tuple[Mapping[str, object], Mapping[str, str | None]]]) -> list[LineResult]:
+        """Parse and run rows in order; a bad row gives an ``error`` result and the others go on.
+
+        Rows that share a tag and name a ``case`` are one line (see :mod:`boresize.sizing.cases`): one
+        result per line, in the order of each line's first row.
+        """
+        return [self.run_line_rows(group) for group in _cases.group_rows(rows)]
+
+    def run_line_rows(self, rows: Sequence[_cases.Row]) -> LineResult:
+        """Parse and run the rows of one line (one row, or one row per case); the rows are kept in ``raw``."""
+        from boresize.io.rows import line_from_row
+
+        parsed: list[Line | LineResult] = []
+        for position, row, units in rows:
+            try:
+                parsed.append(line_from_row(row, units, position))
+            except BoresizeError as exc:
+                tag = str(row.get("tag") or f"row {position}")
+                parsed.append(error_result(tag, exc, mode="check" if row.get("nps") else "size"))
+        raws = [{str(k): "" if v is None else str(v) for k, v in row.items()} for _, row, _ in rows]
+        if len(parsed) == 1:
+            only = parsed[0]
+            return replace(only if isinstance(only, LineResult) else self.run_safely(only), raw=raws[0])
+        if any(isinstance(p, LineResult) for p in parsed):
+            each = [_cases.case_error(p, raws[i].get("case", "")) if isinstance(p, LineResult) else
+                    self.run_safely(p) for i, p in enumerate(parsed)]
+            result = _cases.cases_error(each[0].tag, each, "check" if raws[0].get("nps") else "size")
+        else:
+            result = self.run_cases([p for p in parsed if isinstance(p, Line)])
+        return replace(result, cases=tuple(replace(c, raw=raw) for c, raw in zip(result.cases, raws)))
+
+    def run_safely(self, line: Line) -> LineResult:
+        """:meth:`run`, but an unexpected fault (a bug) is also an ``error`` result, never lost."""
+        try:
+            return self.run(line)
+        except Exception as exc:  # report, don't lose the line; the message asks for a bug report
+            return internal_error(line, exc)
+
+
+def _candidates(pipe_class: PipeClass, line: Line) -> tuple[Candidate, ...]:
+    """Every size the class offers, or the one a checked line gives (in its own schedule when it gives one)."""
+    if not line.nps:
+        return pipe_class.candidates()
+    if not line.schedule:
+        return (pipe_class.candidate(line.nps),)
+    return (replace(pipe_class, schedule=line.schedule, schedule_by_nps=()).candidate(line.nps),)
+
+
+def _check_roughness(line: Line, smallest: Candidate) -> None:
+    """A line's own roughness must be below the smallest candidate's bore, whichever sizes the scan rates."""
+    if line.roughness is not None:
+        try:
+            require_roughness(line.roughness, smallest.inside_diameter)
+        except InputError as exc:
+            raise exc.for_line(line.tag) from None
+
+
+def _beyond_range(mass_flow: float, where: str) -> InputError:
+    """The error of a flow so large or so small that the hydraulics leave floating-point range."""
+    return InputError(f"sizing flow {mass_flow:.6g} kg/s is beyond the range the hydraulics can compute {where}",
+                      field="flow", value=mass_flow, expected="a flow of process-plant size; check its unit")
+
+
+#: Built-in criteria whose judged value marching a gas line can only raise (inlet velocity and momentum
+#: stay, the mean drop per length and the outlet Mach number grow as the gas expands along the line).
+_MARCH_ONLY_WORSENS = frozenset({"drop-per-length", "velocity", "erosional", "momentum", "noise-velocity", "mach"})
+
+
+def _fails_beyond_march(verdict: Verdict) -> bool:
+    """A fail above a maximum, by a criterion that marching cannot turn into a pass."""
+    return (verdict.criterion in _MARCH_ONLY_WORSENS and verdict.status == "fail" and verdict.value is not None
+            and verdict.limit is not None and verdict.value > verdict.limit)

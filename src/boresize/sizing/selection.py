@@ -1,0 +1,99 @@
+"""The outcome of rating a line: which candidate is selected, and the LineResult that reports it.
+
+Sizing selects the smallest candidate that passes every criterion; when none does, the record shows
+the closest (lowest worst utilisation). Faults become ``error`` results carrying the field at fault.
+"""
+
+from __future__ import annotations
+
+import math
+from collections.abc import Sequence
+from typing import get_args
+
+from boresize.sizing.services import Service
+from boresize.errors import InputError, PropertyError
+from boresize.model import CandidateResult, FluidState, Line, LineResult, Verdict, VerdictStatus
+
+__all__ = ["build_result", "closest", "error_result", "error_verdict", "internal_error", "select", "verdict_fault"]
+
+
+def internal_error(line: Line, exc: Exception) -> LineResult:
+    return LineResult(tag=line.tag, status="error", mode="check" if line.nps else "size", line=line,
+                      error=f"line {line.tag}: internal error {type(exc).__name__}: {exc} (please report it)")
+
+
+_STATUSES: tuple[str, ...] = get_args(VerdictStatus)
+
+
+def verdict_fault(verdict: Verdict) -> str | None:
+    """What is wrong with a criterion's verdict (an unknown status, a number that is NaN or not a number), or
+    None: a NaN drop compares false with every limit and would read as a pass."""
+    if verdict.status not in _STATUSES:
+        return f"returned status {verdict.status!r}, not one of {', '.join(_STATUSES)}"
+    value, limit, utilisation = verdict.value, verdict.limit, verdict.utilisation
+    if ((value is None or (type(value) is float and value == value))  # x == x is False for NaN
+            and (limit is None or (type(limit) is float and limit == limit))
+            and (utilisation is None or (type(utilisation) is float and utilisation == utilisation))):
+        return None  # the common case (floats that are not NaN, or None), without the loop below
+    for name in ("value", "limit", "utilisation"):
+        number = getattr(verdict, name)
+        if number is not None and (isinstance(number, bool) or not isinstance(number, (int, float))
+                                   or math.isnan(number)):
+            return f"returned {name} {number!r}, not a number"
+    return None
+
+
+def error_verdict(ident: str, plugin: str, what: str) -> Verdict:
+    return Verdict(criterion=ident, status="error", reasons=(f"criterion {ident!r} of plugin {plugin!r} {what}",),
+                   source=f"plugin {plugin}")
+
+
+def select(rated: Sequence[CandidateResult]) -> CandidateResult | None:
+    """Smallest candidate (by inside diameter) that passes every criterion."""
+    for result in rated:
+        if result.passed:
+            return result
+    return None
+
+
+def closest(rated: Sequence[CandidateResult]) -> CandidateResult | None:
+    """When none passes: the candidate whose worst utilisation is lowest (the best that is on offer)."""
+    scored = [r for r in rated if r.worst is not None and not any(v.status == "error" for v in r.verdicts)]
+    return min(scored, key=lambda r: r.worst.utilisation, default=None)  # type: ignore[union-attr]
+
+
+def build_result(line: Line, state: FluidState, service: Service, rated: tuple[CandidateResult, ...],
+            selected: CandidateResult | None, mode: str, mass_flow: float, margin: float, version: str,
+            first_guess: float | None, closest_note: bool = True) -> LineResult:
+    notes = []
+    shown = selected if selected is not None else closest(rated)
+    if shown is None:
+        errors = [v.reason for r in rated for v in r.verdicts if v.status == "error"]
+        return LineResult(tag=line.tag, status="error", mode=mode, line=line, state=state, candidates=rated,  # type: ignore[arg-type]
+                          error=f"line {line.tag}: {errors[0] if errors else 'no candidate size could be rated'}",
+                          error_field="criteria", service=service.name, criteria_set=version)
+    passed = shown.passed and selected is not None
+    if not passed and mode == "size" and closest_note:
+        notes.append(f"no size the pipe class allows passes every criterion; closest is NPS {shown.candidate.nps}")
+    if any(v.status == "error" for v in shown.verdicts):
+        notes.append("a criterion could not judge this size (error verdict)")
+    if shown.hydraulics.regime == "transition":
+        notes.append("Reynolds number in the transition zone (2100-4000): turbulent (Colebrook) friction used")
+    worst = shown.worst
+    return LineResult(
+        tag=line.tag, status="pass" if passed else "fail", mode=mode, line=line, state=state,  # type: ignore[arg-type]
+        selected=shown, candidates=rated, controlling=worst.criterion if worst else None,
+        notes=tuple(notes), service=service.name, criteria_set=version, sizing_flow=mass_flow,
+        first_guess_diameter=first_guess,
+    )
+
+
+def error_result(tag: str, exc: BaseException, *, line: Line | None = None, mode: str = "size") -> LineResult:
+    """An ``error`` LineResult carrying the message and, where known, the field at fault."""
+    message = str(exc)
+    if isinstance(exc, InputError) and not exc.tag:
+        message = str(exc.for_line(tag))
+    elif not isinstance(exc, InputError):
+        message = f"line {tag}: {message}"
+    field = exc.field if isinstance(exc, InputError) else ("fluid" if isinstance(exc, PropertyError) else None)
+    return LineResult(tag=tag, status="error", mode=mode, line=line, error=message, error_field=field)  # type: ignore[arg-type]

@@ -1,0 +1,333 @@
+"""The one pint registry of boresize, and the parsing of what engineers type into SI floats.
+
+Everything a user types ("65 t/h", "10 barg", "20 °C", "50 kPa/100 m") passes through
+:func:`parse_quantity` or :func:`parse_flow` once, at the edge; inside boresize every number is a
+plain SI float (kg, m, s, Pa absolute, K).
+
+Rules the parser applies (pint alone gets each of them wrong or refuses them):
+
+* The number and the unit are split here, not by pint: offset units (gauge pressures, degC)
+  cannot be multiplied, and pint reads "40 kPa/100 m" as 0.4 kPa*m. A number inside a unit
+  ("/100 m", "/100 ft") divides by the whole group.
+* Pressure: ``bar``, ``kPa``, ``MPa``, ``psi`` without a suffix are ABSOLUTE (as are ``bara``,
+  ``psia`` ...). A ``g`` suffix (``barg``, ``kPa(g)``, ``psig``, ``kg/cm2g``) adds one standard
+  atmosphere, 101325 Pa. A pressure difference or a drop per length takes neither suffix.
+* Temperature: degC, °C, C, degF, °F, F, K, degR; a bare C or F is a degree only in a
+  temperature field (elsewhere C is the coulomb). A temperature difference reads degC and degF
+  as intervals (1 degF = 5/9 K).
+* Standard gas volumes are their own dimensions, one per reference state, so that pint never
+  converts Nm3 to Sm3 without the temperature ratio: ``Sm3`` (15 degC, 101.325 kPa, ISO 13443),
+  ``Nm3`` (0 degC, 101.325 kPa, DIN 1343), ``scf`` (60 degF, 14.696 psia, the oil and gas
+  convention; some US contracts use 14.73 psia: give Sm3 or a mass flow when that matters).
+* Trade spellings: m3, m³, t/h, te/h, mPa.s, mPa·s, cP, gpm (US gallons), bbl (oil barrel,
+  42 US gal), MMSCFD (1e6 scf/d), Mscf (1000 scf, not pint's mega). Spellings that mean two
+  things are refused with a hint: "Mpa"/"mpa"/"MPA" (MPa or mPa?), "ton" (short ton or tonne?),
+  "nm3" (nanometre³ or Nm3?).
+* Decimal commas and thousands separators are refused ("1,5" and "1,500" mean different things
+  in different countries).
+
+The spelling tables and the splitting of the text live in :mod:`boresize.units.text`; this module
+builds the registry and the quantities and checks their dimensions. A unit text that passed every
+check for a kind keeps its conversion (``SI = number * factor * scale + offset``, the same float
+operations as the full parse, found once by pint): the next number in that unit costs a multiply
+(a logarithmic unit, which no straight line converts, goes to pint every time).
+"""
+
+from __future__ import annotations
+
+import functools
+import math
+import re
+from tokenize import TokenError
+from typing import TYPE_CHECKING, Literal, NamedTuple
+
+from boresize.errors import InputError
+from boresize.model import Flow, FlowBasis
+from boresize.units.text import (
+    _ABSOLUTE,
+    _DEFINITIONS,
+    _DESCRIPTIONS,
+    _GAUGE,
+    _KINDS,
+    _OFFSET,
+    _TOKEN,
+    _Cell,
+    _finite,
+    _help,
+    _normalise,
+    _number_and_unit,
+    _plain_split,
+)
+
+if TYPE_CHECKING:  # pint costs 0.2-0.3 s to import: it loads with the registry, on first use
+    import pint
+
+__all__ = [
+    "ATMOSPHERE",
+    "QuantityKind",
+    "STANDARD_CONDITIONS",
+    "registry",
+    "parse_quantity",
+    "parse_flow",
+    "format_unit_help",
+]
+
+QuantityKind = Literal["mass_flow", "volume_flow", "pressure", "pressure_difference", "temperature",
+                       "temperature_difference", "length", "density", "viscosity", "velocity",
+                       "drop_per_length", "dimensionless"]
+
+ATMOSPHERE = 101325.0  # [Pa] standard atmosphere, exact (NIST SP 811, App. B): the zero of every gauge unit
+_PSI = 6894.757293168361  # [Pa] 1 lbf/in2 = 0.45359237 kg * 9.80665 m/s2 / 0.0254**2 m2 (NIST SP 811, App. B)
+
+#: Reference states of the standard volume units: name -> (T [K], P [Pa abs], label).
+STANDARD_CONDITIONS: dict[str, tuple[float, float, str]] = {
+    "Sm3": (288.15, ATMOSPHERE, "15 degC, 101.325 kPa (ISO 13443 standard conditions)"),
+    "Nm3": (273.15, ATMOSPHERE, "0 degC, 101.325 kPa (DIN 1343 normal conditions)"),
+    "scf": ((60.0 + 459.67) / 1.8, 14.696 * _PSI, "60 degF, 14.696 psia"),
+}
+# pint unit in which each family's SI value (m3 at its own reference state) is expressed
+_STANDARD_SI = {"Sm3": "Sm3/s", "Nm3": "Nm3/s", "scf": "m3_60F/s"}
+
+
+@functools.cache
+def registry() -> pint.UnitRegistry:
+    """The process-wide unit registry, built on first call (0.2-0.3 s with the pint import).
+
+    Adds gauge/absolute pressures (barg, bara, kPag, kPaa, MPag, psig, psia, kgcm2g), the
+    standard-volume units (Sm3, Nm3, scf, MMSCFD), m3/m2 spellings, gpm (US), and the display units
+    kPa_per_100m, bar_per_km, psi_per_100ft.
+    """
+    import pint
+
+    try:
+        ureg = pint.UnitRegistry(cache_folder=":auto:")
+    except OSError:  # cache folder not writable: build without it
+        ureg = pint.UnitRegistry()
+    lines = [line for line in _DEFINITIONS.splitlines() if line]
+    for prefix in ("", "d", "c", "m", "u", "k"):  # explicit, or pint reads cm3 as centi-(m3)
+        lines += [f"{prefix}m3 = {prefix}m**3", f"{prefix}m2 = {prefix}m**2"]
+    for line in lines:
+        ureg.define(line)
+    return ureg
+
+
+def format_unit_help(kind: QuantityKind) -> str:
+    """What a field of ``kind`` accepts, for messages: e.g. "a mass flow (kg/h, t/h, kg/s, lb/h)"."""
+    return _help(kind)
+
+
+# ---------------------------------------------------------------------------------------------
+# Quantity (the text is split and respelled in boresize.units.text)
+
+
+def _quantity(value: object, field: str, kind: str, default_unit: str | None) -> tuple[_Parsed, _Cell, str]:
+    """Parse a cell into a pint Quantity (the unit in the cell wins over ``default_unit``); also the unit
+    text it was read in (the key of :data:`_CONVERSIONS`, "" for a plain number)."""
+    number, unit, cell = _number_and_unit(_Cell(field, value, kind))
+    default = (default_unit or "").strip().strip("[]").strip()
+    if not unit and default:
+        unit, cell = default, _Cell(field, value, kind, f"{cell.shown} [{default}]")
+    elif not unit and kind == "dimensionless":
+        one = _unit_of("dimensionless")
+        return _Parsed(number, one.units, one.dimensionality, 1.0), cell, ""
+    elif not unit:
+        raise cell.error(f"missing unit in '{cell.shown}'")
+    expression = _normalise(unit, cell)
+    words = set(_TOKEN.findall(expression))
+    if kind in ("pressure_difference", "drop_per_length"):
+        for names, what in ((_GAUGE, "a gauge pressure"), (_ABSOLUTE, "an absolute pressure")):
+            if words.intersection(names):
+                noun = _KINDS[kind][1]
+                raise cell.error(f"'{cell.shown}' is {what}, but {noun} is neither gauge nor absolute")
+    if kind == "viscosity" and "MPa" in words:  # 1 MPa s = 1e6 Pa s: a typo for mPa s
+        raise cell.error(f"'{cell.shown}' is in megapascal-seconds (1 MPa s = 1e6 Pa s)",
+                         f"{_help(kind)}; mPa s with a small m is the millipascal")
+    _check_powers(expression, cell)
+    return _build(number, expression, cell), cell, unit
+
+
+_POWER_OP = re.compile(r"\*\*|\^")
+_SMALL_EXPONENT = re.compile(r"\s*\(?\s*[+-]?\d(?:\.\d+)?(?![\d.eE])\s*\)?(?!\s*(?:\*\*|\^))")
+
+
+def _check_powers(expression: str, cell: _Cell) -> None:
+    """Refuse a power that is not one small number (m**3, s^-1): pint computes "10**10**10" exactly,
+    a ten-billion-digit integer, and never returns."""
+    powers = list(_POWER_OP.finditer(expression))
+    if len(powers) > 4 or any(not _SMALL_EXPONENT.match(expression, p.end()) for p in powers):
+        raise cell.error(f"cannot read the unit of '{cell.shown}': a power must be one small number, as in "
+                         f"m**3 or s^-1")
+
+
+@functools.lru_cache(maxsize=4096)
+def _unit_of(expression: str) -> pint.Quantity:
+    """One of the unit ``expression`` (parsing costs ~100 us; a line list repeats its units)."""
+    return registry().parse_expression(expression)
+
+
+@functools.lru_cache(maxsize=4096)
+def _to_si(units: pint.Unit, si: str) -> tuple[float, float] | None:
+    """(scale, offset) with value_si = value * scale + offset, from pint's own conversion of 0 and 1;
+    None for a unit pint does not convert linearly (the logarithmic dB, neper, decade, octave)."""
+    ureg = registry()
+    zero, one, two = (float(ureg.Quantity(x, units).to(si).magnitude) for x in (0.0, 1.0, 2.0))
+    if not math.isclose(two, 2.0 * one - zero, rel_tol=1e-9, abs_tol=1e-12 * abs(one - zero)):
+        return None
+    return one - zero, zero
+
+
+def _magnitude_si(quantity: _Parsed, si: str) -> float:
+    """``quantity.to(si).magnitude``, through the cached linear map of its unit where it has one."""
+    linear = _to_si(quantity.units, si)
+    if linear is None:
+        return float(registry().Quantity(float(quantity.magnitude), quantity.units).to(si).magnitude)
+    scale, offset = linear
+    return float(quantity.magnitude) * scale + offset
+
+
+class _Parsed(NamedTuple):
+    """A parsed cell: what pint's Quantity would hold, without building one per cell (~100 us each)."""
+
+    magnitude: float  # the number times ``factor``
+    units: pint.Unit
+    dimensionality: object
+    factor: float  # the magnitude of the unit expression (1000 for "1000*scf"), 1.0 for an offset unit
+
+
+def _build(number: float, expression: str, cell: _Cell) -> _Parsed:
+    """``number`` times the unit ``expression``, with pint's faults turned into UnitError."""
+    import pint  # already loaded by registry()
+
+    try:
+        if expression in _OFFSET:  # offset units are built, never multiplied
+            unit = _offset_unit(expression)
+            return _Parsed(number, unit.units, unit.dimensionality, 1.0)
+        unit = _unit_of(expression)
+        factor = float(unit.magnitude)
+        return _Parsed(number * factor, unit.units, unit.dimensionality, factor)
+    except pint.UndefinedUnitError as exc:
+        names = ", ".join(f"'{name}'" for name in exc.unit_names)
+        raise cell.error(f"unknown unit {names} in '{cell.shown}'") from exc
+    except pint.OffsetUnitCalculusError as exc:
+        raise cell.error(f"'{cell.shown}' combines a gauge or degC/degF unit with other units") from exc
+    except (pint.PintError, TokenError, AssertionError, SyntaxError, TypeError, ValueError, ZeroDivisionError,
+            OverflowError) as exc:
+        raise cell.error(f"cannot read the unit of '{cell.shown}'") from exc
+
+
+@functools.lru_cache(maxsize=64)
+def _offset_unit(expression: str) -> pint.Quantity:
+    """One of an offset unit (degC, barg ...), built rather than parsed."""
+    return registry().Quantity(1.0, expression)
+
+
+# ---------------------------------------------------------------------------------------------
+# Dimension check and the public parsers
+
+
+@functools.cache
+def _dimension(expression: str) -> object:
+    """The pint dimensionality of a unit expression (cached)."""
+    return registry().parse_expression(expression).dimensionality
+
+
+def _wrong_dimension(quantity: _Parsed, noun: str, cell: _Cell) -> InputError:
+    """The error for a quantity of the wrong kind, saying in the trade's words what it is."""
+    found = {_dimension(si): name for si, name in _DESCRIPTIONS}.get(quantity.dimensionality)
+    what = found or f"a quantity of dimension {quantity.dimensionality}"
+    expected = _help(cell.kind)
+    if what == "a kinematic viscosity" and cell.kind == "viscosity":
+        expected += "; multiply a kinematic viscosity by the density to get it"
+    return cell.error(f"'{cell.shown}' is {what}, not {noun}", expected)
+
+
+def parse_quantity(value: str | float | int | None, field: str, kind: QuantityKind,
+                   default_unit: str | None = None) -> float:
+    """Parse a cell such as "10 barg" into an SI float, checking its dimension against ``kind``.
+
+    Returns, by kind: mass_flow [kg/s], volume_flow [m3/s, actual], pressure [Pa ABSOLUTE: a bare
+    bar/kPa/MPa/psi is absolute, a g suffix adds 101325 Pa], pressure_difference [Pa],
+    temperature [K], temperature_difference [K], length [m], density [kg/m3], viscosity [Pa s],
+    velocity [m/s], drop_per_length [Pa/m], dimensionless [-] ("10 %" -> 0.1).
+
+    :param value: the cell ("65 t/h"), or a bare number that takes ``default_unit``
+    :param field: the field name used in error messages
+    :param kind: what the field holds
+    :param default_unit: unit of a bare number, e.g. from a header "flow [t/h]" (brackets allowed)
+    :raises InputError: no value, not a number, NaN/inf, separators, pressure <= 0 Pa abs, T <= 0 K
+    :raises UnitError: missing, unknown or ambiguous unit, wrong dimension, gauge unit on a difference
+    """
+    split = _plain_split(value, default_unit)
+    if split is not None and (known := _CONVERSIONS.get((split[1], kind))) is not None:
+        fast = split[0] * known.factor * known.scale + known.offset  # a unit read before: the operations below
+        if math.isfinite(fast) and (fast > 0.0 or kind not in ("pressure", "temperature")):
+            return fast
+    quantity, cell, unit = _quantity(value, field, kind, default_unit)
+    si, noun, _ = _KINDS[kind]
+    if quantity.dimensionality != _dimension(si):
+        raise _wrong_dimension(quantity, noun, cell)
+    _remember(unit, kind, quantity.factor, _to_si(quantity.units, si))
+    result = _finite(_magnitude_si(quantity, si), cell)  # "1e308 m*10" overflows to inf
+    if kind == "pressure" and result <= 0.0:
+        raise cell.error(f"absolute pressure must be above zero: '{cell.shown}' is {result:g} Pa abs",
+                         "a pressure above 0 Pa abs (a g suffix adds 101.325 kPa)", InputError)
+    if kind == "temperature" and result <= 0.0:
+        raise cell.error(f"'{cell.shown}' is {result:g} K, at or below absolute zero",
+                         "a temperature above 0 K (-273.15 degC)", InputError)
+    return result
+
+
+def parse_flow(value: str | float | int | None, field: str = "flow", default_unit: str | None = None) -> Flow:
+    """Parse a flow cell into a :class:`~boresize.model.Flow` with its basis.
+
+    mass [kg/s] (kg/h, t/h, lb/h, klb/h, t/d ...), volume [m3/s at line conditions] (m3/h, l/min,
+    gpm, bbl/d, ft3/s ...) or standard-volume [m3/s at the reference state named by the unit,
+    see :data:`STANDARD_CONDITIONS`] (Sm3/h, Nm3/h, scfm, MMSCFD ...). A flow <= 0 is returned
+    as is (the line validator judges it); a wrong dimension raises :class:`UnitError`.
+    """
+    split = _plain_split(value, default_unit)
+    if split is not None and (known := _CONVERSIONS.get((split[1], "flow"))) is not None:
+        magnitude = split[0] * known.factor  # a unit read before: the operations below, without pint
+        if math.isfinite(magnitude):
+            return Flow(known.basis, magnitude * known.scale + known.offset, *known.reference)
+    quantity, cell, unit = _quantity(value, field, "flow", default_unit)
+    if not math.isfinite(float(quantity.magnitude)):  # "1e308 t/h*1e10" overflows to inf
+        raise cell.error(f"'{cell.shown}' is not a finite number", "a finite number", InputError)
+    for basis, si, reference in _FLOW_BASES:
+        if quantity.dimensionality == _dimension(si):
+            _remember(unit, "flow", quantity.factor, _to_si(quantity.units, si), basis, reference)
+            return Flow(basis, _magnitude_si(quantity, si), *reference)
+    raise _wrong_dimension(quantity, "a flow", cell)
+
+
+# basis, SI unit in pint, (reference T [K], reference P [Pa abs], label) of each flow basis
+_FLOW_BASES: tuple[tuple[FlowBasis, str, tuple[float | None, float | None, str | None]], ...] = (
+    ("mass", "kg/s", (None, None, None)), ("volume", "m**3/s", (None, None, None)),
+    *(("standard-volume", si, STANDARD_CONDITIONS[name]) for name, si in _STANDARD_SI.items()))
+
+
+# ---------------------------------------------------------------------------------------------
+# The conversions already read: (unit text, kind) -> how a number in that unit becomes SI
+
+
+class _Conversion(NamedTuple):
+    """``(number * factor) * scale + offset`` is the SI value: the same float operations in the same order as
+    the full parse (:func:`_build`, then :func:`_magnitude_si`), so both give the same float to the last bit."""
+
+    factor: float
+    scale: float
+    offset: float
+    basis: FlowBasis = "mass"  # a flow's basis (unused for any other kind)
+    reference: tuple[float | None, float | None, str | None] = (None, None, None)  # a standard volume's state
+
+
+_CONVERSIONS: dict[tuple[str, str], _Conversion] = {}
+_CONVERSIONS_KEPT = 4096  # unit spellings remembered; a line list uses a handful
+
+
+def _remember(unit: str, kind: str, factor: float, linear: tuple[float, float] | None, basis: FlowBasis = "mass",
+              reference: tuple[float | None, float | None, str | None] = (None, None, None)) -> None:
+    """Keep the conversion of a unit text whose unit passed the checks of ``kind`` (none for a non-linear unit);
+    the checks of the number itself (finite, above zero) run on every call."""
+    if linear is not None and len(_CONVERSIONS) < _CONVERSIONS_KEPT:
+        _CONVERSIONS[(unit, kind)] = _Conversion(factor, *linear, basis, reference)

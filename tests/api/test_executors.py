@@ -1,0 +1,151 @@
+"""One line list, identical results through the CLI, the API, DataFrames and every kind of executor.
+
+The reference is the CLI's JSON (``boresize size --json``); every other path must give the same entries
+(the ``input`` echo aside: the API has no input cells). Executors: in this process, a thread pool, a process
+pool, the default worker processes, and a dask.distributed LocalCluster's executor. Results travel back by
+pickle, so a path that lost or rounded anything would show here.
+"""
+
+from __future__ import annotations
+
+import csv
+import io
+import json
+import subprocess
+import sys
+from collections.abc import Callable
+from concurrent.futures import ProcessPoolExecutor, ThreadPoolExecutor
+from pathlib import Path
+from typing import Any
+
+import pandas as pd
+import pytest
+
+import boresize.api as api
+import boresize.sizing.batch as batch
+from boresize import Line, make_line, read_dataframe, size_many
+from boresize.sizing.batch import run_batch, spec_for
+
+LINES_CSV = """tag,fluid,flow,pressure [barg],temperature [degC],length [m],service,nps,case
+W-1,water,45 t/h,9,30,120,liquid,,
+W-2,water,80 t/h,6,25,60,pump-discharge,,normal
+W-2,water,96 t/h,6.5,25,60,pump-discharge,,maximum
+W-3,water,30 t/h,5,20,40,liquid,2,
+T-4,toluene,18 t/h,4,60,90,liquid,3,
+G-5,nitrogen,1500 Nm3/h,6,20,120,gas,,
+ST-6,steam,5 t/h,10,200,200,steam,,
+H-7,water,20 t/h,3,200,50,liquid,,
+CW-8,water,300 m3/h,4,28,250,cooling-water,,normal
+CW-8,water,340 m3/h,3.8,33,250,cooling-water,,summer
+M-9,methanol,12 t/h,3,35,60,liquid,,
+"""
+# H-7 is an engine error on purpose (water at 200 degC and 3 barg is steam, IAPWS-IF97): errors must match too.
+TIME_LIMIT_S = 180.0  # bound on the dask test, cluster start included
+
+
+@pytest.fixture(scope="module")
+def lines_file(tmp_path_factory) -> Path:
+    path = tmp_path_factory.mktemp("executors") / "lines.csv"
+    path.write_text(LINES_CSV, encoding="utf-8")
+    return path
+
+
+@pytest.fixture(scope="module")
+def reference(lines_file) -> list[dict[str, Any]]:
+    exe = Path(sys.executable).with_name("boresize")
+    proc = subprocess.run([str(exe), "size", str(lines_file), "--json", "--no-plugins"], capture_output=True,
+                          text=True, timeout=300)
+    assert proc.returncode == 1, proc.stderr  # H-7 is an error
+    entries = json.loads(proc.stdout)["lines"]
+    assert [e["status"] for e in entries].count("error") == 1
+    return [_comparable(e) for e in entries]
+
+
+@pytest.fixture(scope="module")
+def items() -> list[Line | tuple[Line, ...]]:
+    """The same line list built with make_line: header units through ``units=``, cases grouped by tag."""
+    reader = csv.reader(io.StringIO(LINES_CSV))
+    header = next(reader)
+    names = [h.split(" [")[0] for h in header]
+    units = {"pressure": "barg", "temperature": "degC", "length": "m"}
+    grouped: dict[str, list[Line]] = {}
+    for cells in reader:
+        row = {n: c for n, c in zip(names, cells) if c}
+        grouped.setdefault(row["tag"], []).append(make_line(**row, units=units))
+    return [group[0] if len(group) == 1 else tuple(group) for group in grouped.values()]
+
+
+def _comparable(entry: dict[str, Any]) -> dict[str, Any]:
+    """An entry as JSON gives it back, without the input echo."""
+    plain = json.loads(json.dumps(entry))
+    plain.pop("input", None)
+    for case in plain.get("cases", []):
+        case.pop("input", None)
+    return plain
+
+
+def _entries(results: list[Any]) -> list[dict[str, Any]]:
+    return [_comparable(r.to_dict()) for r in results]
+
+
+def test_api_in_this_process(items, reference):
+    assert _entries(size_many(items, plugins=False)) == reference
+
+
+def test_dataframe_path(reference):
+    frame = pd.read_csv(io.StringIO(LINES_CSV))
+    spec = spec_for(None, False, None)
+    results = run_batch(read_dataframe(frame).pairs(), spec, sizer=api.default_sizer(spec), progress=False)
+    from boresize.io.document import result_to_dict
+
+    assert [_comparable(result_to_dict(r)) for r in results] == reference
+
+
+def test_thread_pool(items, reference):
+    with ThreadPoolExecutor(max_workers=2) as pool:
+        assert _entries(size_many(items, executor=pool, plugins=False, chunk_size=2)) == reference
+
+
+def test_process_pool(items, reference):
+    with ProcessPoolExecutor(max_workers=2) as pool:
+        assert _entries(size_many(items, executor=pool, plugins=False, chunk_size=3)) == reference
+
+
+def test_worker_processes_start_by_default_for_a_large_batch(monkeypatch):
+    started: list[int] = []
+    real = batch.process_pool
+
+    def spy(workers: int, spec, **options) -> ProcessPoolExecutor:  # type: ignore[no-untyped-def]
+        started.append(workers)
+        return real(workers, spec, **options)
+
+    monkeypatch.setattr(batch, "process_pool", spy)
+    lines = [make_line(tag=f"L-{i}", fluid="water", flow=f"{10 + i % 50} t/h", pressure="5 barg",
+                       temperature="30 degC", density="996 kg/m3", viscosity="0.8 cP")
+             for i in range(api.PROCESS_THRESHOLD)]
+    parallel = size_many(lines, plugins=False)
+    assert len(started) == 1 and started[0] >= 1
+    assert _entries(parallel) == _entries(size_many(lines, workers=1, plugins=False))
+    assert len(started) == 1  # workers=1 stays in this process
+    size_many(lines[:-1], plugins=False)
+    assert len(started) == 1  # below the threshold: no processes
+
+
+def _within(seconds: float, task: Callable[[], Any]) -> Any:
+    """Run ``task`` on a thread and fail the test when it takes longer than ``seconds``."""
+    pool = ThreadPoolExecutor(max_workers=1)
+    try:
+        return pool.submit(task).result(timeout=seconds)
+    finally:
+        pool.shutdown(wait=False)
+
+
+def test_dask_local_cluster(items, reference):
+    distributed = pytest.importorskip("distributed")
+
+    def on_cluster() -> list[Any]:
+        with distributed.LocalCluster(n_workers=2, threads_per_worker=1, processes=True, dashboard_address=None) \
+                as cluster, distributed.Client(cluster) as client:
+            return size_many(items, executor=client.get_executor(), plugins=False, chunk_size=2)
+
+    assert _entries(_within(TIME_LIMIT_S, on_cluster)) == reference

@@ -1,0 +1,161 @@
+"""The command line: JSON contract of DESIGN.md, exit codes, errors without tracebacks."""
+
+from __future__ import annotations
+
+import json
+import subprocess
+import sys
+from pathlib import Path
+
+import pytest
+
+from boresize.cli import main
+
+ROOT = Path(__file__).resolve().parents[2]
+DEMO = ROOT / "examples" / "demo-unit"
+CONTRACT_KEYS = {"tag", "status", "nps", "schedule", "inside_diameter_mm", "velocity_m_s", "dp_kpa_per_100m",
+                 "density_kg_m3", "viscosity_mpa_s", "controlling", "verdicts"}
+
+
+def _run(capsys, *argv: str) -> tuple[int, str, str]:
+    code = main(["size", *argv, "--no-plugins"] if argv and argv[0] != "--" else list(argv))
+    out, err = capsys.readouterr()
+    return code, out, err
+
+
+def test_demo_json_follows_the_contract(capsys):
+    code, out, _ = _run(capsys, str(DEMO / "lines.csv"), "--criteria", str(DEMO / "criteria.toml"), "--json")
+    doc = json.loads(out)
+    tags = [line["tag"] for line in doc["lines"]]
+    # one entry per line: the rows of a line's operating cases share its tag
+    csv_tags = list(dict.fromkeys(row.split(",")[0] for row in (DEMO / "lines.csv").read_text().splitlines()[1:]
+                                  if row.strip()))
+    assert tags == csv_tags
+    for line in doc["lines"]:
+        assert CONTRACT_KEYS <= set(line)
+        assert line["status"] in ("pass", "fail", "error")
+        if line["status"] == "error":
+            assert line["error"]
+        for verdict in line["verdicts"]:
+            assert {"criterion", "status", "value", "limit", "unit", "reason"} <= set(verdict)
+        if line["status"] != "error":  # the calculation record names its property source, version and method
+            assert line["property_source"] and line["property_backend_version"] and line["drop_method"]
+            assert line["choked"] is False
+    assert code == (0 if all(line["status"] == "pass" for line in doc["lines"]) else 1)
+    assert "screening" in doc["caution"]
+
+
+def test_table_output_carries_the_caution(capsys):
+    code, out, _ = _run(capsys, str(DEMO / "lines.csv"), "--criteria", str(DEMO / "criteria.toml"))
+    assert "140-P-001" in out and "CAUTION" in out and "competent engineer" in out
+    assert code in (0, 1)
+
+
+def test_one_line_from_options(capsys):
+    code, out, _ = _run(capsys, "--tag", "X-1", "--fluid", "water", "--flow", "20 t/h", "--pressure", "3 barg",
+                        "--temperature", "25 degC", "--json")
+    line = json.loads(out)["lines"][0]
+    assert (code, line["tag"], line["status"]) == (0, "X-1", "pass")
+
+
+def test_bad_line_is_an_error_entry_and_exit_1(tmp_path, capsys):
+    csv = tmp_path / "lines.csv"
+    csv.write_text("tag,fluid,flow,pressure,temperature\nA,water,10 t/h,3 barg,20 degC\n"
+                   "B,water,10 bar,3 barg,20 degC\nC,water,12 t/h,3 barg,20 degC\n")
+    code, out, err = _run(capsys, str(csv), "--json")
+    lines = json.loads(out)["lines"]
+    assert code == 1
+    assert [line["status"] for line in lines] == ["pass", "error", "pass"]
+    assert lines[1]["error"].startswith("line B: flow: ")
+    assert "Traceback" not in err
+
+
+@pytest.mark.parametrize("argv", [["size", "no-such-file.csv"], ["size", "--bogus"], ["size"],
+                                  ["size", str(DEMO / "lines.csv"), "--criteria", "missing.toml"]])
+def test_usage_errors_exit_2_without_traceback(argv, capsys):
+    try:
+        code = main(argv)
+    except SystemExit as exc:  # argparse exits 2 itself on unknown options
+        code = exc.code
+    _, err = capsys.readouterr()
+    assert code == 2
+    assert "Traceback" not in err and "error" in err
+
+
+def test_bad_criteria_file_is_a_clear_usage_error(tmp_path, capsys):
+    bad = tmp_path / "c.toml"
+    bad.write_text('[service.liquid]\nvelocty = { max = "3 m/s" }\n')
+    code, _, err = _run(capsys, str(DEMO / "lines.csv"), "--criteria", str(bad))
+    assert code == 2
+    assert "service.liquid.velocty: unknown criterion 'velocty'" in err
+
+
+def test_criteria_and_pipes_listings(capsys):
+    assert main(["criteria", "--no-plugins"]) == 0
+    out = capsys.readouterr().out
+    assert "erosional" in out and "pump-suction" in out
+    assert main(["pipes", "--no-plugins"]) == 0
+    assert "default" in capsys.readouterr().out
+    assert main(["pipes", "--nps", "4", "--no-plugins"]) == 0
+    assert "102.26" in capsys.readouterr().out  # NPS 4 Sch 40 ID, ASME B36.10M
+
+
+def test_help_does_not_import_coolprop():
+    # DEPENDENCY-NOTES: importing CoolProp costs ~2.5 s; --help must not pay it.
+    code = ("import sys; from boresize.cli import main\n"
+            "try:\n    main(['--help'])\nexcept SystemExit:\n    pass\n"
+            "print('CoolProp' in sys.modules)")
+    out = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, check=True).stdout
+    assert out.strip().endswith("False")
+
+
+def test_console_script_runs_without_traceback(tmp_path):
+    exe = Path(sys.executable).with_name("boresize")
+    proc = subprocess.run([str(exe), "size", "--fluid", "water", "--flow", "abc t/h", "--pressure", "3 barg",
+                           "--temperature", "20 degC", "--no-plugins"], capture_output=True, text=True)
+    assert proc.returncode == 1
+    assert "Traceback" not in proc.stderr + proc.stdout
+    assert "flow" in proc.stdout
+
+
+@pytest.mark.parametrize("argv", [["--help"], ["size", "--help"], ["criteria", "--help"], ["pipes", "--help"]])
+def test_every_help_page_prints(argv, capsys):
+    with pytest.raises(SystemExit) as info:
+        main(argv)
+    assert info.value.code == 0
+    assert "usage: boresize" in capsys.readouterr().out
+
+
+def test_headroom_option_reports_the_flow_a_velocity_limit_allows(tmp_path, capsys):
+    # Only a velocity limit of 3 m/s: the boundary flow is 3 m/s x rho x bore area. Bore of NPS 4 Sch 40 from
+    # the fluids library (ASME B36.10M), density of water at 20 degC and 5 barg from CoolProp (IAPWS-95).
+    import math
+
+    from CoolProp.CoolProp import PropsSI
+    from fluids.piping import nearest_pipe
+
+    criteria = tmp_path / "c.toml"
+    criteria.write_text('[service.only-velocity]\nphase = "liquid"\nvelocity = { max = "3 m/s" }\n')
+    code, out, _ = _run(capsys, "--tag", "H-1", "--fluid", "water", "--flow", "72 t/h", "--pressure", "5 barg",
+                        "--temperature", "20 degC", "--nps", "4", "--service", "only-velocity",
+                        "--criteria", str(criteria), "--headroom", "--json")
+    entry = json.loads(out)["lines"][0]
+    rho = PropsSI("D", "T", 293.15, "P", 601325.0, "Water")
+    bore = nearest_pipe(NPS=4, schedule="40")[1]
+    expected = (3.0 * rho * math.pi * bore**2 / 4) / (72_000 / 3600) - 1.0
+    assert code == 0
+    assert entry["headroom_percent"] == pytest.approx(expected * 100, abs=0.05)
+    assert entry["headroom_limited_by"] == ["velocity"]
+
+
+def test_every_size_rates_from_the_smallest_and_selects_the_same(capsys):
+    # The selection's definition (smallest passing size, every size rated from the smallest) against the guided
+    # scan the CLI uses by default; the record of --every-size starts at the pipe class's smallest size.
+    args = (str(DEMO / "lines.csv"), "--criteria", str(DEMO / "criteria.toml"), "--json")
+    guided = json.loads(_run(capsys, *args)[1])["lines"]
+    every = json.loads(_run(capsys, *args, "--every-size")[1])["lines"]
+    keys = ("status", "nps", "schedule", "controlling", "verdicts", "governing")
+    assert [[g.get(k) for k in keys] for g in guided] == [[e.get(k) for k in keys] for e in every]
+    sized = [(g, e) for g, e in zip(guided, every) if g["mode"] == "size" and g["status"] == "pass"]
+    assert sized and all(e["candidates"][0]["nps"] == "1/2" for _, e in sized)  # the default class starts at 1/2
+    assert sum(len(g["candidates"]) for g, _ in sized) < sum(len(e["candidates"]) for _, e in sized)

@@ -1,0 +1,166 @@
+"""The HTML report: content a checker needs, escaping of user text, and rendering in headless Chromium.
+
+Outside references: the standard library's HTML parser (what is markup and what is text), hashlib
+(the input file's SHA-256), importlib.metadata (installed versions), and Chromium itself.
+"""
+
+from __future__ import annotations
+
+import hashlib
+import importlib.metadata
+import subprocess
+from html.parser import HTMLParser
+from pathlib import Path
+
+import pytest
+
+from boresize.sizing.batch import run_batch
+from boresize.sizing.engine import Sizer
+from boresize.io import read_line_list
+from boresize.io.csv_reader import parse_csv_text
+from boresize.report.html import render_html
+from boresize.report.plot import DROP_COLOUR, VELOCITY_COLOUR
+from boresize.report.trace import traceability
+
+DEMO = Path(__file__).resolve().parents[2] / "examples" / "demo-unit"
+CHROMIUM = Path("/usr/bin/chromium")
+HOSTILE_TAG = '<script>alert("x")</script>'
+FLAGS = ("--headless", "--no-sandbox", "--disable-gpu", "--disable-quic", "--no-first-run",
+         "--disable-background-networking", "--disable-component-update", "--disable-sync")
+
+
+class _Parsed(HTMLParser):
+    """Start tags and text of a document, as a browser's tokenizer sees them."""
+
+    def __init__(self) -> None:
+        super().__init__()
+        self.tags: list[str] = []
+        self.text: list[str] = []
+
+    def handle_starttag(self, tag, attrs):  # type: ignore[no-untyped-def]
+        self.tags.append(tag)
+
+    def handle_data(self, data):  # type: ignore[no-untyped-def]
+        self.text.append(data)
+
+
+class _Tables(HTMLParser):
+    """Every table as rows of cell texts."""
+
+    def __init__(self) -> None:
+        super().__init__()
+        self.tables: list[list[list[str]]] = []
+        self._cell: list[str] | None = None
+
+    def handle_starttag(self, tag, attrs):  # type: ignore[no-untyped-def]
+        if tag == "table":
+            self.tables.append([])
+        elif tag == "tr":
+            self.tables[-1].append([])
+        elif tag in ("td", "th"):
+            self._cell = []
+
+    def handle_endtag(self, tag):  # type: ignore[no-untyped-def]
+        if tag in ("td", "th") and self._cell is not None:
+            self.tables[-1][-1].append("".join(self._cell).strip())
+            self._cell = None
+
+    def handle_data(self, data):  # type: ignore[no-untyped-def]
+        if self._cell is not None:
+            self._cell.append(data)
+
+
+def _tables(html: str) -> list[list[list[str]]]:
+    parsed = _Tables()
+    parsed.feed(html)
+    return parsed.tables
+
+
+def _parse(html: str) -> _Parsed:
+    parsed = _Parsed()
+    parsed.feed(html)
+    return parsed
+
+
+@pytest.fixture(scope="module")
+def demo(host) -> tuple[str, list, object]:
+    sizer = Sizer(host, criteria_file=DEMO / "criteria.toml")
+    line_list = read_line_list(DEMO / "lines.csv")
+    results = run_batch(line_list.pairs(), sizer=sizer)
+    trace = traceability(sizer, lines_source=line_list.source, lines_digest=line_list.digest)
+    html = render_html(results, trace=trace, title="demo", headers=line_list.headers, units=line_list.units)
+    return html, results, trace
+
+
+def _hostile_report(host, title: str = '<b>"demo"</b>') -> str:
+    text = (f"tag,fluid,flow,pressure,temperature,case\n\"{HOSTILE_TAG.replace(chr(34), chr(34) * 2)}\",water,"
+            f"20 t/h,5 barg,20 degC,<img src=x onerror=alert(1)>\n")
+    sizer = Sizer(host)
+    line_list = parse_csv_text(text)
+    results = run_batch(line_list.pairs(), sizer=sizer)
+    return render_html(results, trace=traceability(sizer, lines_source="<i>x</i>"), title=title,
+                       headers=line_list.headers, units=line_list.units)
+
+
+def test_user_strings_are_text_not_markup(host):
+    html = _hostile_report(host)
+    parsed = _parse(html)
+    assert "script" not in parsed.tags and "img" not in parsed.tags and "b" not in parsed.tags
+    assert "i" not in parsed.tags
+    text = "".join(parsed.text)
+    assert HOSTILE_TAG in text and "<img src=x onerror=alert(1)>" in text and '<b>"demo"</b>' in text
+
+
+def test_report_holds_summary_records_plot_cautions_and_traceability(demo):
+    html, results, trace = demo
+    parsed = _parse(html)
+    text = " ".join(parsed.text)
+    assert parsed.tags.count("svg") == len(results)  # one plot per line
+    for result in results:
+        assert result.tag in text
+        for case in result.cases or (result,):
+            for verdict in case.selected.verdicts if case.selected else ():
+                assert verdict.reason in text  # every verdict with its reason
+    assert 'class="pass"' in html and 'class="fail"' in html  # status colours
+    assert "competent engineer" in text
+    digest = hashlib.sha256((DEMO / "lines.csv").read_bytes()).hexdigest()
+    assert digest in text and trace["lines_sha256"] == digest
+    assert trace["boresize_version"] == importlib.metadata.version("boresize")
+    assert trace["libraries"]["CoolProp"] == importlib.metadata.version("CoolProp")
+    assert any(b["id"] == "coolprop" and b["version"] == importlib.metadata.version("CoolProp")
+               for b in trace["property_backends"])
+    assert "demo-unit rev B" in trace["criteria_set"]
+
+
+def test_candidate_table_runs_from_one_size_below_to_two_above(demo):
+    html, results, _ = demo
+    line = next(r for r in results if r.tag == "140-P-001")
+    labels = [c.candidate.nps for c in line.candidates]
+    at = labels.index(line.selected.candidate.nps)
+    section = html[html.index('id="line-1"'):html.index('id="line-2"')]
+    table = next(t for t in _tables(section) if t[0][:2] == ["NPS", "Sch"])
+    assert [row[0] for row in table[1:]] == [f"{n} (selected)" if n == labels[at] else n
+                                             for n in labels[at - 1:at + 3]]
+
+
+@pytest.mark.skipif(not CHROMIUM.exists(), reason="Chromium is not installed at /usr/bin/chromium "
+                    "(apt-get install -y chromium); CI images may not have it")
+def test_report_renders_in_headless_chromium_with_the_plot_visible(host, tmp_path):
+    from matplotlib.image import imread
+
+    page = tmp_path / "report.html"
+    page.write_text(_hostile_report(host), encoding="utf-8")
+    shot = tmp_path / "shot.png"
+    flags = [*FLAGS, f"--user-data-dir={tmp_path / 'profile'}"]
+    subprocess.run([str(CHROMIUM), *flags, "--window-size=1280,1400", f"--screenshot={shot}", page.as_uri()],
+                   capture_output=True, timeout=120, check=True)
+    pixels = imread(shot)[..., :3]
+
+    def count(colour: str) -> int:
+        rgb = [int(colour[i:i + 2], 16) / 255 for i in (1, 3, 5)]
+        return int(((abs(pixels - rgb) < 0.06).all(axis=-1)).sum())
+
+    assert count(VELOCITY_COLOUR) > 150 and count(DROP_COLOUR) > 150  # both plot series are on screen
+    dom = subprocess.run([str(CHROMIUM), *flags, "--dump-dom", page.as_uri()], capture_output=True, text=True,
+                         timeout=120, check=True).stdout
+    assert "<script" not in dom and "&lt;script&gt;alert" in dom  # the tag is text in the browser's DOM

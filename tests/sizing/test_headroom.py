@@ -1,0 +1,79 @@
+"""Rating mode ("headroom"): the largest flow a line carries at its size before a criterion fails."""
+
+from __future__ import annotations
+
+import math
+from dataclasses import replace
+
+import pytest
+from CoolProp.CoolProp import PropsSI
+from fluids.piping import nearest_pipe
+
+from boresize.sizing.engine import Sizer
+from boresize.io.rows import line_from_row
+from boresize.sizing.headroom import TOLERANCE, find_headroom, headroom, headroom_to_dict
+
+WATER = {"tag": "HR-1", "fluid": "water", "flow": "60 t/h", "pressure": "5 barg", "temperature": "20 degC",
+         "length": "100 m", "service": "liquid", "fittings": "elbow-90-lr: 4; gate: 2; check-swing"}
+
+
+def _at(sizer: Sizer, line, factor: float):
+    """The line at its rated size with its flow times ``factor`` and no design margin."""
+    flow = replace(line.flow, value=line.flow.value * factor)
+    return sizer.run(replace(line, flow=flow, design_margin=0.0))
+
+
+@pytest.mark.parametrize("cells", [{}, {"design_margin": "10 %"}, {"nps": "6"}, {"nps": "3"}])
+def test_headroom_is_the_boundary_between_pass_and_fail(sizer, cells):
+    line = line_from_row({**WATER, **cells})
+    result = find_headroom(sizer, line)
+    assert result.percent is not None
+    fixed = replace(line, nps=result.nps)
+    boundary = 1.0 + result.percent / 100.0
+    at = _at(sizer, fixed, boundary)
+    below = _at(sizer, fixed, boundary * (1.0 - 10 * TOLERANCE))
+    assert at.status == "fail" and below.status == "pass"
+    failing = {v.criterion for v in at.selected.verdicts if v.status == "fail"}
+    assert failing and failing == set(result.limited_by)
+    assert all(v.status in ("pass", "warn", "not-applicable") for v in below.selected.verdicts)
+    if cells.get("nps") == "3":  # 60 t/h is too much for NPS 3 (about 3.6 m/s): negative headroom
+        assert result.percent < 0.0
+
+
+def test_headroom_under_a_velocity_limit_matches_the_pipe_area(host, tmp_path):
+    # Only a velocity limit: the boundary is v = 3 m/s, i.e. m = 3 rho A with rho from CoolProp (IAPWS-95)
+    # at 20 degC, 6.01325 bar abs and the NPS 4 Sch 40 ID from fluids' ASME B36.10M table.
+    criteria = tmp_path / "velocity-only.toml"
+    criteria.write_text('[service.liquid]\nphase = "liquid"\nvelocity = { max = "3 m/s" }\n', encoding="utf-8")
+    sizer = Sizer(host, criteria_file=criteria)
+    line = line_from_row({**WATER, "nps": "4"})
+    rho = PropsSI("D", "T", 293.15, "P", 601_325.0, "Water")
+    di = nearest_pipe(NPS=4, schedule="40")[1]
+    expected = 3.0 * rho * math.pi * di**2 / 4 / (60_000 / 3600) - 1.0
+    assert headroom(sizer, line) == pytest.approx(100.0 * expected, abs=100.0 * 2 * TOLERANCE)
+
+
+def test_headroom_of_a_gas_line_against_its_outlet_pressure(host, tmp_path):
+    # A methane line marched as compressible, limited by the receiver's minimum pressure.
+    criteria = tmp_path / "outlet.toml"
+    criteria.write_text('[service.gas]\nphase = "gas"\noutlet-pressure = { min = "12 bar" }\n', encoding="utf-8")
+    sizer = Sizer(host, criteria_file=criteria)
+    line = line_from_row({"tag": "HR-G", "fluid": "methane", "flow": "8 t/h", "pressure": "20 bar",
+                          "temperature": "20 degC", "length": "10 km", "nps": "6", "service": "gas"})
+    result = find_headroom(sizer, line)
+    assert result.limited_by == ("outlet-pressure",)
+    boundary = 1.0 + result.percent / 100.0
+    at, below = _at(sizer, line, boundary), _at(sizer, line, boundary * (1.0 - 10 * TOLERANCE))
+    assert at.status == "fail" and below.status == "pass"
+    assert at.selected.hydraulics.method.startswith("isothermal compressible flow")
+    # At the boundary the outlet sits on the 12 bar minimum.
+    assert at.selected.hydraulics.outlet_pressure == pytest.approx(12e5, rel=1e-3)
+
+
+def test_headroom_json_keys_and_an_unratable_line(sizer):
+    line = line_from_row(WATER)
+    entry = headroom_to_dict(find_headroom(sizer, line))
+    assert set(entry) == {"headroom_percent", "headroom_nps", "headroom_limited_by", "headroom_note"}
+    assert entry["headroom_note"].startswith(f"at NPS {entry['headroom_nps']} the flow can rise to ")
+    bad = find_headroom(sizer, line_from_row({**WATER, "fittings": "elbow-91"}))
+    assert bad.percent is None and bad.note.startswith("line HR-1: fittings: unknown fitting 'elbow-91'")
