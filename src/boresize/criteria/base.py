@@ -8,7 +8,7 @@ reads (see :class:`Criterion`). :class:`Criterion` is a convenient base class; p
 from __future__ import annotations
 
 from collections.abc import Mapping
-from dataclasses import dataclass, fields
+from dataclasses import dataclass
 from typing import Any, Literal
 
 from boresize.errors import CriteriaFileError, InputError
@@ -39,7 +39,7 @@ class OptionSpec:
     help: str = ""
 
 
-@dataclass(frozen=True, init=False)
+@dataclass(frozen=True)
 class CriterionContext:
     """Everything a criterion may look at for one candidate. Options are SI floats by name."""
 
@@ -49,13 +49,6 @@ class CriterionContext:
     hydraulics: Hydraulics
     options: Mapping[str, float]
     service: str
-
-    def __init__(self, line: Line, state: FluidState, candidate: Candidate, hydraulics: Hydraulics,
-                 options: Mapping[str, float], service: str) -> None:
-        # One context per criterion per candidate: filling the instance dict costs a third of the generated
-        # frozen __init__ (one object.__setattr__ a field). The fields stay read-only (frozen).
-        self.__dict__.update(line=line, state=state, candidate=candidate, hydraulics=hydraulics, options=options,
-                             service=service)
 
 
 def parse_options(criterion: Any, given: Mapping[str, object], where: str) -> dict[str, float]:
@@ -98,21 +91,7 @@ def verdict(
     utilisation: float | None = None,
 ) -> Verdict:
     """Build a Verdict carrying the criterion's id and source."""
-    if not _FILL_VERDICT:
-        return Verdict(criterion.id, status, (reason,), criterion.source, value, limit, unit, utilisation)
-    built = _new_object(Verdict)
-    built.__dict__.update(criterion=criterion.id, status=status, reasons=(reason,), source=criterion.source,
-                          value=value, limit=limit, unit=unit, utilisation=utilisation)
-    return built
-
-
-# verdict() runs for every criterion on every candidate. Verdict's generated frozen __init__ sets each field
-# through object.__setattr__; filling the instance dict gives the same object for a third of the cost, as long
-# as Verdict has exactly the fields filled above and neither __post_init__ nor __slots__ (else: the __init__).
-_new_object = object.__new__
-_FILL_VERDICT = (tuple(f.name for f in fields(Verdict)) == ("criterion", "status", "reasons", "source", "value",
-                                                            "limit", "unit", "utilisation")
-                 and not hasattr(Verdict, "__post_init__") and not hasattr(Verdict, "__slots__"))
+    return Verdict(criterion.id, status, (reason,), criterion.source, value, limit, unit, utilisation)
 
 
 class Criterion:

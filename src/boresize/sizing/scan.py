@@ -30,16 +30,13 @@ from boresize.criteria.base import SizeTrend
 from boresize.errors import BoresizeError
 from boresize.model import PASSING_STATUSES, Candidate, CandidateResult, FluidState, Line, Verdict
 
-__all__ = ["BandsMemo", "RATED_ABOVE", "SizeTrend", "criterion_trends", "declared_trend", "direction", "rated_span",
+__all__ = ["RATED_ABOVE", "SizeTrend", "criterion_trends", "declared_trend", "direction", "rated_span",
            "start_diameter", "trend_of"]
 
 #: Sizes rated above the selected one when sizing (the calculation record shows one below to two above).
 RATED_ABOVE = 2
 #: rate(i) -> the results of candidate ``i`` in every case of the line (rated once, then remembered).
 Rate = Callable[[int], Sequence[CandidateResult]]
-#: (banded criterion, which pressure bounds hold) -> whether its bands keep its trend, over ONE list of candidates
-#: (the caller keeps one memo per list). Keyed by the criterion object itself, which the memo keeps alive.
-BandsMemo = dict[tuple[BandedCriterion, tuple[bool, ...]], bool]
 
 
 def declared_trend(criterion: Any) -> SizeTrend | None:
@@ -48,25 +45,18 @@ def declared_trend(criterion: Any) -> SizeTrend | None:
     return trend if trend in ("larger-passes", "falls-with-size") else None
 
 
-def trend_of(criterion: Any, pressure: float, candidates: Sequence[Candidate],
-             memo: BandsMemo | None = None) -> SizeTrend | None:
+def trend_of(criterion: Any, pressure: float, candidates: Sequence[Candidate]) -> SizeTrend | None:
     """The criterion's trend on a line at inlet ``pressure`` [Pa abs] over ``candidates``, or None (unknown).
 
     The trend is the criterion's declared ``size_trend``. A criterion banded by NPS keeps it only when, over the
     candidates, no limit of a later band is below the one before it (a limit that shrinks as sizes grow can make
     a larger size fail again); a ``larger-passes`` criterion keeps it only when its options are the same in every
-    band. ``memo`` (for these candidates only) remembers that judgement for the next line.
+    band.
     """
     trend = declared_trend(criterion)
     if trend is None or not isinstance(criterion, BandedCriterion):
         return trend
-    key = (criterion, tuple(b.up_to_pressure is None or pressure <= b.up_to_pressure for b in criterion.bands))
-    kept = memo.get(key) if memo is not None else None
-    if kept is None:
-        kept = _bands_keep(criterion, trend, pressure, candidates)
-        if memo is not None:
-            memo[key] = kept
-    return trend if kept else None
+    return trend if _bands_keep(criterion, trend, pressure, candidates) else None
 
 
 def _bands_keep(banded: Any, trend: SizeTrend, pressure: float, candidates: Sequence[Candidate]) -> bool:
@@ -105,15 +95,15 @@ def direction(verdict: Verdict, trend: SizeTrend | None) -> int | None:
     return 1 if verdict.value > verdict.limit else -1
 
 
-def criterion_trends(criteria: Iterable[Any], pressures: Iterable[float], candidates: Sequence[Candidate],
-                     memo: BandsMemo | None = None) -> dict[str, SizeTrend | None]:
+def criterion_trends(criteria: Iterable[Any], pressures: Iterable[float],
+                     candidates: Sequence[Candidate]) -> dict[str, SizeTrend | None]:
     """Criterion id -> its trend over ``candidates`` at every inlet pressure of the line's cases (None if any
     case leaves it unknown, or the cases disagree)."""
     trends: dict[str, SizeTrend | None] = {}
     pressures = tuple(pressures)
     for criterion in criteria:
         for pressure in pressures:
-            trend = trend_of(criterion, pressure, candidates, memo)
+            trend = trend_of(criterion, pressure, candidates)
             known = trends.setdefault(criterion.id, trend)
             if known != trend:
                 trends[criterion.id] = None
