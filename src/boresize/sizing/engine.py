@@ -131,7 +131,7 @@ class Sizer:
     def _candidates_of(self, line: Line, pipe_class: PipeClass) -> tuple[Candidate, ...]:
         """The class's sizes, or the one size a checked line gives (cached by content: building them costs more
         than rating)."""
-        key = (pipe_class, line.nps, line.schedule)  # cached: +32 % on the demo case of benchmarks/bench_rating.py
+        key = (pipe_class, line.nps, line.schedule)  # cached: +28-32 % on the demo case, benchmarks/bench_rating.py
         cached = self._candidates.get(key)
         if cached is None:
             cached = self._candidates[key] = _candidates(pipe_class, line)
