@@ -17,8 +17,8 @@ from boresize.sizing.services import Service, SizingConfig
 from boresize.criteria.bands import resolve_criterion
 from boresize.criteria.base import CriterionContext, verdict
 from boresize.sizing.engine import Sizer
-from boresize.model import Verdict
-from boresize.sizing.scan import direction, trend_of
+from boresize.model import FluidState, Verdict
+from boresize.sizing.scan import direction, start_diameter, trend_of
 
 # Water at about 20 degC with its properties given (density and viscosity: IAPWS-95 at 20 degC, 1 atm, from
 # memory to 3 figures), so that the tests need no equation of state.
@@ -128,3 +128,27 @@ def test_a_roughness_beyond_the_smallest_bore_is_refused_whichever_sizes_are_rat
     result = _sizers(host)[0].run(line)
     assert result.status == "error" and result.error is not None
     assert "smaller than the inside diameter 0.01576 m" in result.error  # ASME B36.10M: 1/2 Sch 40 ID 15.80 mm
+
+
+def test_a_banded_criterion_carries_the_traits_of_the_one_it_wraps(host: Any) -> None:
+    velocity = host.criteria.get("velocity")
+    banded, _ = resolve_criterion(velocity, {"bands": [{"up_to_nps": "2", "max": "1 m/s"}, {"max": "2 m/s"}]}, "t")
+    assert (banded.size_trend, banded.march_only_worsens) == ("falls-with-size", True)
+    assert banded.proposes_first_guess is False  # a limit that depends on the size gives the record no first guess
+    state = FluidState(density=998.0, viscosity=1e-3, phase="liquid", source="given", model="given")
+    # 0.01 m3/s at the largest sizes' 2 m/s: D = sqrt(4 Q / (pi v)) = 0.0797885 m (continuity)
+    at_limit = banded.diameter_at_limit({}, _line("36 m3/h"), state, 0.01 * 998.0, 4.5e-5)
+    assert at_limit == pytest.approx(0.0797885, rel=1e-6)
+
+
+def test_the_scan_starts_where_the_largest_proposal_meets_its_limit(host: Any) -> None:
+    class Proposes(AtLeast):
+        def diameter_at_limit(self, options: Any, line: Any, state: Any, mass_flow: float,
+                              roughness: float) -> float:
+            return 0.2
+
+    state = FluidState(density=998.0, viscosity=1e-3, phase="liquid", source="given", model="given")
+    plain = Service(name="t", criteria=((NoSize(), {}),))
+    assert start_diameter(plain, _line("36 m3/h"), state, 9.98, 4.5e-5) == 0.0  # nothing proposed: the smallest
+    both = Service(name="t", criteria=((Proposes(), {}), (host.criteria.get("velocity"), {"max": 2.0})))
+    assert start_diameter(both, _line("36 m3/h"), state, 9.98, 4.5e-5) == 0.2

@@ -20,14 +20,15 @@ A candidate that no band covers gets an ``error`` verdict that says which size a
 
 from __future__ import annotations
 
+import math
 from collections.abc import Mapping, Sequence
 from dataclasses import dataclass, replace
 from functools import cached_property
 from typing import Any
 
-from boresize.criteria.base import CriterionContext, parse_options
+from boresize.criteria.base import CriterionContext, SizeTrend, parse_options
 from boresize.errors import CriteriaFileError, InputError
-from boresize.model import Verdict
+from boresize.model import FluidState, Line, Verdict
 from boresize.pipes import normalise_nps, nps_value
 from boresize.units import parse_quantity
 
@@ -73,8 +74,14 @@ class BandedCriterion:
     """A criterion judged with the options of the band that covers each candidate.
 
     It carries the wrapped criterion's id, title, phases, source and options, so that the engine, the
-    listings and error verdicts see the criterion itself.
+    listings and error verdicts see the criterion itself, and its traits (see
+    :class:`boresize.criteria.Criterion`): ``size_trend`` and ``march_only_worsens`` as declared (the guided
+    scan then checks that the bands keep the trend over the sizes it rates), ``diameter_at_limit`` with the
+    options of the band for the largest sizes at the line's pressure. A banded limit depends on the size, so it
+    proposes no first guess for the record (``proposes_first_guess`` is False).
     """
+
+    proposes_first_guess = False
 
     def __init__(self, inner: Any, bands: Sequence[Band], where: str) -> None:
         self.inner = inner
@@ -82,6 +89,8 @@ class BandedCriterion:
         self.where = where
         self.id, self.title, self.phases = inner.id, inner.title, inner.phases
         self.source, self.options = inner.source, inner.options
+        self.size_trend: SizeTrend | None = getattr(inner, "size_trend", None)
+        self.march_only_worsens: bool = getattr(inner, "march_only_worsens", False)
 
     def band_for(self, nps: float, pressure: float) -> Band | None:
         """The first band that covers NPS ``nps`` [-] at inlet pressure ``pressure`` [Pa abs], or None."""
@@ -89,6 +98,16 @@ class BandedCriterion:
             if band.covers(nps, pressure):
                 return band
         return None
+
+    def diameter_at_limit(self, options: Mapping[str, float], line: Line, state: FluidState, mass_flow: float,
+                          roughness: float) -> float | None:
+        """The wrapped criterion's diameter at its limit, with the options of the band for the largest sizes at
+        the line's inlet pressure (``options``, the banded criterion's own, are empty)."""
+        band = self.band_for(math.inf, line.pressure)
+        at_limit = getattr(self.inner, "diameter_at_limit", None)
+        if band is None or at_limit is None:
+            return None
+        return at_limit(band.options, line, state, mass_flow, roughness)  # type: ignore[no-any-return]
 
     def evaluate(self, context: CriterionContext) -> Verdict:
         cand, line = context.candidate, context.line

@@ -1,21 +1,24 @@
 """What every criterion shares: option specs with units, the evaluation context, verdict helpers.
 
 A criterion is any object with ``id``, ``title``, ``phases``, ``source``, ``options`` (a tuple of
-:class:`OptionSpec`) and ``evaluate(context) -> Verdict``. :class:`Criterion` is a convenient base
-class; plugins may use it or not.
+:class:`OptionSpec`) and ``evaluate(context) -> Verdict``, and optionally the traits the sizing core
+reads (see :class:`Criterion`). :class:`Criterion` is a convenient base class; plugins may use it or not.
 """
 
 from __future__ import annotations
 
 from collections.abc import Mapping
-from dataclasses import dataclass, fields
-from typing import Any
+from dataclasses import dataclass
+from typing import Any, Literal
 
 from boresize.errors import CriteriaFileError, InputError
 from boresize.model import Candidate, FluidState, Hydraulics, Line, Verdict, VerdictStatus
 from boresize.units import QuantityKind, parse_quantity
 
-__all__ = ["OptionSpec", "CriterionContext", "Criterion", "parse_options", "verdict"]
+__all__ = ["OptionSpec", "CriterionContext", "Criterion", "SizeTrend", "parse_options", "verdict"]
+
+#: How a criterion's fails respond to the pipe size (see :class:`Criterion`).
+SizeTrend = Literal["larger-passes", "falls-with-size"]
 
 
 @dataclass(frozen=True)
@@ -36,7 +39,7 @@ class OptionSpec:
     help: str = ""
 
 
-@dataclass(frozen=True, init=False)
+@dataclass(frozen=True)
 class CriterionContext:
     """Everything a criterion may look at for one candidate. Options are SI floats by name."""
 
@@ -46,13 +49,6 @@ class CriterionContext:
     hydraulics: Hydraulics
     options: Mapping[str, float]
     service: str
-
-    def __init__(self, line: Line, state: FluidState, candidate: Candidate, hydraulics: Hydraulics,
-                 options: Mapping[str, float], service: str) -> None:
-        # One context per criterion per candidate: filling the instance dict costs a third of the generated
-        # frozen __init__ (one object.__setattr__ a field). The fields stay read-only (frozen).
-        self.__dict__.update(line=line, state=state, candidate=candidate, hydraulics=hydraulics, options=options,
-                             service=service)
 
 
 def parse_options(criterion: Any, given: Mapping[str, object], where: str) -> dict[str, float]:
@@ -95,34 +91,48 @@ def verdict(
     utilisation: float | None = None,
 ) -> Verdict:
     """Build a Verdict carrying the criterion's id and source."""
-    if not _FILL_VERDICT:
-        return Verdict(criterion.id, status, (reason,), criterion.source, value, limit, unit, utilisation)
-    built = _new_object(Verdict)
-    built.__dict__.update(criterion=criterion.id, status=status, reasons=(reason,), source=criterion.source,
-                          value=value, limit=limit, unit=unit, utilisation=utilisation)
-    return built
-
-
-# verdict() runs for every criterion on every candidate. Verdict's generated frozen __init__ sets each field
-# through object.__setattr__; filling the instance dict gives the same object for a third of the cost, as long
-# as Verdict has exactly the fields filled above and neither __post_init__ nor __slots__ (else: the __init__).
-_new_object = object.__new__
-_FILL_VERDICT = (tuple(f.name for f in fields(Verdict)) == ("criterion", "status", "reasons", "source", "value",
-                                                            "limit", "unit", "utilisation")
-                 and not hasattr(Verdict, "__post_init__") and not hasattr(Verdict, "__slots__"))
+    return Verdict(criterion.id, status, (reason,), criterion.source, value, limit, unit, utilisation)
 
 
 class Criterion:
-    """Base for built-in criteria: set id, title, phases, source and options; implement evaluate."""
+    """Base for criteria: set id, title, phases, source and options; implement evaluate.
+
+    The sizing core knows nothing of a criterion but what it declares. Besides the required attributes, a
+    criterion may declare these traits (the defaults here mean "unknown", which is always right and only
+    slower); built-in criteria declare theirs exactly as a plugin does:
+
+    - ``size_trend``: how its fails respond to the pipe size, so that the guided scan may walk instead of
+      rating every size from the smallest. ``"larger-passes"``: any fail is cured by a larger size (a minimum
+      bore, an NPSH-like margin). ``"falls-with-size"``: the verdict's ``value`` falls as the size grows (at a
+      fixed mass flow), so a value above its ``limit`` is cured by a larger size and one below it (a minimum)
+      by a smaller one. None: unknown, a fail sends the scan back to every size.
+    - ``march_only_worsens``: True when marching a gas line (the compressible method) can only raise the value
+      judged, so that a candidate that already fails above the maximum with the simple method is not marched.
+    - ``diameter_at_limit(options, line, state, mass_flow, roughness)``: the inside diameter [m] at which the
+      criterion's limit (from ``options``, SI) is just met at ``mass_flow`` [kg/s] with ``roughness`` [m], or
+      None. The guided scan starts from the largest proposal; it is only a starting point.
+    - ``proposes_first_guess``: True when that diameter is the one the calculation record shows as the first
+      guess (``first_guess_id_mm``); the first criterion of a service that says so and gives one is used.
+
+    Declare a trait only when it holds for every line and option: the scan trusts it to skip sizes.
+    """
 
     id: str = ""
     title: str = ""
     phases: frozenset[str] = frozenset({"liquid", "gas"})
     source: str = ""
     options: tuple[OptionSpec, ...] = ()
+    size_trend: SizeTrend | None = None
+    march_only_worsens: bool = False
+    proposes_first_guess: bool = False
 
     def evaluate(self, context: CriterionContext) -> Verdict:  # pragma: no cover - abstract
         raise NotImplementedError
+
+    def diameter_at_limit(self, options: Mapping[str, float], line: Line, state: FluidState, mass_flow: float,
+                          roughness: float) -> float | None:
+        """The inside diameter [m] at which this criterion's limit is just met, or None (no proposal)."""
+        return None
 
     def __repr__(self) -> str:
         return f"<criterion {self.id}>"

@@ -6,7 +6,8 @@ from collections.abc import Mapping
 
 from boresize.criteria.base import Criterion, CriterionContext, OptionSpec, verdict
 from boresize.criteria.limits import check_range, judge_range
-from boresize.model import Verdict
+from boresize.hydraulics import swamee_jain_diameter
+from boresize.model import FluidState, Line, Verdict
 
 __all__ = ["DropPerLength", "PA_PER_M_PER_KPA_100M"]
 
@@ -16,6 +17,9 @@ PA_PER_M_PER_KPA_100M = 10.0
 
 class DropPerLength(Criterion):
     id = "drop-per-length"
+    size_trend = "falls-with-size"  # Darcy-Weisbach: dp/L ~ D^-5 at a fixed mass flow
+    march_only_worsens = True  # the mean drop per length grows as the gas expands along the line
+    proposes_first_guess = True  # the record's first guess is the Swamee-Jain diameter of the maximum drop
     title = "Pressure drop per length (Darcy-Weisbach, Colebrook)"
     source = "company practice (the shipped values are common practice); drop by Darcy-Weisbach with Colebrook (1939)"
     options = (
@@ -35,3 +39,11 @@ class DropPerLength(Criterion):
                            f"{shown:.3g} kPa/100 m covers only the length reached)", value=shown, limit=limit,
                            unit="kPa/100 m", utilisation=max(1.0, shown / limit))
         return judge_range(self, h.drop_per_length, context.options, "drop", "kPa/100 m", PA_PER_M_PER_KPA_100M)
+
+    def diameter_at_limit(self, options: Mapping[str, float], line: Line, state: FluidState, mass_flow: float,
+                          roughness: float) -> float | None:
+        """The bore at which the drop per length equals ``max``: the explicit Swamee-Jain (1976) diameter."""
+        limit = options.get("max")
+        if limit is None or not limit > 0:
+            return None
+        return swamee_jain_diameter(mass_flow / state.density, limit, state.density, state.viscosity, roughness)

@@ -12,6 +12,8 @@ __all__ = ["C_US_TO_SI", "ErosionalVelocity", "erosional_velocity"]  # the kerne
 
 class ErosionalVelocity(Criterion):
     id = "erosional"
+    size_trend = "larger-passes"  # v = Q/A falls as the bore grows; the limit C/sqrt(rho) does not change
+    march_only_worsens = True  # marching keeps the inlet velocity judged here: a fail above the maximum stays
     title = "Erosional velocity (API RP 14E)"
     source = "API RP 14E, 5th ed. (1991), eq. 2.14: v_e = C/sqrt(rho); C = 100 (US units) for continuous service"
     options = (

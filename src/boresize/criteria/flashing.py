@@ -42,6 +42,7 @@ def lowest_pressure(inlet_pressure: float, friction: float, fittings: float, sta
 
 class Flashing(Criterion):
     id = "flashing"
+    size_trend = "larger-passes"  # the lowest pressure on the line rises with the bore (less friction)
     title = "No flashing along a liquid line (lowest pressure above the vapour or bubble pressure)"
     phases = frozenset({"liquid"})
     source = "physics: a liquid boils where its pressure falls below its vapour or bubble pressure"

@@ -35,6 +35,8 @@ def noise_velocity_limit(density: float, a: float, b: float, cap: float) -> floa
 
 class NoiseVelocity(Criterion):
     id = "noise-velocity"
+    size_trend = "larger-passes"  # v falls as the bore grows; the limit a*rho^-b does not change
+    march_only_worsens = True  # marching keeps the inlet velocity judged here: a fail above the maximum stays
     title = "Gas velocity limit against noise: v = a*rho^-b, capped"
     phases = frozenset({"gas"})
     source = "company practice: v_max = a*rho^-b with a cap (shipped a = 175, b = 0.43, cap 60 m/s from memory)"

@@ -60,6 +60,7 @@ def drain_regime(froude: float, limit: float = SIMPSON_LIMIT, clearing: float = 
 
 class GravityDrain(Criterion):
     id = "gravity-drain"
+    size_trend = "larger-passes"  # the Froude number v/sqrt(gD) falls as the bore grows
     title = "Gravity drain self-venting (Froude number on the full bore, Simpson's limit)"
     phases = frozenset({"liquid"})
     source = ("Simpson (1968), Chem. Eng. 75(13): self-venting below Fr = v/sqrt(gD) = 0.31; "

@@ -20,6 +20,8 @@ __all__ = ["MachLimit"]
 
 class MachLimit(Criterion):
     id = "mach"
+    size_trend = "larger-passes"  # v, and with it v/c, falls as the bore grows
+    march_only_worsens = True  # the outlet Mach number grows as the gas expands along the line
     title = "Mach number maximum (speed of sound from the equation of state)"
     phases = frozenset({"gas"})
     source = "company practice (the shipped values are common practice); c from the property backend's EOS"

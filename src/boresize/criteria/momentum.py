@@ -18,6 +18,8 @@ __all__ = ["Momentum"]
 
 class Momentum(Criterion):
     id = "momentum"
+    size_trend = "larger-passes"  # rho*v^2 falls as the bore grows (v ~ D^-2 at a fixed mass flow)
+    march_only_worsens = True  # marching keeps the inlet rho*v^2 judged here: a fail above the maximum stays
     title = "Momentum flux rho*v^2 maximum"
     source = "company practice (the shipped values are common practice)"
     options = (OptionSpec("max", "pressure_difference", None, "Pa", "highest rho*v^2 (Pa = kg/(m s2))"),)

@@ -76,6 +76,7 @@ def source_vapour_pressure(context: CriterionContext) -> float | None:
 
 class NpshMargin(Criterion):
     id = "npsh-margin"
+    size_trend = "larger-passes"  # NPSH available rises with the bore (less suction friction)
     title = "NPSH available with margin over NPSH required (ANSI/HI 9.6.1 style)"
     phases = frozenset({"liquid"})
     source = ("NPSHa = (P_source - P_vap)/(rho g) + level - losses/(rho g) (pump handbooks); margin rule of "

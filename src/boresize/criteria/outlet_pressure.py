@@ -24,6 +24,7 @@ _BAR = 1e5  # Pa per bar
 
 class OutletPressure(Criterion):
     id = "outlet-pressure"
+    size_trend = "larger-passes"  # the outlet pressure rises with the bore (less friction)
     title = "Pressure at the line end (minimum for the receiver, or total drop allowance)"
     source = ("receiver requirement (line list) or company practice; total drop = friction + fittings + static "
               "+ allowances by Darcy-Weisbach, fittings and compressible methods as recorded")

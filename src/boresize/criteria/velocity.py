@@ -2,17 +2,20 @@
 
 from __future__ import annotations
 
+import math
 from collections.abc import Mapping
 
 from boresize.criteria.base import Criterion, CriterionContext, OptionSpec
 from boresize.criteria.limits import check_range, judge_range
-from boresize.model import Verdict
+from boresize.model import FluidState, Line, Verdict
 
 __all__ = ["VelocityLimits"]
 
 
 class VelocityLimits(Criterion):
     id = "velocity"
+    size_trend = "falls-with-size"  # v = 4 Q / (pi D^2) at a fixed mass flow
+    march_only_worsens = True  # marching keeps the inlet velocity judged here: a fail above the maximum stays
     title = "Velocity limits"
     source = "company practice (the shipped values are common practice)"
     options = (
@@ -25,3 +28,11 @@ class VelocityLimits(Criterion):
 
     def evaluate(self, context: CriterionContext) -> Verdict:
         return judge_range(self, context.hydraulics.velocity, context.options, "velocity", "m/s", 1.0)
+
+    def diameter_at_limit(self, options: Mapping[str, float], line: Line, state: FluidState, mass_flow: float,
+                          roughness: float) -> float | None:
+        """The bore at which the mean velocity equals ``max`` (continuity: D = sqrt(4 Q / (pi v_max)))."""
+        limit = options.get("max")
+        if limit is None or not limit > 0:
+            return None
+        return math.sqrt(4.0 * (mass_flow / state.density) / (math.pi * limit))

@@ -13,8 +13,7 @@ and Reynolds number stay the inlet's, and ``drop_per_length`` is the mean over t
 
 from __future__ import annotations
 
-from dataclasses import fields, replace
-from typing import Any
+from dataclasses import replace
 
 from boresize.hydraulics.compressible import (
     SIMPLE_LIMIT,
@@ -68,33 +67,13 @@ def rate_line(line: Line, state: FluidState, candidate: Candidate, mass_flow: fl
                          mach=mach, fittings_k=loss.k_total, fittings_method=loss.method)
         return _compressible(line, state, hyd, loss, (diameter, roughness), properties, fraction)
     total = drop + fittings + static + line.fixed_drop
-    return _hydraulics(mass_flow=mass_flow, volume_flow=mass_flow / density, velocity=v, reynolds=re,
-                       friction_factor=f, regime=regime, drop_per_length=dpl, drop=drop, momentum=density * v * v,
-                       mach=mach, fittings_drop=fittings, static_drop=static, fixed_drop=line.fixed_drop,
-                       total_drop=total, outlet_pressure=line.pressure - total,
-                       method=_simple_text(state, fraction, loss), fittings_k=loss.k_total,
-                       fittings_method=loss.method, acceleration_drop=0.0, outlet_velocity=None, outlet_mach=None,
-                       choked=False)
-
-
-def _hydraulics(**values: Any) -> Hydraulics:
-    """``Hydraulics(**values)``; when ``values`` names every field, built by filling the instance dict.
-
-    The generated __init__ of a frozen dataclass sets each of Hydraulics' 22 fields through
-    ``object.__setattr__``, a third of the cost of rating a liquid candidate; the dict filled with every
-    field is the same object, as long as Hydraulics has no __post_init__ and no __slots__ (checked once).
-    """
-    if _FILL and values.keys() == _FIELDS:
-        built = _new_object(Hydraulics)
-        built.__dict__.update(values)
-        return built
-    return Hydraulics(**values)
-
-
-_new_object = object.__new__
-_FIELDS = frozenset(f.name for f in fields(Hydraulics))
-_FILL = (all(f.init for f in fields(Hydraulics)) and not hasattr(Hydraulics, "__post_init__")
-         and not hasattr(Hydraulics, "__slots__"))
+    return Hydraulics(mass_flow=mass_flow, volume_flow=mass_flow / density, velocity=v, reynolds=re,
+                      friction_factor=f, regime=regime, drop_per_length=dpl, drop=drop, momentum=density * v * v,
+                      mach=mach, fittings_drop=fittings, static_drop=static, fixed_drop=line.fixed_drop,
+                      total_drop=total, outlet_pressure=line.pressure - total,
+                      method=_simple_text(state, fraction, loss), fittings_k=loss.k_total,
+                      fittings_method=loss.method, acceleration_drop=0.0, outlet_velocity=None, outlet_mach=None,
+                      choked=False)
 
 
 def needs_march(line: Line, state: FluidState, hyd: Hydraulics) -> bool:

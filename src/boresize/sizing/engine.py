@@ -18,7 +18,6 @@ from boresize.sizing import cases as _cases
 from boresize.sizing.services import Service, SizingConfig, load_config
 from boresize.criteria.base import CriterionContext
 from boresize.errors import BoresizeError, InputError
-from boresize.hydraulics import swamee_jain_diameter
 from boresize.hydraulics.darcy import require_roughness
 from boresize.hydraulics.line import is_gas, needs_march, rate_line
 from boresize.model import Candidate, CandidateResult, FluidState, Hydraulics, Line, LineResult, Verdict
@@ -26,11 +25,15 @@ from boresize.pipes import PipeClass
 from boresize.plugins import PluginHost
 from boresize.sizing.selection import build_result, error_result, error_verdict, internal_error, select, verdict_fault
 from boresize.properties.select import choose_backend, fluid_state, mass_flow_of
-from boresize.sizing.scan import RATED_ABOVE, BandsMemo, criterion_trends, rated_span, start_diameter
+from boresize.sizing.scan import RATED_ABOVE, criterion_trends, rated_span, start_diameter
 from boresize.sizing.service_phase import check_phase, default_service, phase_group
 
 __all__ = ["RATED_ABOVE", "Sizer"]
 
+
+
+#: A service's (criterion, options) pairs, options in SI.
+Judges = tuple[tuple[Any, Mapping[str, float]], ...]
 
 
 class _Prepared(NamedTuple):
@@ -45,6 +48,7 @@ class _Prepared(NamedTuple):
     mode: str
     notes: tuple[str, ...]
     start: float  # diameter the guided candidate scan starts from [m]
+    judges: Judges  # the service's (criterion, options) pairs that apply to the fluid's phase
 
 
 class Sizer:
@@ -66,9 +70,8 @@ class Sizer:
         self.config = config or load_config(self.host, criteria_file)
         self.check_roughness = check_roughness
         self.every_size = every_size
-        self._candidates: dict[tuple[int, str | None, str | None], tuple[PipeClass, tuple[Candidate, ...]]] = {}
-        self._applicable: dict[tuple[int, str], tuple[Service, tuple[tuple[Any, Mapping[str, float]], ...]]] = {}
-        self._bands: BandsMemo = {}
+        #: (pipe class, NPS, schedule) -> its candidates, keyed by content
+        self._candidates: dict[tuple[PipeClass, str | None, str | None], tuple[Candidate, ...]] = {}
 
     # -- one line -----------------------------------------------------------------------------
     def run(self, line: Line) -> LineResult:
@@ -95,8 +98,9 @@ class Sizer:
         margin = line.design_margin if line.design_margin is not None else service.design_margin
         mass_flow = mass_flow_of(self.host, line, state) * (1.0 + margin)
         return _Prepared(line, state, service, pipe_class, mass_flow, margin, mode, notes,
-                         start_diameter(service, line.pressure, state, mass_flow,
-                                        line.roughness if line.roughness is not None else pipe_class.roughness))
+                         start_diameter(service, line, state, mass_flow,
+                                        line.roughness if line.roughness is not None else pipe_class.roughness),
+                         _applicable(service, state.phase))
 
     def _rate_all(self, p: _Prepared) -> tuple[CandidateResult, ...]:
         return self._rate_cases([p])[0]
@@ -114,28 +118,28 @@ class Sizer:
 
         def rate(i: int) -> list[CandidateResult]:
             if i not in memo:
-                memo[i] = [self._rate(p.line, p.state, p.service, candidates[i], p.mass_flow) for p in ready]
+                memo[i] = [self._rate(p, candidates[i]) for p in ready]
             return memo[i]
 
         pressures = {p.line.pressure for p in ready}
-        trends = criterion_trends([c for p in ready for c, _ in p.service.criteria], pressures, candidates,
-                                  self._bands)
+        trends = criterion_trends([c for p in ready for c, _ in p.service.criteria], pressures, candidates)
         span = rated_span(len(candidates), rate, trends, bisect_left([c.inside_diameter for c in candidates],
                                                                      max(p.start for p in ready)),
                           every_size=self.every_size)
         return [tuple(memo[i][k] for i in range(span[0], span[1] + 1)) for k in range(len(ready))]
 
     def _candidates_of(self, line: Line, pipe_class: PipeClass) -> tuple[Candidate, ...]:
-        """The class's sizes, or the one size a checked line gives (cached: building them costs more than rating)."""
-        key = (id(pipe_class), line.nps, line.schedule)
+        """The class's sizes, or the one size a checked line gives (cached by content: building them costs more
+        than rating)."""
+        key = (pipe_class, line.nps, line.schedule)  # cached: +28-32 % on the demo case, benchmarks/bench_rating.py
         cached = self._candidates.get(key)
-        if cached is None or cached[0] is not pipe_class:
-            cached = self._candidates[key] = (pipe_class, _candidates(pipe_class, line))
-        return cached[1]
+        if cached is None:
+            cached = self._candidates[key] = _candidates(pipe_class, line)
+        return cached
 
     def _finish(self, p: _Prepared, rated: tuple[CandidateResult, ...], selected: CandidateResult | None,
                 closest_note: bool = True) -> LineResult:
-        first_guess = self._first_guess(p.service, p.state, p.mass_flow, p.pipe_class.roughness)
+        first_guess = _first_guess(p)
         result = build_result(p.line, p.state, p.service, rated, selected, p.mode, p.mass_flow, p.margin,
                          p.service.stamp, first_guess, closest_note)
         return replace(result, notes=result.notes + p.notes) if p.notes else result
@@ -149,24 +153,24 @@ class Sizer:
         check_phase(line, state, service)
         return service
 
-    def _rate(self, line: Line, state: FluidState, service: Service, candidate: Candidate,
-              mass_flow: float) -> CandidateResult:
+    def _rate(self, p: _Prepared, candidate: Candidate) -> CandidateResult:
         """Rate one candidate. A gas candidate that needs marching is first screened with the simple
         method: if it already fails a criterion that marching can only make worse, the march is skipped."""
+        line, state = p.line, p.state
         if is_gas(state):
-            simple = self._hydraulics(line, state, candidate, mass_flow, march=False)
+            simple = self._hydraulics(line, state, candidate, p.mass_flow, march=False)
             if needs_march(line, state, simple):
-                verdicts = self._verdicts(line, state, service, candidate, simple)
-                fails = [v.criterion for v in verdicts if _fails_beyond_march(v)]
+                verdicts = self._verdicts(p, candidate, simple)
+                fails = [v.criterion for (c, _), v in zip(p.judges, verdicts) if _fails_beyond_march(c, v)]
                 if fails:
                     note = (f"; not marched: fails {', '.join(fails)} already with the simple method, which "
                             f"understates a gas line's drop and outlet velocity")
                     hyd = replace(simple, method=simple.method + note)
-                    return CandidateResult(candidate, hyd, self._verdicts(line, state, service, candidate, hyd))
+                    return CandidateResult(candidate, hyd, self._verdicts(p, candidate, hyd))
             else:
-                return CandidateResult(candidate, simple, self._verdicts(line, state, service, candidate, simple))
-        hyd = self._hydraulics(line, state, candidate, mass_flow, march=True)
-        return CandidateResult(candidate, hyd, self._verdicts(line, state, service, candidate, hyd))
+                return CandidateResult(candidate, simple, self._verdicts(p, candidate, simple))
+        hyd = self._hydraulics(line, state, candidate, p.mass_flow, march=True)
+        return CandidateResult(candidate, hyd, self._verdicts(p, candidate, hyd))
 
     def _hydraulics(self, line: Line, state: FluidState, candidate: Candidate, mass_flow: float,
                     march: bool) -> Hydraulics:
@@ -181,22 +185,10 @@ class Sizer:
             raise _beyond_range(mass_flow, f"in NPS {candidate.nps}")
         return hyd
 
-    def _verdicts(self, line: Line, state: FluidState, service: Service, candidate: Candidate,
-                  hyd: Hydraulics) -> tuple[Verdict, ...]:
-        judge = self._judge
-        return tuple(judge(criterion, CriterionContext(line, state, candidate, hyd, options, service.name))
-                     for criterion, options in self._applicable_to(service, state.phase))
-
-    def _applicable_to(self, service: Service, phase: str) -> tuple[tuple[Any, Mapping[str, float]], ...]:
-        """The service's (criterion, options) pairs that judge a fluid in ``phase`` (worked out once per service
-        and phase; the service is kept with the answer, so that a reused id never returns another's)."""
-        key = (id(service), phase)
-        known = self._applicable.get(key)
-        if known is None or known[0] is not service:
-            group = phase_group(phase)
-            pairs = tuple((c, o) for c, o in service.criteria if phase in c.phases or group in c.phases)
-            known = self._applicable[key] = (service, pairs)
-        return known[1]
+    def _verdicts(self, p: _Prepared, candidate: Candidate, hyd: Hydraulics) -> tuple[Verdict, ...]:
+        judge, line, state, name = self._judge, p.line, p.state, p.service.name
+        return tuple(judge(criterion, CriterionContext(line, state, candidate, hyd, options, name))
+                     for criterion, options in p.judges)
 
     def _judge(self, criterion: object, context: CriterionContext) -> Verdict:
         try:
@@ -211,16 +203,6 @@ class Sizer:
     def _fault(self, criterion: object, what: str) -> Verdict:
         ident = getattr(criterion, "id", "?")
         return error_verdict(ident, self.host.criteria.owner(ident), what)
-
-    def _first_guess(self, service: Service, state: FluidState, mass_flow: float, roughness: float) -> float | None:
-        for criterion, options in service.criteria:
-            if criterion.id == "drop-per-length" and "max" in options:
-                try:
-                    return swamee_jain_diameter(mass_flow / state.density, options["max"], state.density,
-                                                state.viscosity, roughness)
-                except OverflowError as exc:
-                    raise _beyond_range(mass_flow, "for the first-guess diameter") from exc
-        return None
 
     # -- one line, several operating cases ---------------------------------------------------
     def run_cases(self, lines: Sequence[Line]) -> LineResult:
@@ -333,12 +315,28 @@ def _beyond_range(mass_flow: float, where: str) -> InputError:
                       field="flow", value=mass_flow, expected="a flow of process-plant size; check its unit")
 
 
-#: Built-in criteria whose judged value marching a gas line can only raise (inlet velocity and momentum
-#: stay, the mean drop per length and the outlet Mach number grow as the gas expands along the line).
-_MARCH_ONLY_WORSENS = frozenset({"drop-per-length", "velocity", "erosional", "momentum", "noise-velocity", "mach"})
+def _applicable(service: Service, phase: str) -> Judges:
+    """The service's (criterion, options) pairs that judge a fluid in ``phase``."""
+    group = phase_group(phase)
+    return tuple((c, o) for c, o in service.criteria if phase in c.phases or group in c.phases)
 
 
-def _fails_beyond_march(verdict: Verdict) -> bool:
-    """A fail above a maximum, by a criterion that marching cannot turn into a pass."""
-    return (verdict.criterion in _MARCH_ONLY_WORSENS and verdict.status == "fail" and verdict.value is not None
-            and verdict.limit is not None and verdict.value > verdict.limit)
+def _first_guess(p: _Prepared) -> float | None:
+    """The diameter the record shows as the first guess [m]: that of the first of the service's criteria that
+    proposes one (``proposes_first_guess``; the built-in drop-per-length's Swamee-Jain diameter), at the pipe
+    class's roughness; None when none does."""
+    for criterion, options in p.service.criteria:
+        if getattr(criterion, "proposes_first_guess", False):
+            try:
+                guess = criterion.diameter_at_limit(options, p.line, p.state, p.mass_flow, p.pipe_class.roughness)
+            except OverflowError as exc:
+                raise _beyond_range(p.mass_flow, "for the first-guess diameter") from exc
+            if guess is not None:
+                return float(guess)
+    return None
+
+
+def _fails_beyond_march(criterion: Any, verdict: Verdict) -> bool:
+    """A fail above a maximum, by a criterion that says marching cannot turn it into a pass."""
+    return (bool(getattr(criterion, "march_only_worsens", False)) and verdict.status == "fail"
+            and verdict.value is not None and verdict.limit is not None and verdict.value > verdict.limit)

@@ -6,8 +6,9 @@ criterion that applies to a line is *monotone in size* (once it passes at a size
 larger one, or once it fails it fails at every larger one), the sizes that pass are one unbroken run
 and a fail says which way to move: the scan can start near the first-guess diameter and walk.
 
-A criterion says how its fails respond to size through ``size_trend`` (an optional attribute; the
-built-ins' are given here):
+What the scan knows of a criterion is what the criterion declares (the traits documented on
+:class:`boresize.criteria.Criterion`; built-ins declare theirs like any plugin): ``size_trend`` says which way
+its fails point, ``diameter_at_limit`` proposes where to start.
 
 - ``"larger-passes"``: any fail is cured by a larger size (NPSH margin, flashing, Mach, ...);
 - ``"falls-with-size"``: the judged value falls as the size grows, so a value above its limit is cured
@@ -22,13 +23,14 @@ from __future__ import annotations
 
 import math
 from collections.abc import Callable, Iterable, Mapping, Sequence
-from typing import Any, Literal
+from typing import Any
 
+from boresize.criteria.bands import BandedCriterion
+from boresize.criteria.base import SizeTrend
 from boresize.errors import BoresizeError
-from boresize.hydraulics import swamee_jain_diameter
-from boresize.model import PASSING_STATUSES, Candidate, CandidateResult, FluidState, Verdict
+from boresize.model import PASSING_STATUSES, Candidate, CandidateResult, FluidState, Line, Verdict
 
-__all__ = ["BUILTIN_TRENDS", "BandsMemo", "RATED_ABOVE", "SizeTrend", "criterion_trends", "direction", "rated_span",
+__all__ = ["RATED_ABOVE", "SizeTrend", "criterion_trends", "declared_trend", "direction", "rated_span",
            "start_diameter", "trend_of"]
 
 #: Sizes rated above the selected one when sizing (the calculation record shows one below to two above).
@@ -36,59 +38,25 @@ RATED_ABOVE = 2
 #: rate(i) -> the results of candidate ``i`` in every case of the line (rated once, then remembered).
 Rate = Callable[[int], Sequence[CandidateResult]]
 
-SizeTrend = Literal["larger-passes", "falls-with-size"]
 
-#: The built-in criteria's trends. Velocity, drop, momentum, Mach, the Froude number and the noise velocity fall
-#: as the bore grows at a fixed mass flow (Darcy-Weisbach: v ~ D^-2, dp/L ~ D^-5); NPSH available, the lowest
-#: pressure on the line and the outlet pressure rise with the bore (less friction), and choking goes away.
-BUILTIN_TRENDS: Mapping[str, SizeTrend] = {
-    "drop-per-length": "falls-with-size",
-    "velocity": "falls-with-size",
-    "erosional": "larger-passes",
-    "momentum": "larger-passes",
-    "noise-velocity": "larger-passes",
-    "mach": "larger-passes",
-    "gravity-drain": "larger-passes",
-    "npsh-margin": "larger-passes",
-    "flashing": "larger-passes",
-    "outlet-pressure": "larger-passes",
-}
-
-#: (id of a banded criterion, id of the candidates, which pressure bounds hold) -> (criterion, candidates, whether
-#: its bands keep its trend): the same for every line of a list, so judged once; the objects are kept with the
-#: answer, so that a reused id never returns another's. The caller owns it (a Sizer: it dies with its config).
-BandsMemo = dict[tuple[int, int, tuple[bool, ...]], tuple[Any, Sequence[Candidate], bool]]
-
-
-def trend_of(criterion: Any, pressure: float, candidates: Sequence[Candidate],
-             memo: BandsMemo | None = None) -> SizeTrend | None:
-    """The criterion's trend on a line at inlet ``pressure`` [Pa abs] over ``candidates``, or None (unknown).
-
-    A built-in criterion (from this package) takes its trend from :data:`BUILTIN_TRENDS`; any other from its
-    ``size_trend`` attribute. A criterion banded by NPS keeps its trend only when, over the candidates, no
-    limit of a later band is below the one before it (a limit that shrinks as sizes grow can make a larger
-    size fail again); a ``larger-passes`` criterion keeps it only when its options are the same in every band.
-    ``memo`` remembers that judgement for the next line.
-    """
-    inner = getattr(criterion, "inner", None)
-    base = inner if inner is not None and hasattr(criterion, "band_for") else criterion
-    trend = _declared(base)
-    if trend is None or base is criterion:
-        return trend
-    signature = tuple(b.up_to_pressure is None or pressure <= b.up_to_pressure for b in criterion.bands)
-    key = (id(criterion), id(candidates), signature)
-    memo = {} if memo is None else memo
-    kept = memo.get(key)
-    if kept is None or kept[0] is not criterion or kept[1] is not candidates:
-        kept = memo[key] = (criterion, candidates, _bands_keep(criterion, trend, pressure, candidates))
-    return trend if kept[2] else None
-
-
-def _declared(criterion: Any) -> SizeTrend | None:
-    if type(criterion).__module__.startswith("boresize.criteria."):
-        return BUILTIN_TRENDS.get(getattr(criterion, "id", ""))
+def declared_trend(criterion: Any) -> SizeTrend | None:
+    """The criterion's declared ``size_trend`` when it is one the scan knows, else None (unknown)."""
     trend = getattr(criterion, "size_trend", None)
     return trend if trend in ("larger-passes", "falls-with-size") else None
+
+
+def trend_of(criterion: Any, pressure: float, candidates: Sequence[Candidate]) -> SizeTrend | None:
+    """The criterion's trend on a line at inlet ``pressure`` [Pa abs] over ``candidates``, or None (unknown).
+
+    The trend is the criterion's declared ``size_trend``. A criterion banded by NPS keeps it only when, over the
+    candidates, no limit of a later band is below the one before it (a limit that shrinks as sizes grow can make
+    a larger size fail again); a ``larger-passes`` criterion keeps it only when its options are the same in every
+    band.
+    """
+    trend = declared_trend(criterion)
+    if trend is None or not isinstance(criterion, BandedCriterion):
+        return trend
+    return trend if _bands_keep(criterion, trend, pressure, candidates) else None
 
 
 def _bands_keep(banded: Any, trend: SizeTrend, pressure: float, candidates: Sequence[Candidate]) -> bool:
@@ -127,15 +95,15 @@ def direction(verdict: Verdict, trend: SizeTrend | None) -> int | None:
     return 1 if verdict.value > verdict.limit else -1
 
 
-def criterion_trends(criteria: Iterable[Any], pressures: Iterable[float], candidates: Sequence[Candidate],
-                     memo: BandsMemo | None = None) -> dict[str, SizeTrend | None]:
+def criterion_trends(criteria: Iterable[Any], pressures: Iterable[float],
+                     candidates: Sequence[Candidate]) -> dict[str, SizeTrend | None]:
     """Criterion id -> its trend over ``candidates`` at every inlet pressure of the line's cases (None if any
     case leaves it unknown, or the cases disagree)."""
     trends: dict[str, SizeTrend | None] = {}
     pressures = tuple(pressures)
     for criterion in criteria:
         for pressure in pressures:
-            trend = trend_of(criterion, pressure, candidates, memo)
+            trend = trend_of(criterion, pressure, candidates)
             known = trends.setdefault(criterion.id, trend)
             if known != trend:
                 trends[criterion.id] = None
@@ -195,35 +163,23 @@ def _walk(count: int, rate: Rate, trends: Mapping[str, SizeTrend | None], i: int
     return low, high
 
 
-def start_diameter(service: Any, pressure: float, state: FluidState, mass_flow: float, roughness: float) -> float:
-    """Where the guided scan starts [m]: the larger of the diameters at which the service's drop-per-length and
-    velocity maxima are just met (Swamee-Jain; continuity), or 0 (the smallest size) when it gives neither. Only a
+def start_diameter(service: Any, line: Line, state: FluidState, mass_flow: float, roughness: float) -> float:
+    """Where the guided scan starts [m]: the largest of the diameters at which the service's criteria say their
+    limits are just met (their ``diameter_at_limit``), or 0 (the smallest size) when none proposes one. Only a
     starting point: the walk goes from it to the size the criteria select.
 
-    :param pressure: inlet pressure [Pa abs] (picks pressure bands); :param mass_flow: [kg/s];
-    :param roughness: absolute roughness [m] (the line's, else its pipe class's)
+    :param mass_flow: sizing mass flow [kg/s]; :param roughness: absolute roughness [m] (the line's, else its
+        pipe class's)
     """
-    volume_flow, start = mass_flow / state.density, 0.0
+    start = 0.0
     for criterion, options in service.criteria:
-        limit = _plain_max(criterion, options, pressure)
-        if limit is None or criterion.id not in ("drop-per-length", "velocity"):
+        at_limit = getattr(criterion, "diameter_at_limit", None)
+        if at_limit is None:
             continue
         try:
-            if criterion.id == "velocity":
-                start = max(start, math.sqrt(4.0 * volume_flow / (math.pi * limit)))
-            else:
-                start = max(start, swamee_jain_diameter(volume_flow, limit, state.density, state.viscosity,
-                                                        roughness))
+            proposed = at_limit(options, line, state, mass_flow, roughness)
         except (OverflowError, ValueError, ZeroDivisionError, BoresizeError):
             continue  # no start from this limit: another, or the smallest size
+        if isinstance(proposed, (int, float)) and math.isfinite(proposed) and proposed > start:
+            start = float(proposed)
     return start
-
-
-def _plain_max(criterion: Any, options: Mapping[str, float], pressure: float) -> float | None:
-    """The criterion's ``max`` option, or a banded one's for the largest sizes at ``pressure`` [Pa abs]."""
-    band_for = getattr(criterion, "band_for", None)
-    if band_for is not None:
-        band = band_for(math.inf, pressure)
-        options = band.options if band is not None else {}
-    limit = options.get("max")
-    return limit if limit is not None and limit > 0 else None
