@@ -61,6 +61,7 @@ from boresize.units.text import (
 
 if TYPE_CHECKING:  # pint costs 0.2-0.3 s to import: it loads with the registry, on first use
     import pint
+    from pint.facets.plain import PlainUnit
 
 __all__ = [
     "ATMOSPHERE",
@@ -90,7 +91,7 @@ _STANDARD_SI = {"Sm3": "Sm3/s", "Nm3": "Nm3/s", "scf": "m3_60F/s"}
 
 
 @functools.cache
-def registry() -> pint.UnitRegistry:
+def registry() -> pint.UnitRegistry[float]:
     """The process-wide unit registry, built on first call (0.2-0.3 s with the pint import).
 
     Adds gauge/absolute pressures (barg, bara, kPag, kPaa, MPag, psig, psia, kgcm2g), the
@@ -100,7 +101,7 @@ def registry() -> pint.UnitRegistry:
     import pint
 
     try:
-        ureg = pint.UnitRegistry(cache_folder=":auto:")
+        ureg: pint.UnitRegistry[float] = pint.UnitRegistry(cache_folder=":auto:")
     except OSError:  # cache folder not writable: build without it
         ureg = pint.UnitRegistry()
     lines = [line for line in _DEFINITIONS.splitlines() if line]
@@ -160,13 +161,13 @@ def _check_powers(expression: str, cell: _Cell) -> None:
 
 
 @functools.lru_cache(maxsize=4096)
-def _unit_of(expression: str) -> pint.Quantity:
+def _unit_of(expression: str) -> pint.Quantity[float]:
     """One of the unit ``expression`` (parsing costs ~100 us; a line list repeats its units)."""
     return registry().parse_expression(expression)
 
 
 @functools.lru_cache(maxsize=4096)
-def _to_si(units: pint.Unit, si: str) -> tuple[float, float] | None:
+def _to_si(units: PlainUnit, si: str) -> tuple[float, float] | None:
     """(scale, offset) with value_si = value * scale + offset, from pint's own conversion of 0 and 1;
     None for a unit pint does not convert linearly (the logarithmic dB, neper, decade, octave)."""
     ureg = registry()
@@ -189,7 +190,7 @@ class _Parsed(NamedTuple):
     """A parsed cell: what pint's Quantity would hold, without building one per cell (~100 us each)."""
 
     magnitude: float  # the number times ``factor``
-    units: pint.Unit
+    units: PlainUnit
     dimensionality: object
     factor: float  # the magnitude of the unit expression (1000 for "1000*scf"), 1.0 for an offset unit
 
@@ -216,7 +217,7 @@ def _build(number: float, expression: str, cell: _Cell) -> _Parsed:
 
 
 @functools.lru_cache(maxsize=64)
-def _offset_unit(expression: str) -> pint.Quantity:
+def _offset_unit(expression: str) -> pint.Quantity[float]:
     """One of an offset unit (degC, barg ...), built rather than parsed."""
     return registry().Quantity(1.0, expression)
 
