@@ -153,3 +153,37 @@ def test_raise_for_error_turns_a_sizing_result_built_by_hand_into_an_equal_rated
     assert all(getattr(rated, f.name) == getattr(by_hand, f.name) for f in fields(LineResult))
     assert rated.to_dict() == by_hand.to_dict() == engine.to_dict()
     assert (rated.nps, rated.schedule) == (by_hand.nps, by_hand.schedule) == ("4", "40")
+
+
+def _narrowed_names() -> list[str]:
+    """The attributes RatedResult declares without None (its ``if TYPE_CHECKING:`` block), and nps, schedule."""
+    import inspect
+
+    from boresize.api import result as module
+
+    tree = ast.parse(inspect.getsource(module))
+    rated = next(n for n in tree.body if isinstance(n, ast.ClassDef) and n.name == "RatedResult")
+    block = next(n for n in rated.body if isinstance(n, ast.If))
+    return [n.target.id for n in block.body if isinstance(n, ast.AnnAssign) and isinstance(n.target, ast.Name)] \
+        + ["nps", "schedule"]
+
+
+def test_what_rated_result_types_without_none_is_never_none_on_the_demo_unit() -> None:
+    from boresize import line_from_row, size_many
+    from boresize.io import read_line_list
+
+    demo = Path(__file__).resolve().parents[2] / "examples" / "demo-unit"
+    listed = read_line_list(demo / "lines.csv")
+    by_tag: dict[str, list[boresize.Line]] = {}
+    for row, units in listed.pairs():
+        line = line_from_row(row, units)
+        by_tag.setdefault(line.tag, []).append(line)
+    results = size_many(list(by_tag.values()), criteria=demo / "criteria.toml", plugins=False)
+    names = _narrowed_names()
+    assert {"line", "state", "selected", "velocity_m_s", "density", "nps"} <= set(names)
+    rated = [r for r in results if r.status != "error"]
+    assert len(rated) >= 10 and all(isinstance(r, RatedResult) for r in rated)
+    assert all(not isinstance(r, RatedResult) for r in results if r.status == "error")
+    for result in rated:
+        for case in (result, *result.cases):
+            assert [name for name in names if getattr(case, name) is None] == [], case.tag

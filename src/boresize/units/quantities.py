@@ -242,7 +242,7 @@ def _wrong_dimension(quantity: _Parsed, noun: str, cell: _Cell) -> InputError:
     return cell.error(f"'{cell.shown}' is {what}, not {noun}", expected)
 
 
-def parse_quantity(value: str | float | int | None, field: str, kind: QuantityKind,
+def parse_quantity(value: object, field: str, kind: QuantityKind,
                    default_unit: str | None = None) -> float:
     """Parse a cell such as "10 barg" into an SI float, checking its dimension against ``kind``.
 
@@ -251,7 +251,8 @@ def parse_quantity(value: str | float | int | None, field: str, kind: QuantityKi
     temperature [K], temperature_difference [K], length [m], density [kg/m3], viscosity [Pa s],
     velocity [m/s], drop_per_length [Pa/m], dimensionless [-] ("10 %" -> 0.1).
 
-    :param value: the cell ("65 t/h"), or a bare number that takes ``default_unit``
+    :param value: the cell ("65 t/h"), or a bare number that takes ``default_unit``; anything else (None,
+        a list, a bool) raises InputError naming ``field``
     :param field: the field name used in error messages
     :param kind: what the field holds
     :param default_unit: unit of a bare number, e.g. from a header "flow [t/h]" (brackets allowed)
@@ -278,7 +279,7 @@ def parse_quantity(value: str | float | int | None, field: str, kind: QuantityKi
     return result
 
 
-def parse_flow(value: str | float | int | None, field: str = "flow", default_unit: str | None = None) -> Flow:
+def parse_flow(value: object, field: str = "flow", default_unit: str | None = None) -> Flow:
     """Parse a flow cell into a :class:`~boresize.model.Flow` with its basis.
 
     mass [kg/s] (kg/h, t/h, lb/h, klb/h, t/d ...), volume [m3/s at line conditions] (m3/h, l/min,
