@@ -16,6 +16,7 @@ install: $(STAMP)
 
 test: $(STAMP)
 	$(BIN)/ruff check src tests plugins examples benchmarks
+	$(BIN)/mypy
 	$(BIN)/python -m pytest
 
 # The demo unit has one line that fails on purpose (exit code 1); only a usage error (2) stops make.

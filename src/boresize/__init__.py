@@ -10,14 +10,15 @@ stream's T, P, mass flow and mole fractions), then :func:`size`, :func:`check` o
 with pint quantities, plain floats and ``to_dict()``. DataFrames go in and out through
 :func:`size_dataframe`, :func:`read_dataframe` and :func:`results_dataframe`. :class:`Sizer` is the
 engine underneath. Every name loads on first use: importing boresize loads neither pint, CoolProp,
-thermo nor pandas.
+thermo nor pandas; type checkers see the real types through the imports under ``TYPE_CHECKING``.
+``result.raise_for_error()`` returns a :class:`RatedResult`, typed without the Nones of an error result.
 """
 
 from __future__ import annotations
 
 from importlib import import_module
 from importlib.metadata import PackageNotFoundError, version
-from typing import Any
+from typing import TYPE_CHECKING, Any
 
 from boresize.errors import (
     BoresizeError,
@@ -29,6 +30,16 @@ from boresize.errors import (
     UnitError,
 )
 from boresize.model import Candidate, CandidateResult, Flow, FluidState, Hydraulics, Line, LineResult, Verdict
+
+if TYPE_CHECKING:  # the real types of the names _LAZY loads on first use (a test keeps the two in step)
+    from boresize.api import check, make_line, size, size_many
+    from boresize.api.result import RatedResult, SizingResult
+    from boresize.io.dataframe import read_dataframe, results_dataframe, size_dataframe
+    from boresize.io.rows import line_from_row
+    from boresize.io.streams import line_from_stream
+    from boresize.plugins import PluginHost
+    from boresize.sizing.engine import Sizer
+    from boresize.sizing.services import load_config
 
 try:
     __version__ = version("boresize")
@@ -50,6 +61,7 @@ __all__ = [
     "PluginError",
     "PluginHost",
     "PropertyError",
+    "RatedResult",
     "Sizer",
     "SizingResult",
     "UnitError",
@@ -77,6 +89,7 @@ _LAZY = {
     "check": "boresize.api",
     "size_many": "boresize.api",
     "SizingResult": "boresize.api.result",
+    "RatedResult": "boresize.api.result",
     "line_from_stream": "boresize.io.streams",
     "read_dataframe": "boresize.io.dataframe",
     "results_dataframe": "boresize.io.dataframe",

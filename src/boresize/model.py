@@ -21,6 +21,7 @@ __all__ = [
     "LineResult",
     "VerdictStatus",
     "Phase",
+    "Mode",
 ]
 
 VerdictStatus = Literal["pass", "fail", "warn", "not-applicable", "error"]
@@ -28,6 +29,8 @@ VerdictStatus = Literal["pass", "fail", "warn", "not-applicable", "error"]
 PASSING_STATUSES = frozenset({"pass", "warn", "not-applicable"})
 Phase = Literal["liquid", "gas", "two-phase", "supercritical"]
 FlowBasis = Literal["mass", "volume", "standard-volume"]
+#: ``size`` picks the smallest size that passes; ``check`` rates the size the line names.
+Mode = Literal["size", "check"]
 
 
 @dataclass(frozen=True)
@@ -265,7 +268,7 @@ class LineResult:
 
     tag: str
     status: Literal["pass", "fail", "error"]
-    mode: Literal["size", "check"]
+    mode: Mode
     line: Line | None = None
     state: FluidState | None = None
     selected: CandidateResult | None = None

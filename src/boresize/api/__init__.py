@@ -13,7 +13,7 @@ from boresize.api.calls import (
     size,
     size_many,
 )
-from boresize.api.result import SizingResult
+from boresize.api.result import RatedResult, SizingResult
 
-__all__ = ["PROCESS_THRESHOLD", "SI_UNITS", "SizingResult", "check", "default_sizer", "make_line", "quantity_text",
-           "size", "size_many"]
+__all__ = ["PROCESS_THRESHOLD", "SI_UNITS", "RatedResult", "SizingResult", "check", "default_sizer", "make_line",
+           "quantity_text", "size", "size_many"]

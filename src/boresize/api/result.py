@@ -11,7 +11,13 @@ they do with the base class) that adds, for the selected size (the closest one w
 * ``to_dict()`` (the JSON entry of :func:`boresize.io.document.result_to_dict`), a short ``repr`` and
   ``_repr_html_`` for notebooks, and ``raise_for_error()``.
 
-Accessors are None only for a result with status ``error`` (no size was rated).
+Accessors are None only for a result with status ``error`` (no size was rated). A result that rated a
+size (``pass`` or ``fail``) is a :class:`RatedResult`, the same object typed without those Nones:
+``size(line).raise_for_error()`` returns it (or raises), and ``isinstance(result, RatedResult)`` narrows a
+result for a type checker::
+
+    rated = size(line).raise_for_error()
+    rated.velocity_m_s * 2          # a float, not float | None
 """
 
 from __future__ import annotations
@@ -19,15 +25,17 @@ from __future__ import annotations
 import html
 from collections.abc import Callable
 from dataclasses import dataclass, fields
-from typing import TYPE_CHECKING, Any, overload
+from typing import TYPE_CHECKING, Any, TypeVar, overload
 
 from boresize.errors import BoresizeError, InputError
-from boresize.model import CandidateResult, Hydraulics, LineResult
+from boresize.model import CandidateResult, FluidState, Hydraulics, Line, LineResult
 
 if TYPE_CHECKING:
     import pint
 
-__all__ = ["SizingResult"]
+__all__ = ["RatedResult", "SizingResult"]
+
+_R = TypeVar("_R", bound="SizingResult")
 
 
 def _hyd(result: LineResult) -> Hydraulics | None:
@@ -108,14 +116,16 @@ class SizingResult(LineResult):
     density = _Quantity("density_kg_m3", "kg/m**3", "density (Quantity)")
     viscosity = _Quantity("viscosity_mpa_s", "mPa*s", "dynamic viscosity (Quantity)")
 
-    @classmethod
-    def of(cls, result: LineResult) -> SizingResult:
-        """The SizingResult of an engine result (its cases too); a SizingResult is returned as it is."""
+    @staticmethod
+    def of(result: LineResult) -> SizingResult:
+        """The SizingResult of an engine result (its cases too); a SizingResult is returned as it is.
+
+        A result that rated a size (status ``pass`` or ``fail``) comes back as a :class:`RatedResult`.
+        """
         if isinstance(result, SizingResult):
             return result
-        values = {f.name: getattr(result, f.name) for f in fields(LineResult)}
-        values["cases"] = tuple(cls.of(case) for case in result.cases)
-        return cls(**values)
+        kind = SizingResult if result.status == "error" else RatedResult
+        return _copy(kind, result)
 
     @property
     def nps(self) -> str | None:
@@ -138,14 +148,18 @@ class SizingResult(LineResult):
 
         return result_to_dict(self)
 
-    def raise_for_error(self) -> SizingResult:
-        """Return self, or raise for a result with status ``error``.
+    def raise_for_error(self) -> RatedResult:
+        """Return this result as a :class:`RatedResult`, or raise for a result with status ``error``.
+
+        The RatedResult is the same result (``self`` for those :func:`boresize.size` returns) with
+        ``selected``, ``state``, ``line``, ``nps``, ``velocity_m_s`` ... typed without None, so a type
+        checker accepts ``size(line).raise_for_error().velocity_m_s * 2``. ``status`` may still be ``fail``.
 
         :raises InputError: when the engine named the field at fault (``field`` and ``value`` set)
         :raises BoresizeError: otherwise (a plugin or property fault without a field)
         """
         if self.status != "error":
-            return self
+            return self if isinstance(self, RatedResult) else _copy(RatedResult, self)
         if self.error_field is None:
             raise BoresizeError(self.error or f"line {self.tag}: error")
         error = InputError(self.error or "error")  # the message already names the line and the field
@@ -177,6 +191,56 @@ class SizingResult(LineResult):
         body = "".join(f"<tr><th>{e(k)}</th><td>{e(str(v))}</td></tr>" for k, v in rows)
         return (f"<div class='boresize-result'><strong>{e(self.tag)}</strong><table>{body}</table>"
                 f"{_verdicts_html(self)}</div>")
+
+
+class RatedResult(SizingResult):
+    """A result that rated a size (status ``pass`` or ``fail``), typed without the Nones of an error result.
+
+    :func:`boresize.size`, :func:`boresize.check` and :func:`boresize.size_many` return one for every line
+    that did not end in ``error``; :meth:`SizingResult.raise_for_error` returns it (or raises), and
+    ``isinstance(result, RatedResult)`` narrows a :class:`SizingResult`. Fields, accessors, JSON and
+    writers are those of SizingResult; only their types differ. ``outlet_pressure``, ``utilisation`` and
+    ``controlling`` stay optional: a line can be rated without them (no end pressure computed, no
+    criterion with a limit).
+    """
+
+    if TYPE_CHECKING:  # what SizingResult's accessors return once a size was rated
+        line: Line
+        state: FluidState
+        selected: CandidateResult
+        sizing_flow: float
+        inside_diameter_mm: float
+        velocity_m_s: float
+        dp_kpa_per_100m: float
+        total_drop_kpa: float
+        sizing_mass_flow_kg_h: float
+        reynolds: float
+        density_kg_m3: float
+        viscosity_mpa_s: float
+        inside_diameter: pint.Quantity[float]
+        velocity: pint.Quantity[float]
+        drop_per_length: pint.Quantity[float]
+        total_drop: pint.Quantity[float]
+        sizing_mass_flow: pint.Quantity[float]
+        density: pint.Quantity[float]
+        viscosity: pint.Quantity[float]
+
+    @property
+    def nps(self) -> str:
+        """Nominal pipe size of the selected (or closest) candidate, as the trade writes it ("1-1/2")."""
+        return self.selected.candidate.nps
+
+    @property
+    def schedule(self) -> str:
+        """Schedule of the selected (or closest) candidate ("40", "10S")."""
+        return self.selected.candidate.schedule
+
+
+def _copy(kind: type[_R], result: LineResult) -> _R:
+    """``result`` as a ``kind``: the same field values, its cases converted by :meth:`SizingResult.of`."""
+    values = {f.name: getattr(result, f.name) for f in fields(LineResult)}
+    values["cases"] = tuple(SizingResult.of(case) for case in result.cases)
+    return kind(**values)
 
 
 def _num(value: float | None, unit: str = "") -> str:

@@ -4,9 +4,18 @@ from __future__ import annotations
 
 import argparse
 import sys
+from collections.abc import Sequence
 from pathlib import Path
+from typing import TYPE_CHECKING, Any
 
 from boresize.errors import BoresizeError
+
+if TYPE_CHECKING:
+    from boresize.io import LineList
+    from boresize.model import LineResult
+    from boresize.plugins import PluginHost
+    from boresize.sizing.engine import Sizer
+    from boresize.sizing.headroom import Headroom
 
 __all__ = ["UsageError", "run_size", "run_criteria", "run_pipes", "run_diff"]
 
@@ -15,7 +24,7 @@ class UsageError(BoresizeError, ValueError):
     """The command line asks for something that cannot be done (exit code 2)."""
 
 
-def _host(args: argparse.Namespace):  # type: ignore[no-untyped-def]
+def _host(args: argparse.Namespace) -> PluginHost:
     from boresize.plugins import PluginHost
 
     return PluginHost.load(load_entry_points=not args.no_plugins)
@@ -30,7 +39,7 @@ def _single_row(args: argparse.Namespace) -> dict[str, str]:
     return row
 
 
-def _line_list(args: argparse.Namespace):  # type: ignore[no-untyped-def]
+def _line_list(args: argparse.Namespace) -> LineList:
     from boresize.io import LineList, read_line_list
 
     single = _single_row(args)
@@ -58,8 +67,8 @@ def _check_roughness(args: argparse.Namespace) -> float | None:
     return value
 
 
-def _size_list(args: argparse.Namespace, line_list,  # type: ignore[no-untyped-def]
-               check_roughness: float | None = None):
+def _size_list(args: argparse.Namespace, line_list: LineList,
+               check_roughness: float | None = None) -> tuple[Sizer, list[LineResult]]:
     """Size a line list on ``args.workers`` processes; returns (sizer of this process, results)."""
     from boresize.sizing.batch import run_batch, spec_for
     from boresize.sizing.engine import Sizer
@@ -109,13 +118,13 @@ def run_size(args: argparse.Namespace) -> int:
     return 0 if results and all(r.status == "pass" for r in results) else 1
 
 
-def _headrooms(sizer, results):  # type: ignore[no-untyped-def]
+def _headrooms(sizer: Sizer, results: Sequence[LineResult]) -> list[Headroom]:
     """Headroom of each line at the size it got (its governing case's conditions)."""
     from dataclasses import replace
 
     from boresize.sizing.headroom import Headroom, find_headroom
 
-    rooms = []
+    rooms: list[Headroom] = []
     for result in results:
         if result.line is None or result.selected is None:
             rooms.append(Headroom(result.tag, None, None, (), result.error or "no size to rate"))
@@ -125,7 +134,7 @@ def _headrooms(sizer, results):  # type: ignore[no-untyped-def]
     return rooms
 
 
-def _render_headrooms(rooms) -> str:  # type: ignore[no-untyped-def]
+def _render_headrooms(rooms: Sequence[Headroom]) -> str:
     out = ["", "Headroom at the selected or given size (flow beyond the design flow before a criterion fails):"]
     for room in rooms:
         shown = "-" if room.percent is None else f"{room.percent:+.1f} %"
@@ -133,7 +142,7 @@ def _render_headrooms(rooms) -> str:  # type: ignore[no-untyped-def]
     return "\n".join(out) + "\n"
 
 
-def _revision(path: str, args: argparse.Namespace) -> dict:  # type: ignore[type-arg]
+def _revision(path: str, args: argparse.Namespace) -> dict[str, Any]:
     """A results document: read from JSON, or made by sizing a line list."""
     import json
 

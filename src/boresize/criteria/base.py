@@ -71,7 +71,7 @@ def parse_options(criterion: Any, given: Mapping[str, object], where: str) -> di
         if raw is None:
             continue
         try:
-            values[name] = parse_quantity(raw, f"{where}.{name}", spec.kind, spec.default_unit)  # type: ignore[arg-type]
+            values[name] = parse_quantity(raw, f"{where}.{name}", spec.kind, spec.default_unit)
         except InputError as exc:
             raise CriteriaFileError(exc.message, field=exc.field, value=exc.value, expected=exc.expected) from exc
     check = getattr(criterion, "check_options", None)

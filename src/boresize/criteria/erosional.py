@@ -2,6 +2,8 @@
 
 from __future__ import annotations
 
+from collections.abc import Mapping
+
 from boresize.criteria.base import CriterionContext, Criterion, OptionSpec, verdict
 from boresize.errors import CriteriaFileError
 from boresize.hydraulics.erosional import C_US_TO_SI, erosional_velocity
@@ -31,8 +33,8 @@ class ErosionalVelocity(Criterion):
                 raise CriteriaFileError(f"C must be positive, got {value:g}", field=f"{where}.{name}", value=value,
                                         expected="a positive number such as c_us = 100")
 
-    def c_si(self, options: dict[str, float] | object) -> float:
-        opts = options if type(options) is dict else dict(options)  # type: ignore[call-overload]
+    def c_si(self, options: Mapping[str, float]) -> float:
+        opts = options if type(options) is dict else dict(options)
         if "c_si" in opts:
             return float(opts["c_si"])
         return float(opts.get("c_us", 100.0)) * C_US_TO_SI

@@ -23,7 +23,7 @@ from collections.abc import Mapping
 from boresize.criteria.base import Criterion, CriterionContext, OptionSpec, verdict
 from boresize.criteria.npsh import source_vapour_pressure
 from boresize.errors import CriteriaFileError
-from boresize.model import Verdict
+from boresize.model import Verdict, VerdictStatus
 
 __all__ = ["Flashing", "lowest_pressure"]
 
@@ -77,6 +77,6 @@ class Flashing(Criterion):
                   f"{f' + margin {margin / 1e5:.3g} bar' if margin else ''})")
         if not ok:
             reason += f": the liquid would flash at {p_vap / 1e5:.4g} bar abs"
-        status = "pass" if ok else ("warn" if context.options.get("warn_only", 0.0) else "fail")
+        status: VerdictStatus = "pass" if ok else ("warn" if context.options.get("warn_only", 0.0) else "fail")
         return verdict(self, status, reason, value=lowest / 1e5, limit=limit / 1e5, unit="bar abs",
                        utilisation=limit / lowest if lowest > 0 else 1.0 + (limit - lowest) / limit)

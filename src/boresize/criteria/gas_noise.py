@@ -30,7 +30,8 @@ def noise_velocity_limit(density: float, a: float, b: float, cap: float) -> floa
     >>> noise_velocity_limit(1.0, 175.0, 0.43, 60.0)   # light gas: the cap governs
     60.0
     """
-    return min(cap, a * density**-b)
+    limit: float = a * density**-b  # float ** float is typed Any (it may be complex)
+    return min(cap, limit)
 
 
 class NoiseVelocity(Criterion):

@@ -60,7 +60,8 @@ def swamee_jain_diameter(
     kinematic = viscosity / density
     rough = roughness**1.25 * (volume_flow * volume_flow * length_term) ** 4.75
     viscous = kinematic * volume_flow**9.4 * length_term**5.2
-    return 0.66 * (rough + viscous) ** 0.04
+    diameter: float = 0.66 * (rough + viscous) ** 0.04  # float ** float is typed Any (it may be complex)
+    return diameter
 
 
 def _drop_at(diameter: float, volume_flow: float, density: float, viscosity: float,

@@ -159,7 +159,8 @@ def crane_ft(inside_diameter: float) -> float:
 
 def darby_k(k1: float, ki: float, kd: float, reynolds: float, nps: float) -> float:
     """Darby 3-K: K = K1/Re + Ki (1 + Kd / NPS^0.3). :param nps: nominal size [in]; Re [-]; returns K [-]."""
-    return k1 / reynolds + ki * (1.0 + kd / nps**0.3)
+    k: float = k1 / reynolds + ki * (1.0 + kd / nps**0.3)  # float ** float is typed Any (it may be complex)
+    return k
 
 
 def hooper_k(k1: float, kinf: float, reynolds: float, inside_diameter: float) -> float:

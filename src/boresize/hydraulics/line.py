@@ -97,7 +97,8 @@ def _compressible(line: Line, state: FluidState, hyd: Hydraulics, loss: Fittings
     """
     diameter, roughness = bore
     scaled = properties is None or state.source == "table"
-    along = scaled_properties(state, line.pressure, line.temperature) if scaled else properties
+    along = (scaled_properties(state, line.pressure, line.temperature) if properties is None or scaled
+             else properties)
     fittings_length = loss.equivalent_length + loss.k_total * diameter / hyd.friction_factor
     marched = line.length + fittings_length
     gas = march_gas_line(line.pressure, line.temperature, hyd.mass_flow, diameter, roughness, marched,

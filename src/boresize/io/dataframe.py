@@ -128,7 +128,7 @@ def _is_missing(value: object) -> bool:
     import pandas as pd
 
     try:
-        return bool(pd.isna(value))  # type: ignore[call-overload]
+        return bool(pd.isna(value))
     except (TypeError, ValueError):  # an array-like cell: not missing, shown as text
         return False
 

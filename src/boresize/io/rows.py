@@ -15,7 +15,7 @@ from dataclasses import dataclass
 from boresize.errors import InputError
 from boresize.model import Flow, Line
 from boresize.pipes import normalise_nps, normalise_schedule
-from boresize.units import parse_flow, parse_quantity
+from boresize.units import QuantityKind, parse_flow, parse_quantity
 
 __all__ = ["COLUMNS", "Header", "parse_header", "line_from_row", "DEFAULT_LENGTH_M"]
 
@@ -26,7 +26,7 @@ COLUMNS = (
     "fittings_method", "compressible",
 )
 # Optional quantities: column -> (quantity kind, must be above zero, example for messages)
-OPTIONAL_QUANTITIES = {
+OPTIONAL_QUANTITIES: dict[str, tuple[QuantityKind, bool, str]] = {
     "elevation": ("length", False, "outlet minus inlet elevation, rise positive, e.g. '12 m' or '-3 m'"),
     "fixed_drop": ("pressure_difference", False, "equipment and control-valve allowances, e.g. '0.7 bar'"),
     "min_outlet_pressure": ("pressure", True, "lowest pressure at the line end, e.g. '2 barg'"),
@@ -93,11 +93,11 @@ def _flow(raw: str, unit: str | None) -> Flow:
 
 
 def _optional_quantity(cells: Mapping[str, str], units: Mapping[str, str | None], name: str,
-                       kind: str, expected: str) -> float | None:
+                       kind: QuantityKind, expected: str) -> float | None:
     raw = cells.get(name)
     if raw is None:
         return None
-    value = parse_quantity(raw, name, kind, units.get(name))  # type: ignore[arg-type]
+    value = parse_quantity(raw, name, kind, units.get(name))
     return _positive(value, name, raw, expected)
 
 
@@ -176,7 +176,7 @@ def _optional_fields(cells: Mapping[str, str], units: Mapping[str, str | None]) 
         raw = cells.get(name)
         if raw is None:
             continue
-        value = parse_quantity(raw, name, kind, units.get(name))  # type: ignore[arg-type]
+        value = parse_quantity(raw, name, kind, units.get(name))
         values[name] = _positive(value, name, raw, example) if positive else value
     return values
 

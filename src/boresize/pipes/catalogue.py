@@ -99,7 +99,7 @@ def nps_value(nps: str | float | int) -> float:
     return _VALUE_BY_LABEL[normalise_nps(nps)]
 
 
-def normalise_nps(value: str | float | int, field: str = "nps") -> str:
+def normalise_nps(value: object, field: str = "nps") -> str:
     """Return the trade label of an NPS: ``1.5``, ``"1 1/2"``, ``"1½"``, ``'NPS 1-1/2"'`` -> ``"1-1/2"``.
 
     :raises InputError: the value is not a nominal pipe size the catalogue knows
@@ -149,7 +149,7 @@ def _nps_fraction(value: object) -> Fraction | None:
     return whole + Fraction(int(match["num"]), int(match["den"])) if match["num"] else whole
 
 
-def normalise_schedule(value: str | int, field: str = "schedule") -> str:
+def normalise_schedule(value: object, field: str = "schedule") -> str:
     """Return the catalogue's name of a wall designation.
 
     ``40``, ``"Sch 40"``, ``"SCH40"`` -> ``"40"``; ``"40s"`` -> ``"40S"``; ``"std"`` -> ``"STD"``;
@@ -166,7 +166,7 @@ def normalise_schedule(value: str | int, field: str = "schedule") -> str:
         raise InputError(f"unknown schedule {value!r}", field=field, value=value,
                          expected=f"one of {', '.join(SCHEDULES)}")
     if type(value) is str:
-        _remember(_SCHEDULE_BY_TEXT, value, label)  # type: ignore[arg-type]
+        _remember(_SCHEDULE_BY_TEXT, value, label)
     return label
 
 

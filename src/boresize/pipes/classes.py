@@ -8,8 +8,9 @@ file's ``[pipe_class.NAME]`` tables (:func:`pipe_class_from_table`).
 from __future__ import annotations
 
 import math
-from collections.abc import Mapping, Sequence
+from collections.abc import Iterable, Mapping, Sequence
 from dataclasses import dataclass
+from typing import cast
 
 from boresize.errors import CatalogueError, CriteriaFileError, InputError
 from boresize.model import Candidate
@@ -106,10 +107,11 @@ def _normalised_sizes(sizes: object, field: str) -> tuple[str, ...]:
     return tuple(sorted(labels, key=nps_value))
 
 
-def _normalised_overrides(pairs: object, where: str) -> tuple[tuple[str, str], ...]:
+def _normalised_overrides(pairs: Iterable[tuple[object, object]] | Mapping[object, object],
+                          where: str) -> tuple[tuple[str, str], ...]:
     result: dict[str, str] = {}
     items = pairs.items() if isinstance(pairs, Mapping) else pairs  # a mapping {"14": "STD"} is accepted too
-    for nps, schedule in items:  # type: ignore[attr-defined]
+    for nps, schedule in items:
         field = f"{where}.schedule.{nps}"
         label = normalise_nps(nps, field)
         if label in result:
@@ -120,12 +122,15 @@ def _normalised_overrides(pairs: object, where: str) -> tuple[tuple[str, str], .
 
 
 def _check_roughness(roughness: object, field: str) -> None:
-    ok = isinstance(roughness, (int, float)) and not isinstance(roughness, bool)
-    if not ok or not math.isfinite(roughness) or not 0.0 <= roughness <= MAX_ROUGHNESS:  # type: ignore[arg-type]
-        shown = f"{roughness * 1000:g} mm" if ok else repr(roughness)  # type: ignore[operator]
-        raise InputError(f"roughness {shown} is out of range", field=field, value=roughness,
-                         expected=f"an absolute roughness from 0 to {MAX_ROUGHNESS * 1000:g} mm "
-                                  "(0.045 mm for commercial steel)")
+    if isinstance(roughness, bool) or not isinstance(roughness, (int, float)):
+        shown = repr(roughness)
+    elif not math.isfinite(roughness) or not 0.0 <= roughness <= MAX_ROUGHNESS:
+        shown = f"{roughness * 1000:g} mm"
+    else:
+        return
+    raise InputError(f"roughness {shown} is out of range", field=field, value=roughness,
+                     expected=f"an absolute roughness from 0 to {MAX_ROUGHNESS * 1000:g} mm "
+                              "(0.045 mm for commercial steel)")
 
 
 def _first_missing(pipe_class: PipeClass, catalogue: Catalogue) -> tuple[str, str, str] | None:
@@ -168,11 +173,13 @@ def pipe_class_from_table(name: str, table: Mapping[str, object]) -> PipeClass:
     _check_keys(table, where)
     try:
         default, overrides = _schedule_table(table["schedule"], f"{where}.schedule")
+        # The file's values as read (1.5, "sch 40"): PipeClass normalises them, or refuses them naming the field.
         pipe_class = PipeClass(
             name=name, material=_material(table["material"], f"{where}.material"),
             roughness=_roughness(table["roughness"], f"{where}.roughness"), schedule=default,
-            sizes=table.get("sizes", DEFAULT_PIPE_CLASS.sizes), schedule_by_nps=overrides,  # type: ignore[arg-type]
-            min_nps=table.get("min_nps"),  # type: ignore[arg-type]
+            sizes=cast("tuple[str, ...]", table.get("sizes", DEFAULT_PIPE_CLASS.sizes)),
+            schedule_by_nps=cast("tuple[tuple[str, str], ...]", overrides),
+            min_nps=cast("str | None", table.get("min_nps")),
         )
     except CriteriaFileError:
         raise
@@ -196,14 +203,15 @@ def _check_keys(table: object, where: str) -> None:
                                 expected=f"the keys {', '.join(_REQUIRED_KEYS)} (and optionally sizes, min_nps)")
 
 
-def _schedule_table(value: object, field: str) -> tuple[str, tuple[tuple[str, str], ...]]:
+def _schedule_table(value: object, field: str) -> tuple[str, tuple[tuple[str, object], ...]]:
+    """The default schedule, normalised, and the per-NPS overrides as written (PipeClass normalises them)."""
     if not isinstance(value, Mapping):
-        return normalise_schedule(value, field), ()  # type: ignore[arg-type]
+        return normalise_schedule(value, field), ()
     if "default" not in value:
         raise CriteriaFileError("the schedule table has no 'default'", field=field, value=dict(value),
                                 expected='a table such as { default = "40", "14" = "STD" }')
     overrides = tuple((str(nps), schedule) for nps, schedule in value.items() if nps != "default")
-    return normalise_schedule(value["default"], f"{field}.default"), overrides  # type: ignore[return-value]
+    return normalise_schedule(value["default"], f"{field}.default"), overrides
 
 
 def _material(value: object, field: str) -> str:

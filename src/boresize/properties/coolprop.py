@@ -27,7 +27,7 @@ import importlib.metadata
 import re
 import threading
 from dataclasses import dataclass
-from typing import Any
+from typing import Any, Literal
 
 from boresize.errors import InputError, PropertyError
 from boresize.model import FluidState, Line, Phase
@@ -67,7 +67,8 @@ _PHASE_BY_INDEX: dict[int, Phase] = {
 }
 
 _MODEL = "HEOS (reference EOS)"
-_UNSEEN = object()
+#: The phase a line says it carries (Line.phase): at saturation it picks the side of the curve.
+PhaseHint = Literal["liquid", "gas"] | None
 _SPELLINGS_KEPT = 1024
 
 
@@ -166,13 +167,13 @@ class CoolPropBackend:
     def _known_name(self, fluid: str) -> str | None:
         """The canonical name of a pure fluid CoolProp knows, else None; read once per spelling (a line
         list repeats a few; the bound only guards against an endless stream of new ones)."""
-        known = self._known.get(fluid, _UNSEEN)
-        if known is _UNSEEN:
-            known = None if is_mixture(fluid) else self._name_map().get(_normalise(fluid))
-            if len(self._known) >= _SPELLINGS_KEPT:
-                self._known.clear()
-            self._known[fluid] = known
-        return known  # type: ignore[return-value]
+        if fluid in self._known:
+            return self._known[fluid]
+        known = None if is_mixture(fluid) else self._name_map().get(_normalise(fluid))
+        if len(self._known) >= _SPELLINGS_KEPT:
+            self._known.clear()
+        self._known[fluid] = known
+        return known
 
     def _name_map(self) -> dict[str, str]:
         """Normalised name -> canonical name, built once from CoolProp's fluid list."""
@@ -206,7 +207,7 @@ class CoolPropBackend:
             )
         return self._states[name]
 
-    def _compute(self, name: str, pressure: float, temperature: float, hint: str | None) -> FluidState:
+    def _compute(self, name: str, pressure: float, temperature: float, hint: PhaseHint) -> FluidState:
         """Uncached evaluation; see :meth:`state`."""
         with self._lock:
             state = self._abstract_state(name)
@@ -278,7 +279,7 @@ def _melting_temperature(state: Any, limits: _Limits, pressure: float) -> float 
 
 
 def _evaluate(
-    state: Any, name: str, limits: _Limits, pressure: float, temperature: float, hint: str | None
+    state: Any, name: str, limits: _Limits, pressure: float, temperature: float, hint: PhaseHint
 ) -> FluidState:
     """Run CoolProp at (pressure [Pa abs], temperature [K]); raises CoolProp's ValueError."""
     from CoolProp import CoolProp as CP
@@ -292,7 +293,7 @@ def _evaluate(
     if saturated:
         quality = 1.0 if hint == "gas" else 0.0
         state.update(CP.QT_INPUTS, quality, temperature)
-        phase: Phase = hint if hint in ("liquid", "gas") else "two-phase"  # type: ignore[assignment]
+        phase: Phase = hint if hint in ("liquid", "gas") else "two-phase"
         fraction = quality if hint in ("liquid", "gas") else None
     else:
         state.update(CP.PT_INPUTS, pressure, temperature)
@@ -318,7 +319,7 @@ def _map_phase(index: int, name: str, pressure: float, temperature: float) -> Ph
     return _PHASE_BY_INDEX[index]
 
 
-def _model_text(saturated: bool, hint: str | None) -> str:
+def _model_text(saturated: bool, hint: PhaseHint) -> str:
     """Model text for FluidState.model, e.g. "CoolProp 8.0.0 HEOS (reference EOS)"."""
     text = f"CoolProp {_coolprop_version()} {_MODEL}"
     if not saturated:

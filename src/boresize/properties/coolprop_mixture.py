@@ -39,7 +39,7 @@ from typing import Any
 from boresize.errors import InputError, PropertyError
 from boresize.model import Flow, FluidState, Line
 from boresize.properties.base import check_plausible, describe_conditions
-from boresize.properties.composition import basis_of, parse_composition
+from boresize.properties.composition import Basis, basis_of, parse_composition
 from boresize.properties.coolprop import CoolPropBackend, _coolprop_version
 from boresize.properties.coolprop_heos import (
     GAS_FLASHES_BEFORE_CHECK,
@@ -86,6 +86,12 @@ def is_incompressible(fluid: str) -> bool:
     return incompressible_spec(fluid) is not None
 
 
+#: The cache keys of :meth:`CoolPropMixtureBackend._compute`: (code, mass fraction) of an incompressible,
+#: ("HEOS", CoolProp names, fractions, basis, note) of a mixture.
+_IncompressibleKey = tuple[str, "float | None"]
+_HeosKey = tuple[str, tuple[str, ...], tuple[float, ...], str, "str | None"]
+
+
 class CoolPropMixtureBackend:
     """CoolProp HEOS mixtures (explicit) and incompressible liquids and brines (automatic).
 
@@ -128,17 +134,19 @@ class CoolPropMixtureBackend:
                             float(temperature))
 
     @functools.lru_cache(maxsize=256)  # noqa: B019 - one backend per process; keys are small
-    def _heos_key(self, fluid: str, basis: str | None) -> tuple[Any, ...]:
+    def _heos_key(self, fluid: str, basis: Basis | None) -> _HeosKey:
         """("HEOS", CoolProp names, fractions, basis, note) of a composition, parsed and resolved once."""
-        composition = parse_composition(fluid, basis=basis)  # type: ignore[arg-type]
+        composition = parse_composition(fluid, basis=basis)
         names = tuple(self._pure.resolve(name) for name in composition.components)
         return ("HEOS", names, composition.fractions, composition.basis, composition.note)
 
-    def _compute(self, kind: str, key: Any, pressure: float, temperature: float) -> FluidState:
+    def _compute(self, kind: str, key: _IncompressibleKey | _HeosKey, pressure: float,
+                 temperature: float) -> FluidState:
         with self._lock:
-            if kind == "INCOMP":
+            if len(key) == 2:  # kind "INCOMP": (CoolProp code, mass fraction)
                 return self._incompressible(key[0], key[1], pressure, temperature)
-            return self._mixture(*key[1:], pressure, temperature)
+            _, names, fractions, basis, note = key
+            return self._mixture(names, fractions, basis, note, pressure, temperature)
 
     # -- incompressibles --------------------------------------------------------------------------
     def _incompressible(self, code: str, fraction: float | None, pressure: float, temperature: float) -> FluidState:

@@ -56,7 +56,7 @@ def costald_liquid_volume(temperature: float, pressure: float, bubble_pressure: 
     if saturated is None:
         saturated = COSTALD(temperature, tcm, vcm, omega)
     if bubble_pressure is None or not pressure > bubble_pressure:
-        return float(saturated)  # type: ignore[arg-type]
+        return float(saturated)
     pcm = (0.291 - 0.080 * omega) * _R * tcm / vcm
     return float(COSTALD_compressed(temperature, pressure, bubble_pressure, tcm, pcm, omega, saturated))
 

@@ -39,7 +39,7 @@ from dataclasses import dataclass
 from boresize.errors import InputError, PropertyError
 from boresize.model import FluidState, Line
 from boresize.properties.base import check_plausible, describe_conditions
-from boresize.properties.composition import Composition, basis_of, parse_composition
+from boresize.properties.composition import Basis, Composition, basis_of, parse_composition
 from boresize.properties.coolprop import SATURATION_TOLERANCE, is_mixture
 from boresize.properties.thermo_evaluate import evaluate_mixture, evaluate_pure, gas_direct, liquid_direct, no_envelope
 
@@ -120,7 +120,7 @@ class ThermoBackend:
 
         return is_known_component(line.fluid)
 
-    def fluid(self, text: str, basis: str | None = None) -> Fluid:
+    def fluid(self, text: str, basis: Basis | None = None) -> Fluid:
         """Parse and resolve ``text`` (a composition or one component).
 
         :raises InputError: (field "fluid") unknown component (with close matches), unreadable
@@ -240,12 +240,12 @@ def _refuse_two_liquids(fluid: Fluid, where: str) -> None:
 
 
 @functools.lru_cache(maxsize=1024)
-def _resolve(text: str, basis: str | None) -> Fluid:
+def _resolve(text: str, basis: Basis | None) -> Fluid:
     """Parse a composition or a single component and resolve every name (cached per text)."""
     from boresize.properties.components import resolve_component
     from boresize.properties.mixing import mole_fractions
 
-    composition = (parse_composition(text, basis=basis) if is_mixture(text)  # type: ignore[arg-type]
+    composition = (parse_composition(text, basis=basis) if is_mixture(text)
                    else Composition((text.strip(),), (1.0,), "mole", 1.0))
     components = [resolve_component(name) for name in composition.components]
     merged: dict[str, float] = {}

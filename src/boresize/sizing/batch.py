@@ -22,7 +22,7 @@ import tempfile
 import sys
 import threading
 from collections.abc import Callable, Iterable, Iterator, Mapping, Sequence, Sized
-from concurrent.futures import Executor, ProcessPoolExecutor, as_completed
+from concurrent.futures import Executor, Future, ProcessPoolExecutor, as_completed
 from concurrent.futures.process import BrokenProcessPool
 from contextlib import AbstractContextManager, contextmanager, nullcontext
 from dataclasses import dataclass
@@ -282,6 +282,7 @@ def _collect(task: Callable[[SizerSpec, Any], list[LineResult]], spec: SizerSpec
     done here, so the workers would stall on a full pipe (measured: a third of their time).
     """
     with tempfile.TemporaryDirectory(prefix="boresize-") if local is not None else nullcontext() as folder:
+        futures: list[Future[str | list[LineResult]]]  # a file's path, or the results themselves
         if folder is not None:
             futures = [pool.submit(_run_to_file, task, spec, c, folder) for c in chunks]
         else:
@@ -291,7 +292,7 @@ def _collect(task: Callable[[SizerSpec, Any], list[LineResult]], spec: SizerSpec
             step = advance if advance is not None else (lambda n: None)
             step(already_done)  # the lines already sized in this process
             for i in reversed(range(len(chunks)) if local is not None else ()):
-                if not futures[i].cancel():
+                if local is None or not futures[i].cancel():
                     break  # a worker has it, so it has (or will have) every chunk before it
                 done[i] = local(chunks[i])
                 step(len(chunks[i]))
@@ -324,7 +325,8 @@ def _run_to_file(task: Callable[[SizerSpec, Any], list[LineResult]], spec: Sizer
 def _load(path: str) -> list[LineResult]:
     """The results a worker left in ``path`` (a file of this run's private folder, written by this program)."""
     with open(path, "rb") as source:
-        return pickle.load(source)  # type: ignore[no-any-return]
+        results: list[LineResult] = pickle.load(source)
+        return results
 
 
 def summary(results: Sequence[LineResult]) -> str:

@@ -16,7 +16,7 @@ from dataclasses import replace
 
 from boresize.errors import InputError
 from boresize.io.rows import DUPLICATE_TAG
-from boresize.model import CandidateResult, Line, LineResult
+from boresize.model import CandidateResult, Line, LineResult, Mode
 
 __all__ = ["Row", "group_rows", "check_cases", "name_cases", "common_index", "combine", "case_error",
            "cases_error"]
@@ -82,7 +82,13 @@ def _clean(result: CandidateResult) -> bool:
     return result.worst is not None and not any(v.status == "error" for v in result.verdicts)
 
 
-def common_index(rated: Sequence[Sequence[CandidateResult]], mode: str) -> tuple[int | None, bool]:
+def _utilisation(result: CandidateResult) -> float:
+    """The worst utilisation of a clean candidate (see :func:`_clean`); 0 where it has none."""
+    worst = result.worst
+    return (worst.utilisation or 0.0) if worst is not None else 0.0
+
+
+def common_index(rated: Sequence[Sequence[CandidateResult]], mode: Mode) -> tuple[int | None, bool]:
     """Index of the candidate to show for every case, and whether every case passes there.
 
     Size mode: the smallest candidate that every case passes; when none does, the candidate whose
@@ -95,7 +101,7 @@ def common_index(rated: Sequence[Sequence[CandidateResult]], mode: str) -> tuple
     for i in range(count):
         if all(r[i].passed for r in rated):
             return i, True
-    scores = [(max(r[i].worst.utilisation or 0.0 for r in rated), i)  # type: ignore[union-attr]
+    scores = [(max(_utilisation(r[i]) for r in rated), i)
               for i in range(count) if all(_clean(r[i]) for r in rated)]
     return (min(scores)[1] if scores else None), False
 
@@ -112,7 +118,7 @@ def _governing(cases: Sequence[LineResult]) -> dict[str, tuple[float, str]]:
     return best
 
 
-def combine(cases: Sequence[LineResult], passed: bool, mode: str) -> LineResult:
+def combine(cases: Sequence[LineResult], passed: bool, mode: Mode) -> LineResult:
     """One line's result from its case results (all rated at the same candidate).
 
     The line's own fields come from the governing case: the one whose worst utilisation is highest
@@ -144,11 +150,11 @@ def case_error(result: LineResult, case: str) -> LineResult:
     return replace(result, error=message, line=line)
 
 
-def cases_error(tag: str, cases: Sequence[LineResult], mode: str, message: str | None = None,
+def cases_error(tag: str, cases: Sequence[LineResult], mode: Mode, message: str | None = None,
                 field: str | None = None) -> LineResult:
     """The error result of a line whose case(s) could not be rated; ``cases`` keeps every case's result."""
     failed = [c for c in cases if c.status == "error"]
     first = failed[0] if failed else None
-    return LineResult(tag=tag, status="error", mode=mode,  # type: ignore[arg-type]
+    return LineResult(tag=tag, status="error", mode=mode,
                       line=first.line if first else None, error=message or (first.error if first else None),
                       error_field=field or (first.error_field if first else None), cases=tuple(cases))

@@ -20,7 +20,7 @@ from boresize.criteria.base import CriterionContext
 from boresize.errors import BoresizeError, InputError
 from boresize.hydraulics.darcy import require_roughness
 from boresize.hydraulics.line import is_gas, needs_march, rate_line
-from boresize.model import Candidate, CandidateResult, FluidState, Hydraulics, Line, LineResult, Verdict
+from boresize.model import Candidate, CandidateResult, FluidState, Hydraulics, Line, LineResult, Mode, Verdict
 from boresize.pipes import PipeClass
 from boresize.plugins import PluginHost
 from boresize.sizing.selection import build_result, error_result, error_verdict, internal_error, select, verdict_fault
@@ -45,7 +45,7 @@ class _Prepared(NamedTuple):
     pipe_class: PipeClass
     mass_flow: float
     margin: float
-    mode: str
+    mode: Mode
     notes: tuple[str, ...]
     start: float  # diameter the guided candidate scan starts from [m]
     judges: Judges  # the service's (criterion, options) pairs that apply to the fluid's phase
@@ -87,7 +87,7 @@ class Sizer:
         return self._finish(prepared, rated, select(rated) if prepared.mode == "size" else rated[0])
 
     def _prepare(self, line: Line) -> _Prepared:
-        mode = "check" if line.nps else "size"
+        mode: Mode = "check" if line.nps else "size"
         notes: tuple[str, ...] = ()
         if mode == "check" and line.roughness is None and self.check_roughness is not None:
             line = replace(line, roughness=self.check_roughness)
@@ -215,7 +215,7 @@ class Sizer:
         if len(lines) == 1:
             return self.run_safely(lines[0])
         named = _cases.name_cases(lines)
-        mode = "check" if named[0].nps else "size"
+        mode: Mode = "check" if named[0].nps else "size"
         try:
             return self._run_cases(named, mode)
         except BoresizeError as exc:
@@ -225,7 +225,7 @@ class Sizer:
             failed = [internal_error(line, exc) for line in named]
             return _cases.cases_error(named[0].tag, failed, mode)
 
-    def _run_cases(self, lines: tuple[Line, ...], mode: str) -> LineResult:
+    def _run_cases(self, lines: tuple[Line, ...], mode: Mode) -> LineResult:
         _cases.check_cases(lines)
         prepared: list[_Prepared | LineResult] = []
         for line in lines:

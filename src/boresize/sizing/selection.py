@@ -12,7 +12,7 @@ from typing import get_args
 
 from boresize.sizing.services import Service
 from boresize.errors import InputError, PropertyError
-from boresize.model import CandidateResult, FluidState, Line, LineResult, Verdict, VerdictStatus
+from boresize.model import CandidateResult, FluidState, Line, LineResult, Mode, Verdict, VerdictStatus
 
 __all__ = ["build_result", "closest", "error_result", "error_verdict", "internal_error", "select", "verdict_fault"]
 
@@ -58,18 +58,21 @@ def select(rated: Sequence[CandidateResult]) -> CandidateResult | None:
 
 def closest(rated: Sequence[CandidateResult]) -> CandidateResult | None:
     """When none passes: the candidate whose worst utilisation is lowest (the best that is on offer)."""
-    scored = [r for r in rated if r.worst is not None and not any(v.status == "error" for v in r.verdicts)]
-    return min(scored, key=lambda r: r.worst.utilisation, default=None)  # type: ignore[union-attr]
+    scored = [(worst.utilisation, r) for r in rated
+              if (worst := r.worst) is not None and worst.utilisation is not None
+              and not any(v.status == "error" for v in r.verdicts)]
+    best = min(scored, key=lambda item: item[0], default=None)
+    return best[1] if best is not None else None
 
 
 def build_result(line: Line, state: FluidState, service: Service, rated: tuple[CandidateResult, ...],
-            selected: CandidateResult | None, mode: str, mass_flow: float, margin: float, version: str,
+            selected: CandidateResult | None, mode: Mode, mass_flow: float, margin: float, version: str,
             first_guess: float | None, closest_note: bool = True) -> LineResult:
     notes = []
     shown = selected if selected is not None else closest(rated)
     if shown is None:
         errors = [v.reason for r in rated for v in r.verdicts if v.status == "error"]
-        return LineResult(tag=line.tag, status="error", mode=mode, line=line, state=state, candidates=rated,  # type: ignore[arg-type]
+        return LineResult(tag=line.tag, status="error", mode=mode, line=line, state=state, candidates=rated,
                           error=f"line {line.tag}: {errors[0] if errors else 'no candidate size could be rated'}",
                           error_field="criteria", service=service.name, criteria_set=version)
     passed = shown.passed and selected is not None
@@ -81,14 +84,14 @@ def build_result(line: Line, state: FluidState, service: Service, rated: tuple[C
         notes.append("Reynolds number in the transition zone (2100-4000): turbulent (Colebrook) friction used")
     worst = shown.worst
     return LineResult(
-        tag=line.tag, status="pass" if passed else "fail", mode=mode, line=line, state=state,  # type: ignore[arg-type]
+        tag=line.tag, status="pass" if passed else "fail", mode=mode, line=line, state=state,
         selected=shown, candidates=rated, controlling=worst.criterion if worst else None,
         notes=tuple(notes), service=service.name, criteria_set=version, sizing_flow=mass_flow,
         first_guess_diameter=first_guess,
     )
 
 
-def error_result(tag: str, exc: BaseException, *, line: Line | None = None, mode: str = "size") -> LineResult:
+def error_result(tag: str, exc: BaseException, *, line: Line | None = None, mode: Mode = "size") -> LineResult:
     """An ``error`` LineResult carrying the message and, where known, the field at fault."""
     message = str(exc)
     if isinstance(exc, InputError) and not exc.tag:
@@ -96,4 +99,4 @@ def error_result(tag: str, exc: BaseException, *, line: Line | None = None, mode
     elif not isinstance(exc, InputError):
         message = f"line {tag}: {message}"
     field = exc.field if isinstance(exc, InputError) else ("fluid" if isinstance(exc, PropertyError) else None)
-    return LineResult(tag=tag, status="error", mode=mode, line=line, error=message, error_field=field)  # type: ignore[arg-type]
+    return LineResult(tag=tag, status="error", mode=mode, line=line, error=message, error_field=field)

@@ -61,6 +61,7 @@ from boresize.units.text import (
 
 if TYPE_CHECKING:  # pint costs 0.2-0.3 s to import: it loads with the registry, on first use
     import pint
+    from pint.facets.plain import PlainUnit
 
 __all__ = [
     "ATMOSPHERE",
@@ -90,7 +91,7 @@ _STANDARD_SI = {"Sm3": "Sm3/s", "Nm3": "Nm3/s", "scf": "m3_60F/s"}
 
 
 @functools.cache
-def registry() -> pint.UnitRegistry:
+def registry() -> pint.UnitRegistry[float]:
     """The process-wide unit registry, built on first call (0.2-0.3 s with the pint import).
 
     Adds gauge/absolute pressures (barg, bara, kPag, kPaa, MPag, psig, psia, kgcm2g), the
@@ -100,7 +101,7 @@ def registry() -> pint.UnitRegistry:
     import pint
 
     try:
-        ureg = pint.UnitRegistry(cache_folder=":auto:")
+        ureg: pint.UnitRegistry[float] = pint.UnitRegistry(cache_folder=":auto:")
     except OSError:  # cache folder not writable: build without it
         ureg = pint.UnitRegistry()
     lines = [line for line in _DEFINITIONS.splitlines() if line]
@@ -160,13 +161,13 @@ def _check_powers(expression: str, cell: _Cell) -> None:
 
 
 @functools.lru_cache(maxsize=4096)
-def _unit_of(expression: str) -> pint.Quantity:
+def _unit_of(expression: str) -> pint.Quantity[float]:
     """One of the unit ``expression`` (parsing costs ~100 us; a line list repeats its units)."""
     return registry().parse_expression(expression)
 
 
 @functools.lru_cache(maxsize=4096)
-def _to_si(units: pint.Unit, si: str) -> tuple[float, float] | None:
+def _to_si(units: PlainUnit, si: str) -> tuple[float, float] | None:
     """(scale, offset) with value_si = value * scale + offset, from pint's own conversion of 0 and 1;
     None for a unit pint does not convert linearly (the logarithmic dB, neper, decade, octave)."""
     ureg = registry()
@@ -189,7 +190,7 @@ class _Parsed(NamedTuple):
     """A parsed cell: what pint's Quantity would hold, without building one per cell (~100 us each)."""
 
     magnitude: float  # the number times ``factor``
-    units: pint.Unit
+    units: PlainUnit
     dimensionality: object
     factor: float  # the magnitude of the unit expression (1000 for "1000*scf"), 1.0 for an offset unit
 
@@ -216,7 +217,7 @@ def _build(number: float, expression: str, cell: _Cell) -> _Parsed:
 
 
 @functools.lru_cache(maxsize=64)
-def _offset_unit(expression: str) -> pint.Quantity:
+def _offset_unit(expression: str) -> pint.Quantity[float]:
     """One of an offset unit (degC, barg ...), built rather than parsed."""
     return registry().Quantity(1.0, expression)
 
@@ -241,7 +242,7 @@ def _wrong_dimension(quantity: _Parsed, noun: str, cell: _Cell) -> InputError:
     return cell.error(f"'{cell.shown}' is {what}, not {noun}", expected)
 
 
-def parse_quantity(value: str | float | int | None, field: str, kind: QuantityKind,
+def parse_quantity(value: object, field: str, kind: QuantityKind,
                    default_unit: str | None = None) -> float:
     """Parse a cell such as "10 barg" into an SI float, checking its dimension against ``kind``.
 
@@ -250,7 +251,8 @@ def parse_quantity(value: str | float | int | None, field: str, kind: QuantityKi
     temperature [K], temperature_difference [K], length [m], density [kg/m3], viscosity [Pa s],
     velocity [m/s], drop_per_length [Pa/m], dimensionless [-] ("10 %" -> 0.1).
 
-    :param value: the cell ("65 t/h"), or a bare number that takes ``default_unit``
+    :param value: the cell ("65 t/h"), or a bare number that takes ``default_unit``; anything else (None,
+        a list, a bool) raises InputError naming ``field``
     :param field: the field name used in error messages
     :param kind: what the field holds
     :param default_unit: unit of a bare number, e.g. from a header "flow [t/h]" (brackets allowed)
@@ -277,7 +279,7 @@ def parse_quantity(value: str | float | int | None, field: str, kind: QuantityKi
     return result
 
 
-def parse_flow(value: str | float | int | None, field: str = "flow", default_unit: str | None = None) -> Flow:
+def parse_flow(value: object, field: str = "flow", default_unit: str | None = None) -> Flow:
     """Parse a flow cell into a :class:`~boresize.model.Flow` with its basis.
 
     mass [kg/s] (kg/h, t/h, lb/h, klb/h, t/d ...), volume [m3/s at line conditions] (m3/h, l/min,
