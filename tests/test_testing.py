@@ -7,6 +7,11 @@ Sizes are ASME B36.10M: NPS 2 Sch 40 is 60.3 mm OD with a 3.91 mm wall (52.48 mm
 from __future__ import annotations
 
 import math
+import re
+import sys
+import types
+from pathlib import Path
+from typing import Any
 
 import pytest
 
@@ -25,7 +30,7 @@ from boresize.plugin import (
 )
 from boresize.plugins import PluginHost
 from boresize.sizing.engine import Sizer
-from boresize.testing import criterion_context, run_criterion
+from boresize.testing import criterion_context, run_criterion, size_line
 
 WATER = {"tag": "W-1", "fluid": "water", "flow": "18 t/h", "pressure": "4 barg", "temperature": "20 degC",
          "length": "100 m"}
@@ -172,3 +177,42 @@ def test_a_plugins_own_backend_serves_the_line_through_a_sizer():
     context = criterion_context({**WATER, "fluid": "plant water"}, "2", sizer=sizer)
     assert (context.state.source, context.state.density) == ("plant-water", 1000.0)
     assert context.hydraulics.mass_flow == pytest.approx(5.0)
+
+
+def test_size_line_sizes_with_the_plugin_registered_and_its_criteria_file(tmp_path):
+    module = types.ModuleType("acme_bore")
+    module.MinimumBore = MinimumBore  # type: ignore[attr-defined]
+    exec("from boresize.plugin import hookimpl\n"  # noqa: S102 - a plugin module as an entry point loads it
+         "@hookimpl\ndef boresize_register_criteria(register):\n    register.add(MinimumBore())\n", module.__dict__)
+    path = tmp_path / "criteria.toml"
+    path.write_text('[service.bore]\nphase = "liquid"\nacme-minimum-bore = { min_id = "45 mm" }\n')
+    small = {**WATER, "flow": "0.5 t/h", "service": "bore"}
+    sized = size_line(small, plugins=[module], criteria=path)
+    assert (sized.status, sized.nps) == ("pass", "2")  # NPS 1-1/2 (40.94 mm bore) fails the 45 mm minimum
+    assert [v.criterion for v in sized.selected.verdicts] == ["acme-minimum-bore"]
+    checked = size_line(small, plugins=[module], criteria=path, nps="1-1/2")
+    assert (checked.status, checked.nps, checked.selected.verdicts[0].status) == ("fail", "1-1/2", "fail")
+    with pytest.raises(CriteriaFileError) as info:  # without the plugin the file names an unknown criterion
+        size_line(small, criteria=path)
+    assert str(info.value) == (
+        "service.bore.acme-minimum-bore: unknown criterion 'acme-minimum-bore'; expected a criterion id (erosional, "
+        "drop-per-length, velocity, npsh-margin, gravity-drain, flashing, momentum, noise-velocity, mach, "
+        "outlet-pressure) or one of description, phase, design_margin, pipe_class, version")
+
+
+def test_the_guides_example_of_testing_a_plugin_runs(monkeypatch, tmp_path):
+    root = Path(__file__).resolve().parents[1]
+    guide = (root / "DEVELOPERS.md").read_text(encoding="utf-8")
+    section = guide[guide.index("### Testing a plugin"):guide.index("## Hooks")]
+    code = re.findall(r"```python\n(.*?)```", section, re.S)[0]
+    monkeypatch.syspath_prepend(str(root / "plugins" / "acme-rack-minimum" / "src"))
+    namespace: dict[str, Any] = {}
+    try:
+        exec(compile(code, "DEVELOPERS.md:Testing a plugin", "exec"), namespace)  # noqa: S102 - our own guide
+        tests = {name: test for name, test in namespace.items() if name.startswith("test_")}
+        assert sorted(tests) == ["test_below_the_rack_minimum_fails", "test_sized_with_the_plugin",
+                                 "test_the_context_at_nps_2"]
+        for test in tests.values():
+            test(*([tmp_path] if test.__code__.co_argcount else []))
+    finally:  # test_example_plugin skips when it finds the plugin importable
+        sys.modules.pop("acme_rack_minimum", None)
