@@ -108,8 +108,7 @@ def test_a_plugin_that_raises_gives_an_error_verdict_naming_it_and_the_batch_goe
 def test_entry_points_are_loaded(tmp_path, monkeypatch):
     # A minimal installed distribution: a dist-info folder with an entry point in group "boresize".
     (tmp_path / "acme_rule.py").write_text(textwrap.dedent("""
-        from boresize.criteria.base import Criterion, verdict
-        from boresize.hookspecs import hookimpl
+        from boresize.plugin import Criterion, hookimpl, verdict
 
         class AcmeRule(Criterion):
             id = "acme-rule"
