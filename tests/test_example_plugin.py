@@ -21,6 +21,7 @@ from pathlib import Path
 
 import pytest
 
+import boresize
 from boresize.pipes import nps_value
 
 PLUGIN = Path(__file__).resolve().parents[1] / "plugins" / "acme-rack-minimum"
@@ -37,12 +38,14 @@ def _run(python: Path, *args: str, cwd: Path) -> subprocess.CompletedProcess[str
 
 
 def _venv(root: Path) -> Path:
-    """A venv without pip whose interpreter also sees this environment's site-packages (boresize, pip, pytest)."""
+    """A venv without pip whose interpreter also sees this environment's site-packages (pip, pytest) and, first,
+    the boresize under test (a worktree's, when the environment's editable install points at another tree)."""
     subprocess.run([sys.executable, "-m", "venv", "--without-pip", str(root)], check=True, timeout=120)
     python = root / ("Scripts/python.exe" if os.name == "nt" else "bin/python")
     purelib = _run(python, "-c", "import sysconfig; print(sysconfig.get_path('purelib'))", cwd=root).stdout.strip()
     here = sysconfig.get_path("purelib")
-    Path(purelib, "boresize-dev.pth").write_text(f"import site; site.addsitedir({here!r})\n")
+    tested = str(Path(boresize.__file__).resolve().parents[1])
+    Path(purelib, "boresize-dev.pth").write_text(f"{tested}\nimport site; site.addsitedir({here!r})\n")
     return python
 
 

@@ -2,6 +2,8 @@
 
 from __future__ import annotations
 
+import os
+import subprocess
 import sys
 import textwrap
 from pathlib import Path
@@ -106,8 +108,7 @@ def test_a_plugin_that_raises_gives_an_error_verdict_naming_it_and_the_batch_goe
 def test_entry_points_are_loaded(tmp_path, monkeypatch):
     # A minimal installed distribution: a dist-info folder with an entry point in group "boresize".
     (tmp_path / "acme_rule.py").write_text(textwrap.dedent("""
-        from boresize.criteria.base import Criterion, verdict
-        from boresize.hookspecs import hookimpl
+        from boresize.plugin import Criterion, hookimpl, verdict
 
         class AcmeRule(Criterion):
             id = "acme-rule"
@@ -145,3 +146,52 @@ def test_line_from_row_is_the_same_line_the_engine_sees():
     line = line_from_row({"tag": "A", "fluid": "water", "flow": "1 kg/s", "pressure": "2 bar",
                           "temperature": "300 K"})
     assert (line.flow.value, line.pressure, line.temperature) == (1.0, 2e5, 300.0)
+
+
+def _criteria_command(trace: str | None) -> subprocess.CompletedProcess[str]:
+    """``python -m boresize criteria --no-plugins`` in a fresh process, with BORESIZE_TRACE_HOOKS set or not."""
+    env = {k: v for k, v in os.environ.items() if k not in ("PYTHONPATH", "BORESIZE_TRACE_HOOKS")}
+    env["PYTHONPATH"] = str(Path(plugins_module.__file__).resolve().parents[1])
+    if trace is not None:
+        env["BORESIZE_TRACE_HOOKS"] = trace
+    return subprocess.run([sys.executable, "-m", "boresize", "criteria", "--no-plugins"], env=env,
+                          capture_output=True, text=True, timeout=120)
+
+
+def test_trace_hooks_prints_each_hook_call_with_its_plugin_and_what_it_registered():
+    run = _criteria_command("1")
+    assert run.returncode == 0 and "Installed criteria:" in run.stdout
+    assert run.stderr.splitlines() == [
+        "boresize: trace: boresize_register_criteria(register) of plugin 'boresize.criteria.builtin' registered "
+        "criterion erosional, drop-per-length, velocity, npsh-margin, gravity-drain, flashing, momentum, "
+        "noise-velocity, mach, outlet-pressure",
+        "boresize: trace: boresize_register_property_backends(register) of plugin 'boresize.properties.builtin' "
+        "registered property backend table, coolprop, coolprop-mixture, thermo",
+        "boresize: trace: boresize_register_pipe_classes(register) of plugin 'boresize.pipes.builtin' registered "
+        "pipe class default",
+    ]
+
+
+@pytest.mark.parametrize("trace", [None, "", "0"])
+def test_without_trace_hooks_nothing_is_traced(trace: str | None):
+    run = _criteria_command(trace)
+    assert (run.returncode, run.stderr) == (0, "")
+
+
+class _Quiet:
+    @hookimpl
+    def boresize_register_pipe_classes(self, register):
+        pass
+
+
+def test_a_plugin_that_registers_nothing_is_traced_after_the_builtins(monkeypatch, capsys):
+    monkeypatch.setenv("BORESIZE_TRACE_HOOKS", "1")
+    PluginHost.load(load_entry_points=False, extra=[_Quiet()])
+    lines = capsys.readouterr().err.splitlines()
+    assert [line.split(" registered ")[0] for line in lines] == [
+        "boresize: trace: boresize_register_criteria(register) of plugin 'boresize.criteria.builtin'",
+        "boresize: trace: boresize_register_property_backends(register) of plugin 'boresize.properties.builtin'",
+        "boresize: trace: boresize_register_pipe_classes(register) of plugin 'boresize.pipes.builtin'",
+        "boresize: trace: boresize_register_pipe_classes(register) of plugin '_Quiet'",
+    ]
+    assert lines[-1].endswith(" registered nothing")

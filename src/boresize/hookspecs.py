@@ -1,8 +1,10 @@
 """Hook specifications: the whole contract between boresize and its plugins.
 
 Every hook receives a small registry object with an ``add(...)`` method rather than returning loose
-values, so that boresize can tell which plugin registered what (and reject duplicate ids naming both).
-Built-in criteria, property backends and pipe classes are registered through these same hooks.
+values, so that boresize can tell which plugin registered what (and reject duplicate ids naming both) and
+check each object against its contract, naming what is missing. Built-in criteria, property backends and pipe
+classes are registered through these same hooks. Plugin authors import ``hookimpl`` and the rest from
+:mod:`boresize.plugin`.
 """
 
 from __future__ import annotations
@@ -25,8 +27,9 @@ __all__ = ["PROJECT", "hookimpl", "hookspec"]
 def boresize_register_criteria(register: CriterionRegistry) -> None:
     """Add criteria (objects that judge a candidate size) to boresize.
 
-    :param register: call ``register.add(criterion)`` once per criterion; a criterion has ``id``,
-        ``title``, ``phases``, ``options`` and ``evaluate(context) -> Verdict`` (see DEVELOPERS.md).
+    :param register: call ``register.add(criterion)`` once per criterion; a criterion follows
+        :class:`boresize.criteria.protocol.CriterionProtocol`: ``id`` (kebab-case), ``title``, ``source``,
+        ``phases``, ``options`` and ``evaluate(context) -> Verdict`` (see DEVELOPERS.md).
     """
 
 
@@ -34,7 +37,8 @@ def boresize_register_criteria(register: CriterionRegistry) -> None:
 def boresize_register_property_backends(register: BackendRegistry) -> None:
     """Add property backends (objects that turn fluid, pressure and temperature into a FluidState).
 
-    :param register: call ``register.add(backend)``; a backend has ``id``, ``title``, ``handles(line)``,
+    :param register: call ``register.add(backend)``; a backend follows
+        :class:`boresize.properties.base.PropertyBackend`: ``id`` (kebab-case), ``title``, ``handles(line)``,
         ``state(line, pressure, temperature)`` and ``version()``.
     """
 

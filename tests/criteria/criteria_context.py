@@ -1,4 +1,8 @@
-"""A CriterionContext built by hand, for tests of single criteria (every number SI)."""
+"""A CriterionContext built by hand, for tests of single criteria (every number SI).
+
+The hydraulics are the numbers given, so that a test can sit a value exactly on a limit; for the context the
+engine computes for a real line at one NPS, use :func:`boresize.testing.criterion_context`.
+"""
 
 from __future__ import annotations
 

@@ -8,12 +8,18 @@ from __future__ import annotations
 
 from collections.abc import Mapping
 
-from boresize.criteria import Criterion, CriterionContext, OptionSpec, verdict
-from boresize.errors import CriteriaFileError
-from boresize.hookspecs import hookimpl
-from boresize.model import Verdict
-from boresize.pipes import NPS_LABELS, nps_value
-from boresize.registry import CriterionRegistry
+from boresize.plugin import (
+    NPS_LABELS,
+    CriteriaFileError,
+    Criterion,
+    CriterionContext,
+    CriterionRegistry,
+    OptionSpec,
+    Verdict,
+    hookimpl,
+    nps_value,
+    verdict,
+)
 
 __all__ = ["RackMinimumSize", "boresize_register_criteria", "location_of"]
 

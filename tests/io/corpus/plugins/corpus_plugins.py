@@ -110,13 +110,13 @@ class RegistersText:
 
 class _HalfCriterion:
     id = "corpus-half"
-    title = "a criterion without evaluate"
+    title = "a criterion without source and evaluate"
     phases = frozenset({"liquid"})
     options = ()
 
 
 class RegistersHalfCriterion:
-    """Registers an object that lacks ``evaluate``."""
+    """Registers an object that lacks ``source`` and ``evaluate``."""
 
     @hookimpl
     def boresize_register_criteria(self, register):  # type: ignore[no-untyped-def]
