@@ -83,9 +83,24 @@ def test_a_criterion_of_the_base_class_without_source_is_refused():
     ({"options": (OptionSpec("max", "velocity"), {"name": "min"})}, "options[1] {'name': 'min'} is not an OptionSpec"),
     ({"evaluate": ...}, "evaluate is missing"),
     ({"evaluate": "pass"}, "evaluate is not callable"),
+    ({"size_trend": "up"}, "size_trend 'up' is not one of 'larger-passes', 'falls-with-size' or None"),
+    ({"size_trend": "larger_passes"},
+     "size_trend 'larger_passes' is not one of 'larger-passes', 'falls-with-size' or None"),
+    ({"march_only_worsens": "yes"}, "march_only_worsens 'yes' is not True or False"),
+    ({"proposes_first_guess": 1}, "proposes_first_guess 1 is not True or False"),
+    ({"proposes_first_guess": True}, "proposes_first_guess is True but diameter_at_limit is missing"),
+    ({"diameter_at_limit": 0.1}, "diameter_at_limit is not callable"),
 ])
 def test_each_missing_or_wrong_part_is_named(changes: dict[str, Any], fault: str):
     assert _refusal(_criterion(**changes)) == f"criterion 'acme-good' of plugin 'acme-rules' is not usable: {fault} {GUIDE}"
+
+
+def test_declared_traits_with_their_right_values_are_accepted():
+    registry = CriterionRegistry().bound_to("acme-rules")
+    registry.add(_criterion(id="acme-traits", size_trend="falls-with-size", march_only_worsens=True,
+                            proposes_first_guess=True, diameter_at_limit=lambda *args: 0.1))
+    registry.add(_criterion(id="acme-unknown-trend", size_trend=None))
+    assert registry.ids() == ("acme-traits", "acme-unknown-trend")
 
 
 @pytest.mark.parametrize(("ident", "fault"), [

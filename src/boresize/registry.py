@@ -141,6 +141,26 @@ def _callable_fault(item: object, name: str) -> str | None:
     return None if callable(getattr(item, name)) else f"{name} is not callable"
 
 
+#: The optional traits the sizing core reads (see :class:`boresize.criteria.base.Criterion`): flags must be bools.
+_TRAIT_FLAGS = ("march_only_worsens", "proposes_first_guess")
+_SIZE_TRENDS = (None, "larger-passes", "falls-with-size")
+
+
+def _traits_fault(item: object) -> str | None:
+    """What is wrong with the optional traits a criterion declares (a misspelt trend would be read as unknown)."""
+    faults = []
+    trend = getattr(item, "size_trend", None)
+    if trend not in _SIZE_TRENDS:
+        faults.append(f"size_trend {trend!r} is not one of 'larger-passes', 'falls-with-size' or None")
+    faults += [f"{name} {getattr(item, name)!r} is not True or False" for name in _TRAIT_FLAGS
+               if not isinstance(getattr(item, name, False), bool)]
+    if hasattr(item, "diameter_at_limit") and not callable(getattr(item, "diameter_at_limit")):
+        faults.append("diameter_at_limit is not callable")
+    if getattr(item, "proposes_first_guess", False) is True and not hasattr(item, "diameter_at_limit"):
+        faults.append("proposes_first_guess is True but diameter_at_limit is missing")
+    return "; ".join(faults) or None
+
+
 def _refuse(kind: str, item: object, plugin: str, faults: list[str | None], guide: str) -> None:
     """Raise one PluginError naming every fault found, or return when there is none."""
     found = [fault for fault in faults if fault]
@@ -154,7 +174,7 @@ def check_criterion(item: object, plugin: str) -> None:
     if not hasattr(item, "id"):
         raise _without_id("criterion", plugin, item)
     faults = [_id_fault(item), _text_fault(item, "title"), _text_fault(item, "source"), _phases_fault(item),
-              _options_fault(item), _callable_fault(item, "evaluate")]
+              _options_fault(item), _callable_fault(item, "evaluate"), _traits_fault(item)]
     _refuse("criterion", item, plugin, faults, '"The criterion object"')
 
 

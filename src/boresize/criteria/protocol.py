@@ -39,8 +39,9 @@ class CriterionProtocol(Protocol):
     Optional (read with ``getattr`` when present; see DEVELOPERS.md, "The criterion object"):
 
     - ``check_options(values, where)``: validate the parsed options, raise ``CriteriaFileError``
-    - ``size_trend``: ``"larger-passes"`` or ``"falls-with-size"``, how a fail responds to the pipe size
-    - further traits that :class:`~boresize.criteria.base.Criterion` declares with their defaults
+    - the traits the sizing core reads, declared with their defaults on :class:`~boresize.criteria.base.Criterion`
+      and checked at registration when present: ``size_trend`` (``"larger-passes"``, ``"falls-with-size"`` or
+      None), ``march_only_worsens`` and ``proposes_first_guess`` (bools), ``diameter_at_limit(...)`` (callable)
     """
 
     @property
