@@ -22,7 +22,8 @@ from pathlib import Path
 import pytest
 
 from boresize.sizing import batch
-from boresize.sizing.batch import SizerSpec, run_batch, run_chunks, spec_for
+from boresize.io.line_items import line_items
+from boresize.sizing.batch import SizerSpec, run_items, run_chunks, spec_for
 from boresize.sizing.engine import Sizer
 from boresize.io import read_line_list
 from boresize.model import LineResult
@@ -44,7 +45,7 @@ def pairs() -> list:  # type: ignore[type-arg]
 @pytest.fixture(scope="module")
 def reference(spec: SizerSpec, pairs: list) -> list[LineResult]:  # type: ignore[type-arg]
     """The demo lines sized in this process, one sizer built from ``spec``."""
-    return run_batch(pairs, sizer=spec.build())
+    return run_items(_items(pairs), sizer=spec.build())
 
 
 def test_the_demo_lines_give_every_kind_of_result(reference: list[LineResult]) -> None:
@@ -66,7 +67,7 @@ def test_results_from_workers_equal_the_results_sized_here(spec: SizerSpec, pair
                                                             reference: list[LineResult],
                                                             chunk_size: int | None) -> None:
     # As the CLI runs --workers 2: the parent builds its sizer from the spec and passes both.
-    parallel = run_batch(pairs, spec, sizer=spec.build(), workers=2, chunk_size=chunk_size)
+    parallel = run_items(_items(pairs), spec, sizer=spec.build(), workers=2, chunk_size=chunk_size)
     assert [r.tag for r in parallel] == [r.tag for r in reference]
     assert parallel == reference
 
@@ -81,8 +82,8 @@ def test_forked_workers_keep_the_parent_sizer(spec: SizerSpec, pairs: list,  # t
         raise AssertionError("a worker built its own sizer")
 
     monkeypatch.setattr(SizerSpec, "build", no_second_build)  # the forked workers inherit the patch
-    assert run_batch(pairs, spec, sizer=sizer, workers=2, chunk_size=3) == reference
-    assert batch._SIZERS.get(spec) is not sizer  # this process's cache is left as it was
+    assert run_items(_items(pairs), spec, sizer=sizer, workers=2, chunk_size=3) == reference
+    assert batch.shared_sizer(spec) is not sizer  # this process's own sizer for the spec is left as it was
 
 
 def _collector_state(spec: SizerSpec, chunk: Sequence[int]) -> list[bool]:
@@ -104,7 +105,7 @@ def test_the_collector_is_restored_after_a_run(spec: SizerSpec, pairs: list,  # 
     was = gc.isenabled()
     (gc.enable if enabled else gc.disable)()
     try:
-        run_batch(pairs[:3], spec, sizer=spec.build(), workers=workers)
+        run_items(_items(pairs[:3]), spec, sizer=spec.build(), workers=workers)
         assert gc.isenabled() is enabled
         assert gc.get_freeze_count() == 0
     finally:
@@ -117,7 +118,7 @@ def test_objects_the_caller_froze_stay_frozen(spec: SizerSpec, pairs: list,  # t
     gc.freeze()
     try:
         frozen = gc.get_freeze_count()
-        run_batch(pairs[:3], spec, sizer=spec.build(), workers=workers)
+        run_items(_items(pairs[:3]), spec, sizer=spec.build(), workers=workers)
         assert 0 < gc.get_freeze_count() <= frozen  # none unfrozen (a few may be freed), none added
         assert gc.isenabled()
     finally:
@@ -153,3 +154,8 @@ def test_with_one_process_nothing_is_started_and_all_is_done_here(spec: SizerSpe
     done = run_chunks(_whose, spec, [[1], [2]], executor=None, workers=1, retry_hint="--workers 1",  # type: ignore[arg-type]
                       sizer=spec.build(), local=lambda chunk: _whose(spec, chunk))  # type: ignore[arg-type]
     assert done == [(1, os.getpid()), (2, os.getpid())]
+
+
+def _items(pairs):  # type: ignore[no-untyped-def]
+    """The lines of (row, units) pairs, read as the run reads them."""
+    return line_items(pairs).items

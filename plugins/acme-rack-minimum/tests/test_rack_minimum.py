@@ -17,6 +17,7 @@ from boresize.criteria.base import parse_options
 from boresize.sizing.engine import Sizer
 from boresize.errors import CriteriaFileError
 from boresize.plugins import PluginHost
+from boresize.api import size_rows
 
 ROW = {"tag": "U-1", "fluid": "water", "flow": "0.5 t/h", "pressure": "4 barg", "temperature": "20 degC",
        "service": "utility-rack"}
@@ -42,7 +43,7 @@ def _rack_verdict(result):
 
 
 def test_a_small_line_on_a_rack_is_sized_up_to_nps_2(sizer):
-    result = sizer.run_rows([({**ROW, "location": "Pipe rack 3"}, {})])[0]
+    result = size_rows([({**ROW, "location": "Pipe rack 3"}, {})], sizer=sizer)[0]
     assert result.status == "pass" and result.selected.candidate.nps == "2"
     verdict = _rack_verdict(result)
     assert (verdict.status, verdict.value, verdict.limit, verdict.unit) == ("pass", 2.0, 2.0, "NPS")
@@ -51,13 +52,13 @@ def test_a_small_line_on_a_rack_is_sized_up_to_nps_2(sizer):
 
 
 def test_the_same_line_off_the_rack_keeps_its_small_size(sizer):
-    result = sizer.run_rows([({**ROW, "location": "unit 140 grade"}, {})])[0]
+    result = size_rows([({**ROW, "location": "unit 140 grade"}, {})], sizer=sizer)[0]
     assert result.selected.candidate.nps_value < 2
     assert _rack_verdict(result).reason == "line U-1 is not on a pipe rack ('unit 140 grade')"
 
 
 def test_a_line_without_location_is_not_applicable(sizer):
-    result = sizer.run_rows([(ROW, {})])[0]
+    result = size_rows([(ROW, {})], sizer=sizer)[0]
     assert _rack_verdict(result).status == "not-applicable"
     assert _rack_verdict(result).reason == "line U-1 gives no location column"
 

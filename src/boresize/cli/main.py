@@ -8,32 +8,18 @@ printed as one message; anything else is reported as an internal error with a re
 from __future__ import annotations
 
 import argparse
-import json
 import os
 import sys
 from collections.abc import Sequence
 
 from boresize import __version__
-from boresize.cli.commands import UsageError
-from boresize.errors import BoresizeError
+from boresize.cli.fields import SINGLE_LINE_FIELDS
+from boresize.errors import BoresizeError, UsageError
 
 __all__ = ["main", "build_parser"]
 
 CAUTION_SHORT = ("Screening calculations: check them against the applicable codes and your company's standards "
                  "(a competent engineer must review them; local codes govern).")
-
-SINGLE_LINE_FIELDS = (
-    ("tag", "line tag (default: LINE-1)"), ("fluid", "fluid name, CoolProp name or CAS number"),
-    ("flow", "flow with its unit: '65 t/h', '120 m3/h', '2 MMSCFD'"),
-    ("pressure", "inlet pressure: '10 barg', '1100 kPa' (bare bar, kPa, psi are absolute)"),
-    ("temperature", "temperature: '40 degC', '313 K', '100 degF'"), ("length", "straight length: '120 m'"),
-    ("service", "criteria set (see 'boresize criteria')"), ("pipe-class", "pipe class (see 'boresize pipes')"),
-    ("nps", "check this NPS instead of sizing"), ("density", "given density: '850 kg/m3'"),
-    ("viscosity", "given viscosity: '1.2 cP'"), ("design-margin", "margin on flow: '10 %%'"),
-    ("phase", "liquid or gas: what the line must carry"), ("backend", "property backend id"),
-    ("schedule", "schedule of the NPS to check (default: the pipe class's)"),
-)
-
 
 def build_parser() -> argparse.ArgumentParser:
     parser = argparse.ArgumentParser(
@@ -45,8 +31,8 @@ def build_parser() -> argparse.ArgumentParser:
     sub = parser.add_subparsers(dest="command", metavar="COMMAND")
     size = sub.add_parser("size", help="size (or check) the lines of a line list, or one line from options",
                           epilog=CAUTION_SHORT)
-    size.add_argument("lines", nargs="?", help="line list: CSV, XLSX or TOML (omit to give one line with the "
-                                               "options below)")
+    size.add_argument("lines", nargs="?", help="line list: CSV, XLSX or TOML, or - for CSV on standard input "
+                                               "(omit to give one line with the options below)")
     size.add_argument("--criteria", metavar="FILE.toml", help="criteria sets and pipe classes to use")
     size.add_argument("--json", action="store_true", help="print one JSON document instead of the table")
     size.add_argument("--no-plugins", action="store_true", help="use only boresize's built-in plugins")
@@ -116,14 +102,9 @@ def _dispatch(parser: argparse.ArgumentParser, argv: Sequence[str] | None) -> in
     if args.command is None:
         parser.print_help()
         return 2
-    from boresize.cli import commands
+    import boresize.cli.commands  # the API loads only when a command runs: --help and --version stay quick
 
-    return int(getattr(commands, f"run_{args.command}")(args))
-
-
-def print_json(payload: object) -> None:
-    json.dump(payload, sys.stdout, indent=2, ensure_ascii=False)
-    sys.stdout.write("\n")
+    return int(getattr(boresize.cli.commands, f"run_{args.command}")(args))
 
 
 if __name__ == "__main__":  # pragma: no cover
