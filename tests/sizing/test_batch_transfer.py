@@ -14,8 +14,6 @@ import gc
 import os
 import pickle
 import sys
-import tempfile
-import time
 from collections.abc import Sequence
 from pathlib import Path
 
@@ -76,14 +74,13 @@ def test_results_from_workers_equal_the_results_sized_here(spec: SizerSpec, pair
 def test_forked_workers_keep_the_parent_sizer(spec: SizerSpec, pairs: list,  # type: ignore[type-arg]
                                               reference: list[LineResult],
                                               monkeypatch: pytest.MonkeyPatch) -> None:
-    sizer = spec.build()
+    sizer = batch.shared_sizer(spec)  # this process's sizer for the spec, as run_lines() takes it
 
     def no_second_build(self: SizerSpec) -> Sizer:
         raise AssertionError("a worker built its own sizer")
 
     monkeypatch.setattr(SizerSpec, "build", no_second_build)  # the forked workers inherit the patch
     assert run_items(_items(pairs), spec, sizer=sizer, workers=2, chunk_size=3) == reference
-    assert batch.shared_sizer(spec) is not sizer  # this process's own sizer for the spec is left as it was
 
 
 def _collector_state(spec: SizerSpec, chunk: Sequence[int]) -> list[bool]:
@@ -94,7 +91,7 @@ def _collector_state(spec: SizerSpec, chunk: Sequence[int]) -> list[bool]:
 @FORK_ONLY
 def test_workers_forked_while_the_parent_waits_collect_garbage(spec: SizerSpec) -> None:
     states = run_chunks(_collector_state, spec, [[1], [2], [3]], executor=None, workers=2,  # type: ignore[arg-type]
-                        retry_hint="--workers 1", sizer=spec.build())
+                        retry_hint="--workers 1")
     assert states == [True, True, True]
 
 
@@ -130,30 +127,11 @@ def _whose(spec: SizerSpec, chunk: Sequence[int]) -> list[tuple[int, int]]:
     return [(item, os.getpid()) for item in chunk]
 
 
-@FORK_ONLY
-def test_this_process_takes_chunks_from_the_end_while_the_worker_takes_them_from_the_start(
-        spec: SizerSpec, tmp_path: Path, monkeypatch: pytest.MonkeyPatch) -> None:
-    monkeypatch.setattr(tempfile, "tempdir", str(tmp_path))  # where the workers' result files go
-
-    def here(chunk: Sequence[int]) -> list[tuple[int, int]]:
-        time.sleep(0.01)  # slow enough here for the started worker to take its first chunks
-        return [(item, os.getpid()) for item in chunk]
-
+def test_chunks_come_back_in_input_order_from_the_workers(spec: SizerSpec) -> None:
     chunks = [[2 * i, 2 * i + 1] for i in range(30)]
-    done = run_chunks(_whose, spec, chunks, executor=None, workers=2, retry_hint="--workers 1",  # type: ignore[arg-type]
-                      sizer=spec.build(), local=here)  # type: ignore[arg-type]
+    done = run_chunks(_whose, spec, chunks, executor=None, workers=2, retry_hint="--workers 1")  # type: ignore[arg-type]
     assert [item for item, _ in done] == list(range(60))  # in input order, each item once
-    owners = [pid for _, pid in done]
-    here_at = [i for i, pid in enumerate(owners) if pid == os.getpid()]
-    assert here_at and len(here_at) < 60  # both this process and the worker sized some
-    assert here_at == list(range(here_at[0], 60))  # this process took a run from the end
-    assert list(tmp_path.iterdir()) == []  # the workers' result files and their folder are gone
-
-
-def test_with_one_process_nothing_is_started_and_all_is_done_here(spec: SizerSpec) -> None:
-    done = run_chunks(_whose, spec, [[1], [2]], executor=None, workers=1, retry_hint="--workers 1",  # type: ignore[arg-type]
-                      sizer=spec.build(), local=lambda chunk: _whose(spec, chunk))  # type: ignore[arg-type]
-    assert done == [(1, os.getpid()), (2, os.getpid())]
+    assert os.getpid() not in {pid for _, pid in done}  # the workers sized them all
 
 
 def _items(pairs):  # type: ignore[no-untyped-def]

@@ -188,8 +188,8 @@ def size_many(lines: Iterable[Item], executor: Executor | None = None, *, worker
     :param executor: any :class:`concurrent.futures.Executor` (a thread or process pool, a dask
         client's ``get_executor()``); it is not shut down here. Workers build their own sizer from
         ``criteria`` (give a path every worker can read) and ``plugins``.
-    :param workers: processes to size on when no executor is given, this one included (it starts
-        ``workers - 1``); default: one per CPU from :data:`PROCESS_THRESHOLD` lines, else 1 (this one)
+    :param workers: worker processes to size on when no executor is given (1: this process alone); default:
+        one per CPU from :data:`PROCESS_THRESHOLD` lines, else 1
     :param chunk_size: lines per task (default: about eight tasks per worker, 1 to 64 lines each)
     :raises InputError: an item that is not a line, an executor that is not one, workers below 1
     :raises BoresizeError: a worker process died

@@ -16,11 +16,11 @@ from __future__ import annotations
 
 import hashlib
 import sys
-from collections.abc import Iterable, Sequence
+from collections.abc import Callable, Iterable, Sequence
 from concurrent.futures import Executor
 from dataclasses import dataclass, replace
 from pathlib import Path
-from typing import IO, TYPE_CHECKING, Any, Union
+from typing import IO, TYPE_CHECKING, Any, Union, cast
 
 from boresize.api.calls import Item as LineItem, checked_item, default_sizer
 from boresize.api.result import SizingResult
@@ -102,7 +102,7 @@ def run_lines(lines: LineSource, criteria: str | Path | None = None, *, workers:
     """Size (or check) every line of a line list; see the module docstring for what ``lines`` may be.
 
     :param criteria: a criteria TOML file (the shipped sets when None)
-    :param workers: processes to size on, this one included (it starts ``workers - 1``)
+    :param workers: worker processes to size on (1: this process alone)
     :param executor: any :class:`concurrent.futures.Executor` to size on instead (not shut down here)
     :param every_size: rate every size of the pipe class (same selection, slower)
     :param corroded_roughness: absolute roughness for lines checked at a given NPS ("0.5 mm", or metres)
@@ -172,16 +172,17 @@ def read_lines(lines: LineSource, units_row: bool | None = None) -> LineList:
     if isinstance(lines, (str, Path)):
         return read_line_list(lines)
     if hasattr(lines, "read"):
-        return _from_text(lines.read(), str(getattr(lines, "name", "<file>")), parse_csv_text)
+        handle = cast(IO[Any], lines)
+        return _from_text(handle.read(), str(getattr(handle, "name", "<file>")), parse_csv_text)
     if type(lines).__module__.partition(".")[0] == "pandas" and hasattr(lines, "columns"):
         from boresize.io.dataframe import read_dataframe
 
-        return read_dataframe(lines, units_row=units_row)
+        return read_dataframe(cast("pd.DataFrame", lines), units_row=units_row)
     raise InputError(f"a {type(lines).__name__} is not a line list", field="lines", value=repr(lines)[:80],
                      expected="a path, '-', an open file, a DataFrame, a LineList, or Lines")
 
 
-def _from_text(text: str | bytes, source: str, parse_csv: Any) -> LineList:
+def _from_text(text: str | bytes, source: str, parse_csv: Callable[[str, str], LineList]) -> LineList:
     """A line list from the text of a file: TOML when its name ends in .toml, else CSV; digest of its bytes."""
     data = text if isinstance(text, bytes) else text.encode("utf-8")
     try:

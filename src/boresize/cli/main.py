@@ -58,7 +58,7 @@ def _add_diff(diff: argparse.ArgumentParser) -> None:
     diff.add_argument("--criteria", metavar="FILE.toml", help="criteria for sizing a line list")
     diff.add_argument("--json", action="store_true", help="print the differences as one JSON document")
     diff.add_argument("--no-plugins", action="store_true", help="use only boresize's built-in plugins")
-    diff.add_argument("--workers", type=int, default=1, metavar="N", help="processes for sizing line lists (this one and N-1 started)")
+    diff.add_argument("--workers", type=int, default=1, metavar="N", help="worker processes for sizing line lists")
 
 
 def _add_run_options(size: argparse.ArgumentParser) -> None:
@@ -66,7 +66,7 @@ def _add_run_options(size: argparse.ArgumentParser) -> None:
                       help="write the results to FILE: .json, .csv, .xlsx (with a candidates sheet) or .html "
                            "(the calculation report); repeat for several")
     size.add_argument("--workers", type=int, default=1, metavar="N",
-                      help="size on N processes: this one and N-1 started for the run (default 1: this one)")
+                      help="size on N worker processes started for the run (default 1: in this process alone)")
     size.add_argument("--progress", action=argparse.BooleanOptionalAction, default=None,
                       help="show a progress bar on stderr (default: on a terminal, for 50 lines or more)")
     size.add_argument("--corroded-roughness", metavar="LENGTH",

@@ -18,9 +18,6 @@ import gc
 import hashlib
 import math
 import multiprocessing
-import os
-import pickle
-import tempfile
 import sys
 import threading
 from collections.abc import Callable, Iterator, Sequence, Sized
@@ -133,8 +130,8 @@ class _CollectorPause:
     """Pauses the cyclic garbage collector while a batch builds or receives its results; restores it after.
 
     A result is about 430 objects a line (dataclasses, tuples, floats, strings), none in a reference cycle;
-    the collections made while they pile up traverse everything alive, again and again: they made unpickling
-    a 2,000-line batch in the parent 2.5-4x slower and sizing in one process about 25 % slower. The objects
+    the collections made while they pile up traverse everything alive, again and again (the figures are at
+    ``_COLLECTOR_PAUSE`` below). The objects
     alive at the start (modules, the sizer) are frozen, so that workers forked meanwhile, which collect as
     usual, leave them alone (the recipe of the ``gc.freeze`` documentation); at the end, freezing again and
     unfreezing moves the results to the oldest generation without traversing them. Objects the caller froze
@@ -174,15 +171,13 @@ class _CollectorPause:
                 gc.enable()
 
 
+# benchmarks/bench_tricks.py gc-pause, 2,000 lines (late 2026, medians of 5): 12 % faster here, 20 % on 2 workers.
 _COLLECTOR_PAUSE = _CollectorPause()
 
 
-def _init_worker(spec: SizerSpec, sizer: Sizer | None = None) -> None:
-    """Executor initializer: keep the sizer the parent forked with, else build the worker's own for ``spec``."""
+def _init_worker(spec: SizerSpec) -> None:
+    """Executor initializer: the worker's sizer for ``spec`` (a forked worker finds the parent's in the cache)."""
     _COLLECTOR_PAUSE.after_fork()
-    if sizer is not None:
-        with _SIZERS_LOCK:
-            _SIZERS[spec] = sizer
     shared_sizer(spec)
 
 
@@ -198,18 +193,16 @@ def _chunks(items: Sequence[Item], workers: int, size: int | None) -> list[Seque
     return [items[i:i + size] for i in range(0, len(items), size)]
 
 
-def process_pool(workers: int, spec: SizerSpec, *, sizer: Sizer | None = None) -> ProcessPoolExecutor:
-    """A pool of ``workers`` processes, each building its sizer for ``spec`` before its first task.
+def process_pool(workers: int, spec: SizerSpec) -> ProcessPoolExecutor:
+    """A pool of ``workers`` processes, each with its sizer for ``spec`` before its first task.
 
-    :param sizer: a sizer built from ``spec`` in this process: forked workers inherit it instead of building
-        their own (loading plugins and criteria again costs 0.3-1 s a process); ignored where workers are spawned
+    On Linux the workers are forked: they inherit the imported modules (pint, plugins, property libraries)
+    and this process's sizer for ``spec`` (:func:`shared_sizer`) instead of importing and building again.
     """
-    # fork on Linux: the workers inherit the imported modules (pint, plugins) instead of importing again.
-    # All workers are forked at the first submit, before the progress bar starts its thread. A forked
-    # process receives the initializer's arguments as they are in memory: the sizer is not pickled.
+    # benchmarks/bench_tricks.py fork, 2,000 lines on 2 workers: 1.1 s forked, 8.7 s spawned (medians of 5).
+    # All workers are forked at the first submit, before the progress bar starts its thread.
     context = multiprocessing.get_context("fork") if sys.platform == "linux" else None
-    inherited = sizer if context is not None else None
-    return ProcessPoolExecutor(workers, mp_context=context, initializer=_init_worker, initargs=(spec, inherited))
+    return ProcessPoolExecutor(workers, mp_context=context, initializer=_init_worker, initargs=(spec,))
 
 
 @contextmanager
@@ -241,12 +234,10 @@ def run_items(items: Sequence[Item], spec: SizerSpec | None = None, *, sizer: Si
 
     :param items: the lines (see :data:`Item`), e.g. :func:`boresize.io.line_items.line_items`'s
     :param spec: how workers build their sizer (also used here when ``sizer`` is not given)
-    :param sizer: the sizer to use in this process; in a parallel run (with ``spec``, from which it must be
-        built) on processes started here it sizes the first line here before the workers start, and the
-        worker processes (forked) keep it, with the property libraries it imported, instead of building
-        their own from ``spec``
+    :param sizer: the sizer to use in this process; in a parallel run on processes started here it sizes the
+        first line before they start, so that forked workers inherit the property libraries it loaded
     :param executor: any executor to run chunks on (it is not shut down here)
-    :param workers: processes to size on when no executor is given, this one included (1 runs here)
+    :param workers: worker processes to start when no executor is given (1: size here, start none)
     :param progress: True/False to force the progress bar on or off; None shows it on a terminal for long runs
     :param chunk_size: lines per task (default: about eight tasks per worker, 1 to 64 lines each)
     :param retry_hint: how the caller asks for one process, for the message when a worker dies
@@ -258,122 +249,57 @@ def run_items(items: Sequence[Item], spec: SizerSpec | None = None, *, sizer: Si
         raise InputError("a parallel run cannot send a Sizer to its workers", field="spec", value=None,
                          expected="a SizerSpec from which each worker builds its own sizer")
     spec = spec or SizerSpec()
-    local = sizer or (spec.build() if not parallel else None)
 
     def bar() -> AbstractContextManager[Callable[[int], None]]:
         return _progress(len(items), progress, progress_stream)
 
     if not parallel:
+        engine = sizer or spec.build()
+        results = []
         with _COLLECTOR_PAUSE, bar() as advance:
-            return [_advanced([size_item(local, item)], advance)[0] for item in items]  # type: ignore[arg-type]
-    head = [size_item(local, items[0])] if local is not None and executor is None and items else []
+            for item in items:
+                results.append(size_item(engine, item))
+                advance(1)
+        return results
+    head = [size_item(sizer, items[0])] if sizer is not None and executor is None and items else []
     rest = items[len(head):]
     if not rest:
         return head
-
-    def here(chunk: Sequence[Item]) -> list[LineResult]:
-        return [size_item(local, item) for item in chunk]  # type: ignore[arg-type]
-
     return head + run_chunks(_run_chunk, spec, _chunks(rest, workers, chunk_size), executor=executor,
-                             workers=workers, retry_hint=retry_hint, progress=bar, already_done=len(head),
-                             sizer=local, local=here if local is not None else None)
+                             workers=workers, retry_hint=retry_hint, progress=bar, already_done=len(head))
 
 
-def run_chunks(task: Callable[[SizerSpec, Any], list[LineResult]], spec: SizerSpec, chunks: Sequence[Sized], *,
+def run_chunks(task: Callable[[SizerSpec, Any], list[Any]], spec: SizerSpec, chunks: Sequence[Sized], *,
                executor: Executor | None, workers: int, retry_hint: str,
                progress: Callable[[], AbstractContextManager[Callable[[int], None]]] | None = None,
-               already_done: int = 0, sizer: Sizer | None = None,
-               local: Callable[[Any], list[LineResult]] | None = None) -> list[LineResult]:
-    """Run ``task(spec, chunk)`` for every chunk on ``executor`` (or on processes started here and shut down
-    after); results come back in chunk order, whatever order the chunks finish in.
-
-    Without an executor, ``workers`` processes share the work. Given ``local`` (the same work done in this
-    process), this process is one of them: it starts ``workers - 1`` and takes chunks from the end of the list
-    while they take them from the start (a chunk no process has begun is cancelled in the pool and run here),
-    so that its share of the results never has to be pickled and sent back.
+               already_done: int = 0) -> list[Any]:
+    """Run ``task(spec, chunk)`` for every chunk on ``executor`` (or on ``workers`` processes started here and
+    shut down after); results come back in chunk order, whatever order the chunks finish in.
 
     :param retry_hint: how the caller asks for one process, for the message when a worker dies
     :param progress: makes the progress bar, entered after every chunk is submitted (a forked pool starts its
         processes at the first submit, before the bar's thread); advanced by the lines of each finished chunk
-    :param sizer: a sizer built from ``spec`` here, for the worker processes started here to inherit
-    :param local: ``chunk -> results`` in this process (``task`` with this process's sizer)
+    :param already_done: lines done before (shown on the bar from the start)
     :raises BoresizeError: a worker process died
     """
-    if executor is None and local is not None and workers <= 1:  # this process is the only one
-        with _COLLECTOR_PAUSE, (progress or nullcontext)() as advance:
-            step = advance if advance is not None else (lambda n: None)
-            step(already_done)
-            return [result for chunk in chunks for result in _advanced(local(chunk), step)]
-    if executor is None:
-        started = workers - 1 if local is not None else workers
-        pool: Executor = process_pool(started, spec, sizer=sizer)
-    else:
-        pool, local = executor, None
+    pool = executor or process_pool(workers, spec)
     try:
         with _COLLECTOR_PAUSE:
-            return _collect(task, spec, chunks, pool, progress, already_done, local)
+            futures = {pool.submit(task, spec, chunk): i for i, chunk in enumerate(chunks)}
+            done: list[list[Any]] = [[] for _ in chunks]
+            with (progress or nullcontext)() as advance:
+                step = advance if advance is not None else (lambda n: None)
+                step(already_done)
+                for future in as_completed(futures):
+                    done[futures[future]] = future.result()
+                    step(len(chunks[futures[future]]))
+            return [result for chunk in done for result in chunk]
     except BrokenProcessPool as exc:
         raise BoresizeError(f"a worker process stopped unexpectedly ({exc}); run again with {retry_hint} to "
                             f"find the line that stops it") from exc
     finally:
         if executor is None:
             pool.shutdown(wait=True, cancel_futures=True)
-
-
-def _collect(task: Callable[[SizerSpec, Any], list[LineResult]], spec: SizerSpec, chunks: Sequence[Sized],
-             pool: Executor, progress: Callable[[], AbstractContextManager[Callable[[int], None]]] | None,
-             already_done: int, local: Callable[[Any], list[LineResult]] | None) -> list[LineResult]:
-    """Submit every chunk; run here the chunks (from the end) no worker has begun; gather in chunk order.
-
-    Working beside its own pool, this process has the workers leave their results in files of a private
-    temporary folder and send back only the file's path: a chunk's results (~200 kB pickled) sent through
-    the pool's pipe need this process's receiving thread, which gets the interpreter only between the sizing
-    done here, so the workers would stall on a full pipe (measured: a third of their time).
-    """
-    with tempfile.TemporaryDirectory(prefix="boresize-") if local is not None else nullcontext() as folder:
-        if folder is not None:
-            futures = [pool.submit(_run_to_file, task, spec, c, folder) for c in chunks]
-        else:
-            futures = [pool.submit(task, spec, c) for c in chunks]
-        done: list[Any] = [None] * len(chunks)
-        with (progress or nullcontext)() as advance:
-            step = advance if advance is not None else (lambda n: None)
-            step(already_done)  # the lines already sized in this process
-            for i in reversed(range(len(chunks)) if local is not None else ()):
-                if not futures[i].cancel():
-                    break  # a worker has it, so it has (or will have) every chunk before it
-                done[i] = local(chunks[i])
-                step(len(chunks[i]))
-                for j, future in enumerate(futures):  # what the workers finished meanwhile
-                    if done[j] is None and future.done() and not future.cancelled():
-                        done[j] = future.result()
-                        step(len(chunks[j]))
-            waiting = {future: i for i, future in enumerate(futures) if done[i] is None}
-            for future in as_completed(waiting):
-                done[waiting[future]] = future.result()
-                step(len(chunks[waiting[future]]))
-        return [result for chunk in done for result in (_load(chunk) if isinstance(chunk, str) else chunk)]
-
-
-def _advanced(results: list[LineResult], step: Callable[[int], None]) -> list[LineResult]:
-    step(len(results))
-    return results
-
-
-def _run_to_file(task: Callable[[SizerSpec, Any], list[LineResult]], spec: SizerSpec, chunk: Any,
-                 folder: str) -> str:
-    """A worker's chunk with its results pickled into a new file of ``folder``; returns the file's path."""
-    results = task(spec, chunk)
-    handle, path = tempfile.mkstemp(suffix=".pickle", dir=folder)
-    with os.fdopen(handle, "wb") as out:
-        pickle.dump(results, out, protocol=pickle.HIGHEST_PROTOCOL)
-    return path
-
-
-def _load(path: str) -> list[LineResult]:
-    """The results a worker left in ``path`` (a file of this run's private folder, written by this program)."""
-    with open(path, "rb") as source:
-        return pickle.load(source)  # type: ignore[no-any-return]
 
 
 def summary(results: Sequence[LineResult]) -> str:
