@@ -131,3 +131,18 @@ def test_an_edited_criteria_file_gives_its_new_limit(tmp_path: Path) -> None:
 
     assert velocity_limit("3 m/s") == pytest.approx(3.0)
     assert velocity_limit("1.5 m/s") == pytest.approx(1.5)  # same path, new content: the new limit
+
+
+def test_an_output_that_cannot_be_written_is_named(reference: Run, tmp_path: Path) -> None:
+    (tmp_path / "taken.json").mkdir()  # a folder where the file should go
+    with pytest.raises(InputError, match=r"^output: cannot write '.*taken\.json': Is a directory; expected a file "
+                                         r"this user may write$"):
+        reference.write(tmp_path / "taken.json")
+
+
+def test_standard_input_that_is_not_utf8_is_named(monkeypatch: pytest.MonkeyPatch) -> None:
+    import io
+
+    monkeypatch.setattr(sys, "stdin", io.TextIOWrapper(io.BytesIO(b"tag,fluid\n\xff\xfe,x\n")))
+    with pytest.raises(InputError, match=r"^lines: <stdin> is not UTF-8 text; expected a line list saved as UTF-8$"):
+        run_lines("-", plugins=False)

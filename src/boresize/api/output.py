@@ -63,7 +63,14 @@ def check_output(path: str | Path) -> Path:
 
 
 def write_run(path: str | Path, run: Run) -> Path:
-    """Write ``run`` to ``path`` in the kind its extension names; returns the path written."""
+    """Write ``run`` to ``path`` in the kind its extension names; returns the path written.
+
+    :raises InputError: (field "output") an unknown extension, a missing folder, a file that cannot be written
+    """
     target = check_output(path)
-    WRITERS[target.suffix.lower()](target, run)
+    try:
+        WRITERS[target.suffix.lower()](target, run)
+    except OSError as exc:
+        raise InputError(f"cannot write {str(path)!r}: {exc.strerror or exc}", field="output", value=str(path),
+                         expected="a file this user may write") from exc
     return target

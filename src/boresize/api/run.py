@@ -68,7 +68,7 @@ class Run:
         return summary(self.results)
 
     def document(self) -> dict[str, Any]:
-        """The JSON document (the contract of README "Output"), with each line's headroom when asked for."""
+        """The JSON document (``boresize size --json``), with each line's headroom when asked for."""
         from boresize.io.document import document
         from boresize.sizing.headroom import headroom_to_dict
 
@@ -168,7 +168,8 @@ def read_lines(lines: LineSource, units_row: bool | None = None) -> LineList:
     if isinstance(lines, LineList):
         return lines
     if isinstance(lines, str) and lines == "-":
-        return _from_text(sys.stdin.read(), "<stdin>", parse_csv_text)
+        stdin = getattr(sys.stdin, "buffer", sys.stdin)  # bytes where there are: a bad encoding is named, not raised
+        return _from_text(stdin.read(), "<stdin>", parse_csv_text)
     if isinstance(lines, (str, Path)):
         return read_line_list(lines)
     if hasattr(lines, "read"):

@@ -255,7 +255,7 @@ def run_items(items: Sequence[Item], spec: SizerSpec | None = None, *, sizer: Si
 
     if not parallel:
         engine = sizer or spec.build()
-        results = []
+        results: list[LineResult] = []
         with _COLLECTOR_PAUSE, bar() as advance:
             for item in items:
                 results.append(size_item(engine, item))
