@@ -2,10 +2,10 @@
 of the API's calls (:func:`boresize.api.run_lines`, :func:`boresize.api.size_many`, the DataFrame path).
 
 The plugin manager cannot be pickled, so a worker never receives a :class:`~boresize.sizing.engine.Sizer`:
-it builds its own from a :class:`SizerSpec` (criteria file and its content digest, whether to load entry
-points, corroded roughness) once, in the executor's initializer, or, forked from a parent that passes the
-sizer it built from that spec, keeps the parent's. The parent sends whole lines (:data:`Item`) in
-chunks. Results come back in input order whatever order the chunks finish in. A line's fault stays on
+it takes its sizer for a :class:`SizerSpec` (criteria file and its content digest, whether to load entry
+points, corroded roughness) from :func:`shared_sizer`, once, in the executor's initializer: a worker forked
+from a parent that holds a sizer for that spec finds the parent's there, any other builds its own. The
+parent sends whole lines (:data:`Item`) in chunks. Results come back in input order whatever order the chunks finish in. A line's fault stays on
 that line (an ``error`` result); only a worker process that dies stops the batch.
 
 Any :class:`concurrent.futures.Executor` can be passed (a thread pool, a cluster's executor): the
