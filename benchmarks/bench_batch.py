@@ -81,10 +81,11 @@ def run_boresize(path: Path, workers: int, progress: bool) -> tuple[float, int, 
 
 def run_single_recording(path: Path) -> tuple[float, list[Point]]:
     """Seconds for the run in one process, and every (fluid, p, T) point boresize asked CoolProp for."""
-    from boresize.api import default_sizer, run_lines
+    from boresize.api import size_rows
+    from boresize.io import read_line_list
     from boresize.sizing.batch import spec_for
 
-    sizer = default_sizer(spec_for(DEMO / "criteria.toml", False, None))  # the sizer run_lines takes
+    sizer = spec_for(DEMO / "criteria.toml", False, None).build()  # its own: property caches start empty
     backend = sizer.host.backends.get("coolprop")
     asked: list[Point] = []
     plain_state = backend.state
@@ -94,8 +95,9 @@ def run_single_recording(path: Path) -> tuple[float, list[Point]]:
         return plain_state(line, pressure, temperature)
 
     backend.state = recording_state  # wraps the public method of this one instance
+    line_list = read_line_list(path)
     start = time.perf_counter()
-    run_lines(path, DEMO / "criteria.toml", plugins=False)
+    size_rows(line_list.pairs(), sizer=sizer)
     return time.perf_counter() - start, asked
 
 
