@@ -67,14 +67,12 @@ def run_boresize(path: Path, workers: int, progress: bool) -> tuple[float, int, 
     import CoolProp.CoolProp  # noqa: F401  # the floor is timed after this import too
 
     imported = time.perf_counter()
-    from boresize.sizing.batch import run_batch, spec_for
-    from boresize.io import read_line_list
+    from boresize.api import default_sizer, run_lines
+    from boresize.sizing.batch import spec_for
 
-    spec = spec_for(DEMO / "criteria.toml", False, None)
-    sizer = spec.build()
+    default_sizer(spec_for(DEMO / "criteria.toml", False, None))  # the sizer run_lines takes
     built = time.perf_counter()
-    line_list = read_line_list(path)
-    results = run_batch(line_list.pairs(), spec, sizer=sizer, workers=workers, progress=progress)
+    results = run_lines(path, DEMO / "criteria.toml", plugins=False, workers=workers, progress=progress).results
     total = time.perf_counter() - built
     statuses = {s: sum(1 for r in results if r.status == s) for s in ("pass", "fail", "error")}
     print(f"boresize: {len(results)} lines, {statuses}")
@@ -83,10 +81,11 @@ def run_boresize(path: Path, workers: int, progress: bool) -> tuple[float, int, 
 
 def run_single_recording(path: Path) -> tuple[float, list[Point]]:
     """Seconds for the run in one process, and every (fluid, p, T) point boresize asked CoolProp for."""
-    from boresize.sizing.batch import run_batch, spec_for
+    from boresize.api import size_rows
     from boresize.io import read_line_list
+    from boresize.sizing.batch import spec_for
 
-    sizer = spec_for(DEMO / "criteria.toml", False, None).build()
+    sizer = spec_for(DEMO / "criteria.toml", False, None).build()  # its own: property caches start empty
     backend = sizer.host.backends.get("coolprop")
     asked: list[Point] = []
     plain_state = backend.state
@@ -98,7 +97,7 @@ def run_single_recording(path: Path) -> tuple[float, list[Point]]:
     backend.state = recording_state  # wraps the public method of this one instance
     line_list = read_line_list(path)
     start = time.perf_counter()
-    run_batch(line_list.pairs(), sizer=sizer, progress=False)
+    size_rows(line_list.pairs(), sizer=sizer)
     return time.perf_counter() - start, asked
 
 

@@ -17,6 +17,7 @@ from boresize.errors import PluginError
 from boresize.hookspecs import hookimpl
 from boresize.io.rows import line_from_row
 from boresize.plugins import PluginHost
+from boresize.api import size_rows
 
 
 def test_no_manager_is_built_at_import_time():
@@ -95,7 +96,7 @@ def test_a_plugin_that_raises_gives_an_error_verdict_naming_it_and_the_batch_goe
         ({"tag": "F-2", "fluid": "water", "flow": "10 t/h", "pressure": "3 barg", "temperature": "20 degC",
           "service": "liquid"}, {}),
     ]
-    first, second = sizer.run_rows(rows)
+    first, second = size_rows(rows, sizer=sizer)
     assert first.status == "error"
     assert "criterion 'boom' of plugin '_FaultyPlugin' raised ZeroDivisionError" in first.error
     boom = [v for v in first.candidates[0].verdicts if v.criterion == "boom"][0]

@@ -6,8 +6,9 @@ codes and the company's standards; local codes govern.
 The public API is small (see README "From Python"): build a line with :func:`make_line` (text,
 pint Quantities, or numbers with their unit stated) or :func:`line_from_stream` (a simulation
 stream's T, P, mass flow and mole fractions), then :func:`size`, :func:`check` or
-:func:`size_many` (any ``concurrent.futures.Executor``). Results are :class:`SizingResult` objects
-with pint quantities, plain floats and ``to_dict()``. DataFrames go in and out through
+:func:`size_many` (any ``concurrent.futures.Executor``); a whole line list (a file, stdin, a
+DataFrame) goes through :func:`run_lines`, whose :class:`Run` writes itself to .json, .csv, .xlsx or
+.html. Results are :class:`SizingResult` objects with pint quantities, plain floats and ``to_dict()``. DataFrames go in and out through
 :func:`size_dataframe`, :func:`read_dataframe` and :func:`results_dataframe`. :class:`Sizer` is the
 engine underneath. Every name loads on first use: importing boresize loads neither pint, CoolProp,
 thermo nor pandas; type checkers see the real types through the imports under ``TYPE_CHECKING``.
@@ -32,9 +33,9 @@ from boresize.errors import (
 from boresize.model import Candidate, CandidateResult, Flow, FluidState, Hydraulics, Line, LineResult, Verdict
 
 if TYPE_CHECKING:  # the real types of the names _LAZY loads on first use (a test keeps the two in step)
-    from boresize.api import check, make_line, size, size_many
+    from boresize.api import Run, check, make_line, run_lines, size, size_dataframe, size_many
     from boresize.api.result import RatedResult, SizingResult
-    from boresize.io.dataframe import read_dataframe, results_dataframe, size_dataframe
+    from boresize.io.dataframe import read_dataframe, results_dataframe
     from boresize.io.rows import line_from_row
     from boresize.io.streams import line_from_stream
     from boresize.plugins import PluginHost
@@ -62,6 +63,7 @@ __all__ = [
     "PluginHost",
     "PropertyError",
     "RatedResult",
+    "Run",
     "Sizer",
     "SizingResult",
     "UnitError",
@@ -74,6 +76,7 @@ __all__ = [
     "make_line",
     "read_dataframe",
     "results_dataframe",
+    "run_lines",
     "size",
     "size_dataframe",
     "size_many",
@@ -88,12 +91,14 @@ _LAZY = {
     "size": "boresize.api",
     "check": "boresize.api",
     "size_many": "boresize.api",
+    "run_lines": "boresize.api",
+    "Run": "boresize.api",
     "SizingResult": "boresize.api.result",
     "RatedResult": "boresize.api.result",
     "line_from_stream": "boresize.io.streams",
     "read_dataframe": "boresize.io.dataframe",
     "results_dataframe": "boresize.io.dataframe",
-    "size_dataframe": "boresize.io.dataframe",
+    "size_dataframe": "boresize.api",
 }
 
 

@@ -16,6 +16,7 @@ __all__ = [
     "CriteriaFileError",
     "PropertyError",
     "PluginError",
+    "UsageError",
 ]
 
 
@@ -92,3 +93,7 @@ class PropertyError(BoresizeError, RuntimeError):
 
 class PluginError(BoresizeError, RuntimeError):
     """A plugin could not be loaded or registered (for example a duplicate id)."""
+
+
+class UsageError(BoresizeError, ValueError):
+    """The command line asks for something that cannot be done (exit code 2)."""

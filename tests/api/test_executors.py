@@ -23,8 +23,7 @@ import pytest
 
 import boresize.api as api
 import boresize.sizing.batch as batch
-from boresize import Line, make_line, read_dataframe, size_many
-from boresize.sizing.batch import run_batch, spec_for
+from boresize import Line, make_line, size_many
 
 LINES_CSV = """tag,fluid,flow,pressure [barg],temperature [degC],length [m],service,nps,case
 W-1,water,45 t/h,9,30,120,liquid,,
@@ -94,11 +93,16 @@ def test_api_in_this_process(items, reference):
 
 def test_dataframe_path(reference):
     frame = pd.read_csv(io.StringIO(LINES_CSV))
-    spec = spec_for(None, False, None)
-    results = run_batch(read_dataframe(frame).pairs(), spec, sizer=api.default_sizer(spec), progress=False)
-    from boresize.io.document import result_to_dict
+    assert _entries(list(api.run_lines(frame, plugins=False).results)) == reference
 
-    assert [_comparable(result_to_dict(r)) for r in results] == reference
+
+def test_size_dataframe_gives_the_results_file_of_the_same_lines(lines_file):
+    from boresize.io.dataframe import results_dataframe
+
+    run = api.run_lines(lines_file, plugins=False)
+    table = api.size_dataframe(pd.read_csv(io.StringIO(LINES_CSV), dtype=str, keep_default_na=False),
+                               plugins=False)
+    pd.testing.assert_frame_equal(table, results_dataframe(run.results, run.line_list.headers))
 
 
 def test_thread_pool(items, reference):

@@ -159,3 +159,38 @@ def test_every_size_rates_from_the_smallest_and_selects_the_same(capsys):
     sized = [(g, e) for g, e in zip(guided, every) if g["mode"] == "size" and g["status"] == "pass"]
     assert sized and all(e["candidates"][0]["nps"] == "1/2" for _, e in sized)  # the default class starts at 1/2
     assert sum(len(g["candidates"]) for g, _ in sized) < sum(len(e["candidates"]) for _, e in sized)
+
+
+def test_the_command_line_imports_only_the_public_api():
+    import ast
+
+    allowed = ("boresize", "boresize.api", "boresize.errors")
+    reached = {}
+    for path in sorted((ROOT / "src" / "boresize" / "cli").glob("*.py")):
+        for node in ast.walk(ast.parse(path.read_text(encoding="utf-8"))):
+            names = [node.module or ""] if isinstance(node, ast.ImportFrom) else \
+                [a.name for a in node.names] if isinstance(node, ast.Import) else []
+            for name in names:
+                if name.startswith("boresize") and name not in allowed and \
+                        not name.startswith(("boresize.api.", "boresize.cli")):
+                    reached.setdefault(path.name, []).append(name)
+    assert reached == {}
+
+
+def test_a_usage_error_is_of_the_error_tree_and_still_importable_from_the_commands():
+    from boresize.cli.commands import UsageError as FromCommands
+    from boresize.errors import BoresizeError, UsageError
+
+    assert FromCommands is UsageError and issubclass(UsageError, BoresizeError)
+
+
+def test_a_line_list_on_standard_input_is_read_as_csv(capsys, monkeypatch):
+    import io
+
+    text = "tag,fluid,flow,pressure,temperature\nW-1,water,20 t/h,3 barg,25 degC\n"
+    monkeypatch.setattr(sys, "stdin", io.StringIO(text))
+    code, out, _ = _run(capsys, "-", "--json")
+    doc = json.loads(out)
+    assert code == 0 and doc["lines_source"] == "<stdin>" and [line["tag"] for line in doc["lines"]] == ["W-1"]
+    assert doc["lines"][0]["input"] == {"tag": "W-1", "fluid": "water", "flow": "20 t/h", "pressure": "3 barg",
+                                        "temperature": "25 degC"}

@@ -20,6 +20,7 @@ from boresize.hookspecs import hookimpl
 from boresize.io.rows import line_from_row
 from boresize.plugins import PluginHost
 from boresize.report.listing import render_criteria
+from boresize.api import size_rows
 from criteria_context import make_context
 
 REQUIRED_SERVICES = {
@@ -226,7 +227,7 @@ def test_a_raising_plugin_criterion_in_bands_is_named_and_the_batch_goes_on(tmp_
     path.write_text('[service.x]\nphase = "liquid"\nacme-raises = { bands = [{ up_to_nps = "4" }, {}] }\n')
     rows = [({"tag": f"L-{n}", "fluid": "water", "flow": "5 t/h", "pressure": "3 barg", "temperature": "20 degC",
               "service": service}, {}) for n, service in ((1, "x"), (2, "liquid"))]
-    first, second = Sizer(host, criteria_file=path).run_rows(rows)
+    first, second = size_rows(rows, sizer=Sizer(host, criteria_file=path))
     assert first.status == "error"
     assert "criterion 'acme-raises' of plugin '_RaisingPlugin' raised ZeroDivisionError" in first.error
     assert second.status == "pass"

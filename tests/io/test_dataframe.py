@@ -16,6 +16,7 @@ from boresize import InputError, read_dataframe, results_dataframe, size_datafra
 from boresize.io.csv_reader import parse_csv_text, read_csv
 from boresize.io.csv_writer import csv_cell, write_csv
 from boresize.io.dataframe import lines_dataframe
+from boresize.api import size_rows
 
 LINES_CSV = """tag,fluid,flow,pressure [barg],temperature [degC],length [m],service,nps,case
 W-1,water,45 t/h,9,30,120,liquid,,
@@ -82,7 +83,7 @@ def _cell(value: object) -> str:
 
 
 def test_the_results_frame_holds_the_cells_of_the_csv_results_file(tmp_path, csv_list, sizer):
-    results = sizer.run_rows(csv_list.pairs())
+    results = size_rows(csv_list.pairs(), sizer=sizer)
     frame = results_dataframe(results, csv_list.headers)
     write_csv(tmp_path / "results.csv", results, csv_list.headers)
     written = pd.read_csv(tmp_path / "results.csv", dtype=str, keep_default_na=False, encoding="utf-8-sig")

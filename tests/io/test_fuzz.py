@@ -30,6 +30,7 @@ from boresize.io.csv_reader import LineList, parse_csv_text
 from boresize.io.rows import COLUMNS, line_from_row
 from boresize.model import Flow, Line
 from boresize.units import QuantityKind, parse_flow, parse_quantity, registry
+from boresize.api import size_rows
 
 KINDS = typing.get_args(QuantityKind)
 QUICK = settings(max_examples=150, deadline=timedelta(milliseconds=400), derandomize=True,
@@ -266,7 +267,7 @@ def test_sizing_fuzzed_rows_never_reports_an_internal_error(budget: settings, si
         lambda cells: {**VALID_ROW, **cells}), min_size=1, max_size=3))
     def check(rows: list[dict[str, str]]) -> None:
         with watchdog(20.0):
-            results = sizer.run_rows([(row, {}) for row in rows])
+            results = size_rows([(row, {}) for row in rows], sizer=sizer)
         assert results, rows
         for result in results:
             assert "internal error" not in (result.error or ""), result.error

@@ -14,7 +14,7 @@ from pathlib import Path
 import openpyxl
 import pytest
 
-from boresize.sizing.batch import run_batch
+from boresize.api import size_rows
 from boresize.sizing.engine import Sizer
 from boresize.io import document, read_line_list
 from boresize.io.xlsx import write_xlsx
@@ -52,7 +52,7 @@ def test_demo_has_lines_with_three_or_more_cases():
 def test_demo_round_trips_csv_to_xlsx_to_results(tmp_path, demo_sizer):
     header, rows = _csv_cells()
     line_list = read_line_list(DEMO / "lines.csv")
-    results = run_batch(line_list.pairs(), sizer=demo_sizer)
+    results = size_rows(line_list.pairs(), sizer=demo_sizer)
     book_path = tmp_path / "demo.xlsx"
     write_xlsx(book_path, results, line_list.headers)
 
@@ -69,13 +69,13 @@ def test_demo_round_trips_csv_to_xlsx_to_results(tmp_path, demo_sizer):
     assert again.units == line_list.units
     assert again.rows == line_list.rows
     first = document(results, criteria_source="c", lines_source="l")
-    second = document(run_batch(again.pairs(), sizer=demo_sizer), criteria_source="c", lines_source="l")
+    second = document(size_rows(again.pairs(), sizer=demo_sizer), criteria_source="c", lines_source="l")
     assert json.dumps(second, sort_keys=True) == json.dumps(first, sort_keys=True)
 
 
 def test_candidates_sheet_lists_every_rated_size_of_every_case(tmp_path, demo_sizer):
     line_list = read_line_list(DEMO / "lines.csv")
-    results = run_batch(line_list.pairs(), sizer=demo_sizer)
+    results = size_rows(line_list.pairs(), sizer=demo_sizer)
     write_xlsx(tmp_path / "demo.xlsx", results, line_list.headers)
     sheet = openpyxl.load_workbook(tmp_path / "demo.xlsx")["candidates"]
     rows = list(sheet.iter_rows(values_only=True))
@@ -92,7 +92,7 @@ def test_csv_output_keeps_input_columns_and_round_trips(tmp_path, demo_sizer):
 
     header, rows = _csv_cells()
     line_list = read_line_list(DEMO / "lines.csv")
-    write_csv(tmp_path / "out.csv", run_batch(line_list.pairs(), sizer=demo_sizer), line_list.headers)
+    write_csv(tmp_path / "out.csv", size_rows(line_list.pairs(), sizer=demo_sizer), line_list.headers)
     with open(tmp_path / "out.csv", encoding="utf-8-sig", newline="") as handle:
         out = list(csv.reader(handle))
     assert out[0][:len(header)] == header

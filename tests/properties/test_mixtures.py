@@ -16,6 +16,7 @@ from boresize.properties.components import SHORTHANDS, resolve_component
 from boresize.properties.composition import composition_text, parse_composition
 from boresize.properties.coolprop_mixture import CoolPropMixtureBackend, incompressible_spec
 from boresize.properties.phase import two_phase_screen
+from boresize.api import size_rows
 
 T0 = 273.15  # [K] at 0 degC (definition of the Celsius scale)
 
@@ -191,7 +192,7 @@ ROWS = [
 
 @pytest.fixture(scope="module")
 def batch(sizer: Any) -> dict[str, Any]:
-    results = sizer.run_rows([(row, {}) for row in ROWS])
+    results = size_rows([(row, {}) for row in ROWS], sizer=sizer)
     return {r.tag: r for r in results}
 
 
@@ -200,7 +201,7 @@ def test_mixed_line_list_sizes_the_good_lines_and_records_each_source(batch: dic
 
     expected = {"P-1": "coolprop", "G-1": "thermo", "L-1": "thermo", "F-1": "table", "B-1": "coolprop-mixture",
                 "P-2": "coolprop"}
-    table = render_table(list(batch.values()), sizer.config)
+    table = render_table(list(batch.values()), sizer.config.origin, sizer.config.version)
     for tag, source in expected.items():
         entry = result_to_dict(batch[tag])
         assert entry["status"] in ("pass", "fail"), entry.get("error")
@@ -256,7 +257,7 @@ def test_a_failed_flash_in_a_batch_names_line_backend_and_conditions(sizer: Any,
     monkeypatch.setattr(package, "flash", failing)
     rows = [dict(ROWS[0], tag="OK-1"), {"tag": "X-FAIL", "fluid": "propane:0.6, n-butane:0.4", "flow": "5 t/h",
                                         "pressure": "33 bar", "temperature": "31 degC"}, dict(ROWS[0], tag="OK-2")]
-    results = sizer.run_rows([(row, {}) for row in rows])
+    results = size_rows([(row, {}) for row in rows], sizer=sizer)
     assert [r.status for r in results][0] != "error" and results[2].status != "error"
     assert results[1].status == "error" and results[1].error_field == "fluid"
     assert results[1].error.startswith("line X-FAIL: thermo: flash failed for propane 0.6, butane 0.4 at 33 bar abs, "
@@ -280,7 +281,7 @@ def test_a_toml_line_list_gives_a_composition_as_a_table_or_a_list(sizer: Any) -
                          {"tag": "T-2", "fluid": [["propane", 0.6], ["n-butane", 0.4]], **common},
                          {"tag": "T-3", "fluid": [{"name": "propane", "fraction": 0.6},
                                                   {"name": "n-butane", "fraction": 0.4}], **common}]}
-    results = sizer.run_rows(lines_from_document(document).pairs())
+    results = size_rows(lines_from_document(document).pairs(), sizer=sizer)
     densities = {r.state.density for r in results}
     assert [r.status for r in results] == ["pass"] * 3 and len(densities) == 1
     assert results[0].state.source == "thermo"
@@ -323,7 +324,7 @@ def test_water_and_liquid_hydrocarbons_are_refused_not_averaged(sizer):
         ({"tag": "LL-2", "fluid": "water:0.7, methanol:0.3", "flow": "10 t/h", "pressure": "3 barg",
           "temperature": "25 degC", "service": "liquid"}, {}),
     ]
-    hexane, methanol = sizer.run_rows(rows)
+    hexane, methanol = size_rows(rows, sizer=sizer)
     assert hexane.status == "error" and hexane.error_field == "fluid"
     assert "form two liquid phases" in hexane.error
     assert "sized as separate streams" in hexane.error

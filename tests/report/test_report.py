@@ -14,13 +14,10 @@ from pathlib import Path
 
 import pytest
 
-from boresize.sizing.batch import run_batch
-from boresize.sizing.engine import Sizer
-from boresize.io import read_line_list
+from boresize.api import run_lines
 from boresize.io.csv_reader import parse_csv_text
 from boresize.report.html import render_html
 from boresize.report.plot import DROP_COLOUR, VELOCITY_COLOUR
-from boresize.report.trace import traceability
 
 DEMO = Path(__file__).resolve().parents[2] / "examples" / "demo-unit"
 CHROMIUM = Path("/usr/bin/chromium")
@@ -83,27 +80,25 @@ def _parse(html: str) -> _Parsed:
 
 
 @pytest.fixture(scope="module")
-def demo(host) -> tuple[str, list, object]:
-    sizer = Sizer(host, criteria_file=DEMO / "criteria.toml")
-    line_list = read_line_list(DEMO / "lines.csv")
-    results = run_batch(line_list.pairs(), sizer=sizer)
-    trace = traceability(sizer, lines_source=line_list.source, lines_digest=line_list.digest)
-    html = render_html(results, trace=trace, title="demo", headers=line_list.headers, units=line_list.units)
-    return html, results, trace
+def demo() -> tuple[str, list, object]:
+    run = run_lines(DEMO / "lines.csv", DEMO / "criteria.toml", plugins=False)
+    trace = run.trace.to_dict()
+    html = render_html(run.results, trace=trace, title="demo", headers=run.line_list.headers,
+                       units=run.line_list.units)
+    return html, list(run.results), trace
 
 
-def _hostile_report(host, title: str = '<b>"demo"</b>') -> str:
+def _hostile_report(title: str = '<b>"demo"</b>') -> str:
     text = (f"tag,fluid,flow,pressure,temperature,case\n\"{HOSTILE_TAG.replace(chr(34), chr(34) * 2)}\",water,"
             f"20 t/h,5 barg,20 degC,<img src=x onerror=alert(1)>\n")
-    sizer = Sizer(host)
-    line_list = parse_csv_text(text)
-    results = run_batch(line_list.pairs(), sizer=sizer)
-    return render_html(results, trace=traceability(sizer, lines_source="<i>x</i>"), title=title,
-                       headers=line_list.headers, units=line_list.units)
+    line_list = parse_csv_text(text, "<i>x</i>")
+    run = run_lines(line_list, plugins=False)
+    return render_html(run.results, trace=run.trace.to_dict(), title=title, headers=line_list.headers,
+                       units=line_list.units)
 
 
 def test_user_strings_are_text_not_markup(host):
-    html = _hostile_report(host)
+    html = _hostile_report()
     parsed = _parse(html)
     assert "script" not in parsed.tags and "img" not in parsed.tags and "b" not in parsed.tags
     assert "i" not in parsed.tags
@@ -149,7 +144,7 @@ def test_report_renders_in_headless_chromium_with_the_plot_visible(host, tmp_pat
     from matplotlib.image import imread
 
     page = tmp_path / "report.html"
-    page.write_text(_hostile_report(host), encoding="utf-8")
+    page.write_text(_hostile_report(), encoding="utf-8")
     shot = tmp_path / "shot.png"
     flags = [*FLAGS, f"--user-data-dir={tmp_path / 'profile'}"]
     subprocess.run([str(CHROMIUM), *flags, "--window-size=1280,1400", f"--screenshot={shot}", page.as_uri()],

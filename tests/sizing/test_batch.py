@@ -17,11 +17,13 @@ import pytest
 from fluids.friction import friction_factor
 from fluids.piping import nearest_pipe
 
-from boresize.sizing.batch import SizerSpec, run_batch, spec_for, summary
+from boresize.io.line_items import line_items
+from boresize.sizing.batch import SizerSpec, run_items, spec_for, summary
 from boresize.sizing.engine import Sizer
 from boresize.errors import InputError
 from boresize.io import read_line_list
 from boresize.io.csv_reader import parse_csv_text
+from boresize.api import size_rows
 
 DEMO = Path(__file__).resolve().parents[2] / "examples" / "demo-unit"
 # A service with maximum limits only (values common practice): a larger pipe never fails it, so the
@@ -74,7 +76,7 @@ def _case_csv(tag: str = "P-1") -> str:
 
 
 def test_a_line_with_cases_takes_the_smallest_size_every_case_passes(water_sizer):
-    result = water_sizer.run_rows(_rows(_case_csv()))[0]
+    result = size_rows(_rows(_case_csv()), sizer=water_sizer)[0]
     flows = {name: float(flow.split()[0]) / 3.6 for name, (flow, _) in CASES.items()}  # t/h -> kg/s
     temps = {name: float(temp.split()[0]) for name, (_, temp) in CASES.items()}
     expected = max(_needed(flows[n], temps[n]) for n in CASES)
@@ -93,7 +95,7 @@ def test_a_line_with_cases_takes_the_smallest_size_every_case_passes(water_sizer
 def test_rows_without_a_case_column_stay_one_line_each(water_sizer):
     text = ("tag,fluid,flow,pressure,temperature,service\nA,water,40 t/h,5 barg,20 degC,water\n"
             "B,water,75 t/h,5 barg,20 degC,water\n")
-    results = water_sizer.run_rows(_rows(text))
+    results = size_rows(_rows(text), sizer=water_sizer)
     assert [r.tag for r in results] == ["A", "B"]
     assert [r.cases for r in results] == [(), ()]
     assert results[0].selected.candidate.nps_value == _needed(40 / 3.6, 20.0)
@@ -103,7 +105,7 @@ def test_rows_without_a_case_column_stay_one_line_each(water_sizer):
 def test_cases_apart_in_the_list_join_their_line_at_its_first_row(water_sizer):
     text = ("tag,fluid,flow,pressure,temperature,service,case\nA,water,40 t/h,5 barg,20 degC,water,normal\n"
             "B,water,10 t/h,5 barg,20 degC,water,\nA,water,75 t/h,5 barg,20 degC,water,maximum\n")
-    results = water_sizer.run_rows(_rows(text))
+    results = size_rows(_rows(text), sizer=water_sizer)
     assert [(r.tag, len(r.cases)) for r in results] == [("A", 2), ("B", 0)]
     assert results[0].selected.candidate.nps_value == _needed(75 / 3.6, 20.0)
 
@@ -113,7 +115,7 @@ def test_cases_apart_in_the_list_join_their_line_at_its_first_row(water_sizer):
     ("P-1,water,10 t/h,5 barg,20 degC,water,normal", r"^line P-1: case: case 'normal' appears 2 times"),
 ])
 def test_a_bad_case_makes_the_line_an_error_naming_the_case(water_sizer, extra_row, message):
-    result = water_sizer.run_rows(_rows(_case_csv() + extra_row + "\n"))[0]
+    result = size_rows(_rows(_case_csv() + extra_row + "\n"), sizer=water_sizer)[0]
     assert result.status == "error"
     assert len(result.cases) == 4
     assert re.search(message, result.error), result.error
@@ -122,11 +124,11 @@ def test_a_bad_case_makes_the_line_an_error_naming_the_case(water_sizer, extra_r
 def test_workers_give_the_same_results_in_input_order(host):
     line_list = read_line_list(DEMO / "lines.csv")
     spec = spec_for(DEMO / "criteria.toml", False, None)
-    alone = run_batch(line_list.pairs(), sizer=Sizer(host, criteria_file=DEMO / "criteria.toml"))
-    parallel = run_batch(line_list.pairs(), spec, workers=2, chunk_size=1)
+    alone = run_items(_items(line_list.pairs()), sizer=Sizer(host, criteria_file=DEMO / "criteria.toml"))
+    parallel = run_items(_items(line_list.pairs()), spec, workers=2, chunk_size=1)
     threads = ThreadPoolExecutor(2)
     try:
-        pooled = run_batch(line_list.pairs(), spec, executor=threads)
+        pooled = run_items(_items(line_list.pairs()), spec, executor=threads)
     finally:
         threads.shutdown()
     def key(results):
@@ -138,7 +140,7 @@ def test_workers_give_the_same_results_in_input_order(host):
 def test_a_bad_line_on_a_worker_stays_on_that_line(tmp_path):
     text = ("tag,fluid,flow,pressure,temperature\nA,water,10 t/h,3 barg,20 degC\nB,water,10 bar,3 barg,20 degC\n"
             "C,unobtainium,1 t/h,3 barg,20 degC\nD,water,12 t/h,3 barg,20 degC\n")
-    results = run_batch(_rows(text), SizerSpec(load_entry_points=False), workers=2, chunk_size=1)
+    results = run_items(_items(_rows(text)), SizerSpec(load_entry_points=False), workers=2, chunk_size=1)
     assert [r.status for r in results] == ["pass", "error", "error", "pass"]
     assert results[1].error.startswith("line B: flow: ")
     assert results[2].error_field == "fluid"
@@ -147,18 +149,18 @@ def test_a_bad_line_on_a_worker_stays_on_that_line(tmp_path):
 
 def test_progress_bar_when_asked_for(water_sizer):
     stream = io.StringIO()
-    run_batch(_rows(_case_csv("P-1") + "Q,water,5 t/h,5 barg,20 degC,water,\n"), sizer=water_sizer, progress=True,
+    run_items(_items(_rows(_case_csv("P-1") + "Q,water,5 t/h,5 barg,20 degC,water,\n")), sizer=water_sizer, progress=True,
               progress_stream=stream)
     assert "2/2" in stream.getvalue() and "lines" in stream.getvalue()
     quiet = io.StringIO()
-    run_batch(_rows(_case_csv()), sizer=water_sizer, progress=None, progress_stream=quiet)
+    run_items(_items(_rows(_case_csv())), sizer=water_sizer, progress=None, progress_stream=quiet)
     assert quiet.getvalue() == ""  # not a terminal, not asked for
 
 
 def test_a_parallel_run_needs_a_spec_not_a_sizer(water_sizer):
     with pytest.raises(InputError, match=r"spec: a parallel run cannot send a Sizer to its workers; expected a "
                                          r"SizerSpec"):
-        run_batch(_rows(_case_csv()), sizer=water_sizer, workers=2)
+        run_items(_items(_rows(_case_csv())), sizer=water_sizer, workers=2)
 
 
 def test_check_mode_with_corroded_roughness_and_a_given_schedule(host, water_sizer):
@@ -166,7 +168,7 @@ def test_check_mode_with_corroded_roughness_and_a_given_schedule(host, water_siz
     sizer = Sizer(host, config=water_sizer.config, check_roughness=0.5e-3)
     text = ("tag,fluid,flow,pressure,temperature,service,nps,schedule\n"
             "E-1,water,60 t/h,5 barg,20 degC,water,4,80\nN-1,water,60 t/h,5 barg,20 degC,water,,\n")
-    checked, sized = sizer.run_rows(_rows(text))
+    checked, sized = size_rows(_rows(text), sizer=sizer)
     rho, mu = _water(20.0)
     di = nearest_pipe(NPS=4, schedule="80")[1]
     v = 60 / 3.6 / rho / (math.pi * di**2 / 4)
@@ -176,3 +178,8 @@ def test_check_mode_with_corroded_roughness_and_a_given_schedule(host, water_siz
     assert checked.selected.hydraulics.drop_per_length == pytest.approx(dp, rel=1e-6)
     assert "checked with corroded roughness 0.5 mm" in checked.notes
     assert sized.mode == "size" and sized.line.roughness is None  # sizing keeps the class's roughness
+
+
+def _items(pairs):  # type: ignore[no-untyped-def]
+    """The lines of (row, units) pairs, read as the run reads them."""
+    return line_items(pairs).items

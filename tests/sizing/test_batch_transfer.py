@@ -14,15 +14,14 @@ import gc
 import os
 import pickle
 import sys
-import tempfile
-import time
 from collections.abc import Sequence
 from pathlib import Path
 
 import pytest
 
 from boresize.sizing import batch
-from boresize.sizing.batch import SizerSpec, run_batch, run_chunks, spec_for
+from boresize.io.line_items import line_items
+from boresize.sizing.batch import SizerSpec, run_items, run_chunks, spec_for
 from boresize.sizing.engine import Sizer
 from boresize.io import read_line_list
 from boresize.model import LineResult
@@ -44,7 +43,7 @@ def pairs() -> list:  # type: ignore[type-arg]
 @pytest.fixture(scope="module")
 def reference(spec: SizerSpec, pairs: list) -> list[LineResult]:  # type: ignore[type-arg]
     """The demo lines sized in this process, one sizer built from ``spec``."""
-    return run_batch(pairs, sizer=spec.build())
+    return run_items(_items(pairs), sizer=spec.build())
 
 
 def test_the_demo_lines_give_every_kind_of_result(reference: list[LineResult]) -> None:
@@ -66,7 +65,7 @@ def test_results_from_workers_equal_the_results_sized_here(spec: SizerSpec, pair
                                                             reference: list[LineResult],
                                                             chunk_size: int | None) -> None:
     # As the CLI runs --workers 2: the parent builds its sizer from the spec and passes both.
-    parallel = run_batch(pairs, spec, sizer=spec.build(), workers=2, chunk_size=chunk_size)
+    parallel = run_items(_items(pairs), spec, sizer=spec.build(), workers=2, chunk_size=chunk_size)
     assert [r.tag for r in parallel] == [r.tag for r in reference]
     assert parallel == reference
 
@@ -75,14 +74,13 @@ def test_results_from_workers_equal_the_results_sized_here(spec: SizerSpec, pair
 def test_forked_workers_keep_the_parent_sizer(spec: SizerSpec, pairs: list,  # type: ignore[type-arg]
                                               reference: list[LineResult],
                                               monkeypatch: pytest.MonkeyPatch) -> None:
-    sizer = spec.build()
+    sizer = batch.shared_sizer(spec)  # this process's sizer for the spec, as run_lines() takes it
 
     def no_second_build(self: SizerSpec) -> Sizer:
         raise AssertionError("a worker built its own sizer")
 
     monkeypatch.setattr(SizerSpec, "build", no_second_build)  # the forked workers inherit the patch
-    assert run_batch(pairs, spec, sizer=sizer, workers=2, chunk_size=3) == reference
-    assert batch._SIZERS.get(spec) is not sizer  # this process's cache is left as it was
+    assert run_items(_items(pairs), spec, sizer=sizer, workers=2, chunk_size=3) == reference
 
 
 def _collector_state(spec: SizerSpec, chunk: Sequence[int]) -> list[bool]:
@@ -93,7 +91,7 @@ def _collector_state(spec: SizerSpec, chunk: Sequence[int]) -> list[bool]:
 @FORK_ONLY
 def test_workers_forked_while_the_parent_waits_collect_garbage(spec: SizerSpec) -> None:
     states = run_chunks(_collector_state, spec, [[1], [2], [3]], executor=None, workers=2,  # type: ignore[arg-type]
-                        retry_hint="--workers 1", sizer=spec.build())
+                        retry_hint="--workers 1")
     assert states == [True, True, True]
 
 
@@ -104,7 +102,7 @@ def test_the_collector_is_restored_after_a_run(spec: SizerSpec, pairs: list,  # 
     was = gc.isenabled()
     (gc.enable if enabled else gc.disable)()
     try:
-        run_batch(pairs[:3], spec, sizer=spec.build(), workers=workers)
+        run_items(_items(pairs[:3]), spec, sizer=spec.build(), workers=workers)
         assert gc.isenabled() is enabled
         assert gc.get_freeze_count() == 0
     finally:
@@ -117,7 +115,7 @@ def test_objects_the_caller_froze_stay_frozen(spec: SizerSpec, pairs: list,  # t
     gc.freeze()
     try:
         frozen = gc.get_freeze_count()
-        run_batch(pairs[:3], spec, sizer=spec.build(), workers=workers)
+        run_items(_items(pairs[:3]), spec, sizer=spec.build(), workers=workers)
         assert 0 < gc.get_freeze_count() <= frozen  # none unfrozen (a few may be freed), none added
         assert gc.isenabled()
     finally:
@@ -129,27 +127,13 @@ def _whose(spec: SizerSpec, chunk: Sequence[int]) -> list[tuple[int, int]]:
     return [(item, os.getpid()) for item in chunk]
 
 
-@FORK_ONLY
-def test_this_process_takes_chunks_from_the_end_while_the_worker_takes_them_from_the_start(
-        spec: SizerSpec, tmp_path: Path, monkeypatch: pytest.MonkeyPatch) -> None:
-    monkeypatch.setattr(tempfile, "tempdir", str(tmp_path))  # where the workers' result files go
-
-    def here(chunk: Sequence[int]) -> list[tuple[int, int]]:
-        time.sleep(0.01)  # slow enough here for the started worker to take its first chunks
-        return [(item, os.getpid()) for item in chunk]
-
+def test_chunks_come_back_in_input_order_from_the_workers(spec: SizerSpec) -> None:
     chunks = [[2 * i, 2 * i + 1] for i in range(30)]
-    done = run_chunks(_whose, spec, chunks, executor=None, workers=2, retry_hint="--workers 1",  # type: ignore[arg-type]
-                      sizer=spec.build(), local=here)  # type: ignore[arg-type]
+    done = run_chunks(_whose, spec, chunks, executor=None, workers=2, retry_hint="--workers 1")  # type: ignore[arg-type]
     assert [item for item, _ in done] == list(range(60))  # in input order, each item once
-    owners = [pid for _, pid in done]
-    here_at = [i for i, pid in enumerate(owners) if pid == os.getpid()]
-    assert here_at and len(here_at) < 60  # both this process and the worker sized some
-    assert here_at == list(range(here_at[0], 60))  # this process took a run from the end
-    assert list(tmp_path.iterdir()) == []  # the workers' result files and their folder are gone
+    assert os.getpid() not in {pid for _, pid in done}  # the workers sized them all
 
 
-def test_with_one_process_nothing_is_started_and_all_is_done_here(spec: SizerSpec) -> None:
-    done = run_chunks(_whose, spec, [[1], [2]], executor=None, workers=1, retry_hint="--workers 1",  # type: ignore[arg-type]
-                      sizer=spec.build(), local=lambda chunk: _whose(spec, chunk))  # type: ignore[arg-type]
-    assert done == [(1, os.getpid()), (2, os.getpid())]
+def _items(pairs):  # type: ignore[no-untyped-def]
+    """The lines of (row, units) pairs, read as the run reads them."""
+    return line_items(pairs).items

@@ -11,6 +11,7 @@ from scipy.optimize import brentq
 
 from boresize.hydraulics import swamee_jain_diameter
 from boresize.io.rows import line_from_row
+from boresize.api import size_rows
 
 WATER = {"fluid": "water", "pressure": "5 barg", "temperature": "20 degC", "length": "100 m"}
 # Water at 20 degC, 6.01325 bar abs from CoolProp (IAPWS-95), used to build independent expectations.
@@ -144,7 +145,7 @@ def test_bad_input_is_an_error_naming_the_field_and_the_batch_goes_on(sizer, cel
     good_before = (_row("OK-1", flow="20 t/h"), {})
     bad = (_row("BAD-1", flow="20 t/h") | cells, {})
     good_after = (_row("OK-2", flow="30 t/h"), {})
-    results = sizer.run_rows([good_before, bad, good_after])
+    results = size_rows([good_before, bad, good_after], sizer=sizer)
     assert [r.tag for r in results] == ["OK-1", "BAD-1", "OK-2"]
     assert results[0].status == "pass" and results[2].status == "pass"
     assert results[1].status == "error"

@@ -1,6 +1,9 @@
-"""The Python API: build lines, size or check them one or many at a time, and read results.
+"""The Python API: build lines, size or check them one or many at a time, run a whole line list, read results.
 
-See :mod:`boresize.api.calls` for the calls and :mod:`boresize.api.result` for :class:`SizingResult`.
+See :mod:`boresize.api.calls` for the calls on lines, :mod:`boresize.api.run` for a run of a line list
+(:func:`run_lines` and the :class:`Run` that writes itself), :mod:`boresize.api.result` for
+:class:`SizingResult`, :mod:`boresize.api.output` for the output formats and :mod:`boresize.api.tools` for
+the listings and the comparison of two revisions.
 """
 
 from boresize.api.calls import (
@@ -13,7 +16,11 @@ from boresize.api.calls import (
     size,
     size_many,
 )
+from boresize.api.output import OUTPUT_SUFFIXES, check_output
 from boresize.api.result import RatedResult, SizingResult
+from boresize.api.run import Run, read_lines, roughness_value, run_lines, size_dataframe, size_rows
+from boresize.io.csv_reader import LineList
 
-__all__ = ["PROCESS_THRESHOLD", "SI_UNITS", "RatedResult", "SizingResult", "check", "default_sizer", "make_line",
-           "quantity_text", "size", "size_many"]
+__all__ = ["OUTPUT_SUFFIXES", "PROCESS_THRESHOLD", "SI_UNITS", "LineList", "RatedResult", "Run", "SizingResult",
+           "check", "check_output", "default_sizer", "make_line", "quantity_text", "read_lines", "roughness_value",
+           "run_lines", "size", "size_dataframe", "size_many", "size_rows"]

@@ -15,10 +15,8 @@ be sized in a batch becomes a result with status ``error`` and the batch goes on
 
 from __future__ import annotations
 
-import math
 import numbers
 import os
-import re
 from collections.abc import Iterable, Mapping, Sequence
 from concurrent.futures import Executor
 from dataclasses import replace
@@ -26,9 +24,10 @@ from pathlib import Path
 from typing import TYPE_CHECKING, Union
 
 from boresize.api.result import SizingResult
-from boresize.sizing.batch import SizerSpec, run_chunks, shared_sizer, spec_for
+from boresize.io.values import number_text, quantity_text
+from boresize.sizing.batch import SizerSpec, run_items, shared_sizer, size_item, spec_for
 from boresize.errors import InputError, UnitError
-from boresize.model import Line, LineResult
+from boresize.model import Line
 
 if TYPE_CHECKING:
     import pint
@@ -48,8 +47,7 @@ SI_UNITS: dict[str, str] = {
 }
 Value = Union[str, float, int, "pint.Quantity[float]", None]
 Item = Union[Line, Sequence[Line]]
-_OFFSET_NAMES = {"delta_degree_Celsius": "delta_degC", "delta_degree_Fahrenheit": "delta_degF",
-                 "degree_Celsius": "degC", "degree_Fahrenheit": "degF", "degree_Rankine": "degR"}
+
 
 
 # -- building a line ---------------------------------------------------------------------------
@@ -95,7 +93,7 @@ def _cell(name: str, value: object, units: Mapping[str, str], si: bool, tag: str
 
         return composition_text(value), None
     if name == "fittings" and isinstance(value, Mapping):
-        return "; ".join(f"{kind}: {_number_text(count, name, tag)}" for kind, count in value.items()), None
+        return "; ".join(f"{kind}: {number_text(count, name, tag)}" for kind, count in value.items()), None
     if hasattr(value, "magnitude") and hasattr(value, "units"):
         return quantity_text(value, name, tag), None
     if isinstance(value, bool) or not isinstance(value, (str, numbers.Real)):
@@ -109,7 +107,7 @@ def _cell(name: str, value: object, units: Mapping[str, str], si: bool, tag: str
         raise UnitError(f"bare number {value!r} has no unit", field=name, value=value, tag=str(tag),
                         expected=f"text with its unit, a pint Quantity, units={{'{name}': ...}}, or si=True "
                         f"for {SI_UNITS[name]}")
-    return _number_text(value, name, tag), unit
+    return number_text(value, name, tag), unit
 
 
 def _check_units_keys(units: Mapping[str, str], tag: str) -> None:
@@ -117,33 +115,6 @@ def _check_units_keys(units: Mapping[str, str], tag: str) -> None:
     if unknown:
         raise InputError(f"units given for {', '.join(map(repr, unknown))}, which take no unit", field="units",
                          value=dict(units), expected=f"units for {', '.join(SI_UNITS)}", tag=str(tag))
-
-
-def _number_text(value: object, field: str, tag: str) -> str:
-    """A real number as exact text ("65", "0.1"); numpy scalars too."""
-    if isinstance(value, bool) or not isinstance(value, numbers.Real):
-        raise InputError(f"{value!r} is not a number", field=field, value=value, expected="a real number",
-                         tag=str(tag))
-    if isinstance(value, numbers.Integral):
-        return str(int(value))
-    number = float(value)
-    if not math.isfinite(number):
-        raise InputError(f"{value!r} is not a finite number", field=field, value=value, expected="a finite number",
-                         tag=str(tag))
-    return repr(number)
-
-
-def quantity_text(quantity: object, field: str, tag: str = "(untagged)") -> str:
-    """A pint Quantity of any registry as line-list text: "65.0 metric_ton/hour", "20.0 degC".
-
-    Only the magnitude and the unit's name cross over, so boresize's registry never meets the caller's.
-    :raises InputError: a magnitude that is not one real number (an array, a string)
-    """
-    magnitude = getattr(quantity, "magnitude")
-    unit = format(getattr(quantity, "units"), "C")
-    unit = re.sub(r"[A-Za-z_]+", lambda m: _OFFSET_NAMES.get(m.group(0), m.group(0)), unit)
-    number = _number_text(magnitude, field, tag)
-    return number if unit in ("", "dimensionless") else f"{number} {unit}"
 
 
 # -- one line ----------------------------------------------------------------------------------
@@ -162,9 +133,9 @@ def size(line: Item, *, criteria: str | Path | None = None, plugins: bool = True
     if sizer is not None and criteria is not None:
         raise InputError("both a sizer and a criteria file given", field="criteria", value=str(criteria),
                          expected="one of them: a Sizer already holds its criteria")
-    item = _item(line, 1)
+    item = checked_item(line, 1)
     engine = sizer or default_sizer(spec_for(criteria, plugins, None))
-    return SizingResult.of(_run_item(engine, item))
+    return SizingResult.of(size_item(engine, item))
 
 
 def check(line: Item, nps: str | float | None = None, *, schedule: str | int | None = None,
@@ -175,7 +146,7 @@ def check(line: Item, nps: str | float | None = None, *, schedule: str | int | N
     """
     from boresize.pipes import normalise_nps, normalise_schedule
 
-    item = _item(line, 1)
+    item = checked_item(line, 1)
     lines = [item] if isinstance(item, Line) else list(item)
     given = normalise_nps(nps) if nps is not None else lines[0].nps
     if given is None:
@@ -191,7 +162,7 @@ def default_sizer(spec: SizerSpec) -> Sizer:
     return shared_sizer(spec)
 
 
-def _item(value: object, position: int) -> Item:
+def checked_item(value: object, position: int) -> Item:
     """A Line, or a non-empty list of Lines sharing one tag (one line's cases)."""
     if isinstance(value, Line):
         return value
@@ -207,10 +178,6 @@ def _item(value: object, position: int) -> Item:
                      "list of one line's cases")
 
 
-def _run_item(sizer: Sizer, item: Item) -> LineResult:
-    return sizer.run_safely(item) if isinstance(item, Line) else sizer.run_cases(list(item))
-
-
 # -- many lines --------------------------------------------------------------------------------
 def size_many(lines: Iterable[Item], executor: Executor | None = None, *, workers: int | None = None,
               criteria: str | Path | None = None, plugins: bool = True,
@@ -221,13 +188,13 @@ def size_many(lines: Iterable[Item], executor: Executor | None = None, *, worker
     :param executor: any :class:`concurrent.futures.Executor` (a thread or process pool, a dask
         client's ``get_executor()``); it is not shut down here. Workers build their own sizer from
         ``criteria`` (give a path every worker can read) and ``plugins``.
-    :param workers: processes to size on when no executor is given, this one included (it starts
-        ``workers - 1``); default: one per CPU from :data:`PROCESS_THRESHOLD` lines, else 1 (this one)
+    :param workers: worker processes to size on when no executor is given (1: this process alone); default:
+        one per CPU from :data:`PROCESS_THRESHOLD` lines, else 1
     :param chunk_size: lines per task (default: about eight tasks per worker, 1 to 64 lines each)
     :raises InputError: an item that is not a line, an executor that is not one, workers below 1
     :raises BoresizeError: a worker process died
     """
-    items = [_item(value, i) for i, value in enumerate(lines, start=1)]
+    items = [checked_item(value, i) for i, value in enumerate(lines, start=1)]
     spec = spec_for(criteria, plugins, None)
     if executor is not None and not isinstance(executor, Executor):
         raise InputError(f"a {type(executor).__name__} is not an executor", field="executor",
@@ -236,25 +203,6 @@ def size_many(lines: Iterable[Item], executor: Executor | None = None, *, worker
         raise InputError(f"workers {workers!r} is not a whole number of 1 or more", field="workers", value=workers,
                          expected="1 or more worker processes, or None")
     count = workers or ((os.cpu_count() or 1) if len(items) >= PROCESS_THRESHOLD else 1)
-    if executor is None and (count == 1 or len(items) < 2):
-        sizer = default_sizer(spec)
-        return [SizingResult.of(_run_item(sizer, item)) for item in items]
-    return [SizingResult.of(r) for r in _run_parallel(items, spec, executor, count, chunk_size)]
-
-
-def _run_chunk(spec: SizerSpec, chunk: Sequence[Item]) -> list[LineResult]:
-    """A worker's task: size a chunk of items with the worker's own sizer (plain LineResults travel back)."""
-    sizer = default_sizer(spec)
-    return [_run_item(sizer, item) for item in chunk]
-
-
-def _run_parallel(items: list[Item], spec: SizerSpec, executor: Executor | None, workers: int,
-                  chunk_size: int | None) -> list[LineResult]:
-    head: list[LineResult] = []
-    if executor is None:  # size one line here first: forked workers inherit the property libraries it loaded
-        head = _run_chunk(spec, items[:1])
-        items = items[1:]
-    size = chunk_size or max(1, min(64, math.ceil(len(items) / (max(workers, 4) * 8))))
-    chunks = [items[i:i + size] for i in range(0, len(items), size)]
-    return head + run_chunks(_run_chunk, spec, chunks, executor=executor, workers=workers, retry_hint="workers=1",
-                             local=lambda chunk: _run_chunk(spec, chunk))
+    results = run_items(items, spec, sizer=default_sizer(spec), executor=executor, workers=count,
+                        chunk_size=chunk_size, progress=False, retry_hint="workers=1")
+    return [SizingResult.of(r) for r in results]

@@ -8,32 +8,18 @@ printed as one message; anything else is reported as an internal error with a re
 from __future__ import annotations
 
 import argparse
-import json
 import os
 import sys
 from collections.abc import Sequence
 
 from boresize import __version__
-from boresize.cli.commands import UsageError
-from boresize.errors import BoresizeError
+from boresize.cli.fields import SINGLE_LINE_FIELDS
+from boresize.errors import BoresizeError, UsageError
 
 __all__ = ["main", "build_parser"]
 
 CAUTION_SHORT = ("Screening calculations: check them against the applicable codes and your company's standards "
                  "(a competent engineer must review them; local codes govern).")
-
-SINGLE_LINE_FIELDS = (
-    ("tag", "line tag (default: LINE-1)"), ("fluid", "fluid name, CoolProp name or CAS number"),
-    ("flow", "flow with its unit: '65 t/h', '120 m3/h', '2 MMSCFD'"),
-    ("pressure", "inlet pressure: '10 barg', '1100 kPa' (bare bar, kPa, psi are absolute)"),
-    ("temperature", "temperature: '40 degC', '313 K', '100 degF'"), ("length", "straight length: '120 m'"),
-    ("service", "criteria set (see 'boresize criteria')"), ("pipe-class", "pipe class (see 'boresize pipes')"),
-    ("nps", "check this NPS instead of sizing"), ("density", "given density: '850 kg/m3'"),
-    ("viscosity", "given viscosity: '1.2 cP'"), ("design-margin", "margin on flow: '10 %%'"),
-    ("phase", "liquid or gas: what the line must carry"), ("backend", "property backend id"),
-    ("schedule", "schedule of the NPS to check (default: the pipe class's)"),
-)
-
 
 def build_parser() -> argparse.ArgumentParser:
     parser = argparse.ArgumentParser(
@@ -45,8 +31,8 @@ def build_parser() -> argparse.ArgumentParser:
     sub = parser.add_subparsers(dest="command", metavar="COMMAND")
     size = sub.add_parser("size", help="size (or check) the lines of a line list, or one line from options",
                           epilog=CAUTION_SHORT)
-    size.add_argument("lines", nargs="?", help="line list: CSV, XLSX or TOML (omit to give one line with the "
-                                               "options below)")
+    size.add_argument("lines", nargs="?", help="line list: CSV, XLSX or TOML, or - for CSV on standard input "
+                                               "(omit to give one line with the options below)")
     size.add_argument("--criteria", metavar="FILE.toml", help="criteria sets and pipe classes to use")
     size.add_argument("--json", action="store_true", help="print one JSON document instead of the table")
     size.add_argument("--no-plugins", action="store_true", help="use only boresize's built-in plugins")
@@ -72,7 +58,7 @@ def _add_diff(diff: argparse.ArgumentParser) -> None:
     diff.add_argument("--criteria", metavar="FILE.toml", help="criteria for sizing a line list")
     diff.add_argument("--json", action="store_true", help="print the differences as one JSON document")
     diff.add_argument("--no-plugins", action="store_true", help="use only boresize's built-in plugins")
-    diff.add_argument("--workers", type=int, default=1, metavar="N", help="processes for sizing line lists (this one and N-1 started)")
+    diff.add_argument("--workers", type=int, default=1, metavar="N", help="worker processes for sizing line lists")
 
 
 def _add_run_options(size: argparse.ArgumentParser) -> None:
@@ -80,7 +66,7 @@ def _add_run_options(size: argparse.ArgumentParser) -> None:
                       help="write the results to FILE: .json, .csv, .xlsx (with a candidates sheet) or .html "
                            "(the calculation report); repeat for several")
     size.add_argument("--workers", type=int, default=1, metavar="N",
-                      help="size on N processes: this one and N-1 started for the run (default 1: this one)")
+                      help="size on N worker processes started for the run (default 1: in this process alone)")
     size.add_argument("--progress", action=argparse.BooleanOptionalAction, default=None,
                       help="show a progress bar on stderr (default: on a terminal, for 50 lines or more)")
     size.add_argument("--corroded-roughness", metavar="LENGTH",
@@ -116,14 +102,9 @@ def _dispatch(parser: argparse.ArgumentParser, argv: Sequence[str] | None) -> in
     if args.command is None:
         parser.print_help()
         return 2
-    from boresize.cli import commands
+    import boresize.cli.commands  # the API loads only when a command runs: --help and --version stay quick
 
-    return int(getattr(commands, f"run_{args.command}")(args))
-
-
-def print_json(payload: object) -> None:
-    json.dump(payload, sys.stdout, indent=2, ensure_ascii=False)
-    sys.stdout.write("\n")
+    return int(getattr(boresize.cli.commands, f"run_{args.command}")(args))
 
 
 if __name__ == "__main__":  # pragma: no cover

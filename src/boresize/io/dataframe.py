@@ -16,8 +16,6 @@ import math
 import numbers
 import re
 from collections.abc import Sequence
-from concurrent.futures import Executor
-from pathlib import Path
 from typing import TYPE_CHECKING
 
 from boresize.errors import InputError
@@ -29,7 +27,7 @@ from boresize.model import LineResult
 if TYPE_CHECKING:
     import pandas as pd
 
-__all__ = ["lines_dataframe", "read_dataframe", "results_dataframe", "size_dataframe"]
+__all__ = ["lines_dataframe", "read_dataframe", "results_dataframe"]
 
 _UNNAMED = re.compile(r"^Unnamed: \d+(_level_\d+)?$")  # what pandas names a blank header cell
 
@@ -109,7 +107,7 @@ def _text(value: object) -> str:
     if isinstance(value, str):
         return restore(value.strip()).strip()
     if hasattr(value, "magnitude") and hasattr(value, "units"):
-        from boresize.api import quantity_text
+        from boresize.io.values import quantity_text
 
         return quantity_text(value, "cell")
     if isinstance(value, bool):
@@ -152,20 +150,3 @@ def results_dataframe(results: Sequence[LineResult], headers: Sequence[str] | No
 
     head, rows = result_rows(results, headers)
     return pd.DataFrame(rows, columns=head)
-
-
-def size_dataframe(frame: pd.DataFrame, *, criteria: str | Path | None = None, plugins: bool = True,
-                   executor: Executor | None = None, workers: int = 1, units_row: bool | None = None) -> pd.DataFrame:
-    """Size (or check) every line of a DataFrame of streams; the results as :func:`results_dataframe`.
-
-    Rows are grouped into lines (operating cases) as a CSV line list's are; a bad row gives an
-    ``error`` row and the others go on. ``executor`` and ``workers`` as in :func:`boresize.api.size_many`.
-    """
-    from boresize.api import default_sizer
-    from boresize.sizing.batch import run_batch, spec_for
-
-    line_list = read_dataframe(frame, units_row=units_row)
-    spec = spec_for(criteria, plugins, None)
-    results = run_batch(line_list.pairs(), spec, sizer=default_sizer(spec), executor=executor, workers=workers,
-                        progress=False)
-    return results_dataframe(results, line_list.headers)

@@ -1,4 +1,4 @@
-"""Results as plain dictionaries: the JSON contract of DESIGN.md, plus the calculation record.
+"""Results as plain dictionaries: the JSON contract (README, "A short tour"), plus the calculation record.
 
 A line with several operating cases is one entry: the contract keys come from the governing case
 (named in ``case``), ``governing`` maps each criterion to the case that governs it, and ``cases``
@@ -47,7 +47,7 @@ def candidate_to_dict(c: CandidateResult) -> dict[str, Any]:
 
 
 def result_to_dict(result: LineResult) -> dict[str, Any]:
-    """One line's entry in the JSON document (keys of DESIGN.md's contract first)."""
+    """One line's entry in the JSON document (the contract's keys first)."""
     sel, state = result.selected, result.state
     h = sel.hydraulics if sel else None
     entry: dict[str, Any] = {

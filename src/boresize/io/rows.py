@@ -40,7 +40,7 @@ REQUIRED = ("tag", "fluid", "flow", "pressure", "temperature")
 #: Key under which a reader keeps a row's non-empty cells that no header names. Such a row is
 #: refused: a decimal comma or an unquoted separator shifts every cell after it into the wrong column.
 BEYOND_HEADER = "(beyond the header)"
-#: Key under which :func:`boresize.sizing.cases.group_rows` marks a row whose tag an earlier line already has
+#: Key under which :func:`boresize.io.line_items.group_rows` marks a row whose tag an earlier line already has
 #: (same tag, no case or a different line); its value names that earlier row.
 DUPLICATE_TAG = "(tag given before)"
 DEFAULT_LENGTH_M = 100.0

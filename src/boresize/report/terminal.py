@@ -4,7 +4,6 @@ from __future__ import annotations
 
 from collections.abc import Sequence
 
-from boresize.sizing.services import SizingConfig
 from boresize.io.document import CAUTION
 from boresize.model import LineResult
 
@@ -28,7 +27,8 @@ def _row(r: LineResult) -> tuple[str, ...]:
             f"{state.density:.4g}", f"{state.viscosity * 1e3:.3g}", controlling, state.source)
 
 
-def render_table(results: Sequence[LineResult], config: SizingConfig) -> str:
+def render_table(results: Sequence[LineResult], criteria_source: str, criteria_set: str) -> str:
+    """The table, the summary naming the criteria file and set, failures, errors and notes, the caution."""
     rows = [COLUMNS] + [_row(r) for r in results]
     widths = [max(len(row[i]) for row in rows) for i in range(len(COLUMNS))]
     out = ["  ".join(cell.ljust(w) for cell, w in zip(row, widths)).rstrip() for row in rows]
@@ -36,7 +36,7 @@ def render_table(results: Sequence[LineResult], config: SizingConfig) -> str:
     counts = {s: sum(1 for r in results if r.status == s) for s in ("pass", "fail", "error")}
     out.append("")
     out.append(f"{len(results)} lines: {counts['pass']} pass, {counts['fail']} fail, {counts['error']} error   "
-               f"(criteria: {config.origin}, set {config.version})")
+               f"(criteria: {criteria_source}, set {criteria_set})")
     details = [r for r in results if r.status != "pass" or r.notes]
     for r in details:
         if r.error:

@@ -1,11 +1,12 @@
-"""Running a whole line list: in this process, or on worker processes, with a progress bar.
+"""Running many lines: in this process, or on worker processes, with a progress bar. The one batch runner
+of the API's calls (:func:`boresize.api.run_lines`, :func:`boresize.api.size_many`, the DataFrame path).
 
 The plugin manager cannot be pickled, so a worker never receives a :class:`~boresize.sizing.engine.Sizer`:
-it builds its own from a :class:`SizerSpec` (criteria file path, whether to load entry points,
-corroded roughness) once, in the executor's initializer, or, forked from a parent that passes the
-sizer it built from that spec, keeps the parent's. The parent sends the rows of whole lines in
-chunks. Results come back in input order whatever order the chunks finish in. A line's fault
-stays on that line (an ``error`` result); only a worker process that dies stops the batch.
+it takes its sizer for a :class:`SizerSpec` (criteria file and its content digest, whether to load entry
+points, corroded roughness) from :func:`shared_sizer`, once, in the executor's initializer: a worker forked
+from a parent that holds a sizer for that spec finds the parent's there, any other builds its own. The
+parent sends whole lines (:data:`Item`) in chunks. Results come back in input order whatever order the chunks finish in. A line's fault stays on
+that line (an ``error`` result); only a worker process that dies stops the batch.
 
 Any :class:`concurrent.futures.Executor` can be passed (a thread pool, a cluster's executor): the
 task builds the worker's sizer on first use when no initializer did.
@@ -14,31 +15,33 @@ task builds the worker's sizer on first use when no initializer did.
 from __future__ import annotations
 
 import gc
+import hashlib
 import math
 import multiprocessing
-import os
-import pickle
-import tempfile
 import sys
 import threading
-from collections.abc import Callable, Iterable, Iterator, Mapping, Sequence, Sized
-from concurrent.futures import Executor, Future, ProcessPoolExecutor, as_completed
+from collections.abc import Callable, Iterator, Sequence, Sized
+from concurrent.futures import Executor, ProcessPoolExecutor, as_completed
 from concurrent.futures.process import BrokenProcessPool
 from contextlib import AbstractContextManager, contextmanager, nullcontext
-from dataclasses import dataclass
+from dataclasses import dataclass, field
 from pathlib import Path
-from typing import Any, TextIO
+from typing import Any, TextIO, Union
 
-from boresize.sizing.cases import Row, group_rows
-from boresize.sizing.engine import Sizer
 from boresize.errors import BoresizeError, InputError
-from boresize.model import LineResult
+from boresize.io.line_items import RowFault
+from boresize.model import Line, LineResult
+from boresize.sizing import cases as _cases
+from boresize.sizing.engine import Sizer
+from boresize.sizing.selection import error_result
 
-__all__ = ["PROGRESS_THRESHOLD", "SizerSpec", "process_pool", "run_batch", "run_chunks", "shared_sizer", "spec_for",
-           "summary"]
+__all__ = ["PROGRESS_THRESHOLD", "Item", "SizerSpec", "process_pool", "run_items", "run_chunks", "shared_sizer",
+           "size_item", "spec_for", "summary"]
 
 #: A run of at least this many lines shows a progress bar on a terminal without being asked [lines].
 PROGRESS_THRESHOLD = 50
+#: One line to size: a Line, a row the reader could not read, or one line's cases (Lines or faults).
+Item = Union[Line, RowFault, Sequence[Union[Line, RowFault]]]
 _SIZERS: dict[SizerSpec, Sizer] = {}
 _SIZERS_LOCK = threading.Lock()
 
@@ -47,39 +50,88 @@ _SIZERS_LOCK = threading.Lock()
 class SizerSpec:
     """Everything a worker needs to build the same :class:`Sizer` as the parent (picklable).
 
+    Two specs are equal only when the criteria file's bytes are (``criteria_digest``): a sizer built for
+    a file is never used after the file is edited.
+
     :param criteria_file: path of the criteria TOML, or None for the shipped sets
     :param load_entry_points: False to use only boresize's built-in plugins
     :param check_roughness: corroded roughness for checked lines [m], or None
     :param every_size: rate every size of the pipe class (see :class:`~boresize.sizing.engine.Sizer`)
+    :param criteria_digest: SHA-256 of the criteria file's bytes (None: no file, or it cannot be read)
+    :param criteria_name: the criteria file as the caller named it: messages name it so where it is that file
     """
 
     criteria_file: str | None = None
     load_entry_points: bool = True
     check_roughness: float | None = None
     every_size: bool = False
+    criteria_digest: str | None = None
+    criteria_name: str | None = field(default=None, compare=False)
 
     def build(self) -> Sizer:
         from boresize.plugins import PluginHost
 
         host = PluginHost.load(load_entry_points=self.load_entry_points)
-        return Sizer(host, criteria_file=self.criteria_file, check_roughness=self.check_roughness,
-                     every_size=self.every_size)
+        named = self.criteria_name
+        path = named if named and str(Path(named).resolve()) == self.criteria_file else self.criteria_file
+        return Sizer(host, criteria_file=path, check_roughness=self.check_roughness, every_size=self.every_size)
 
 
 def shared_sizer(spec: SizerSpec) -> Sizer:
-    """This process's sizer for ``spec``, built once (loading plugins and criteria costs time); thread-safe."""
+    """This process's sizer for ``spec``, built once (loading plugins and criteria costs time); thread-safe.
+
+    A sizer built for an earlier content of the same criteria file is dropped.
+    """
     with _SIZERS_LOCK:
         if spec not in _SIZERS:
+            for old in [s for s in _SIZERS if s.criteria_file == spec.criteria_file and s != spec
+                        and s.criteria_digest != spec.criteria_digest]:
+                del _SIZERS[old]
             _SIZERS[spec] = spec.build()
         return _SIZERS[spec]
+
+
+def spec_for(criteria_file: str | Path | None, load_entry_points: bool, check_roughness: float | None, *,
+             every_size: bool = False) -> SizerSpec:
+    """A spec with the criteria path made absolute (workers may not share the parent's working directory)
+    and the digest of the file's bytes as they are now."""
+    if not criteria_file:
+        return SizerSpec(None, load_entry_points, check_roughness, every_size)
+    path = Path(criteria_file).resolve()
+    try:
+        digest: str | None = hashlib.sha256(path.read_bytes()).hexdigest()
+    except OSError:  # the sizer's build names the file it cannot read
+        digest = None
+    return SizerSpec(str(path), load_entry_points, check_roughness, every_size, digest, str(criteria_file))
+
+
+def size_item(sizer: Sizer, item: Item) -> LineResult:
+    """One line's result: a Line sized or checked, a row fault as an ``error``, or one line's cases."""
+    if isinstance(item, Line):
+        return sizer.run_safely(item)
+    if isinstance(item, RowFault):
+        return _fault_result(item)
+    if len(item) == 1:
+        return size_item(sizer, item[0])
+    if not any(isinstance(case, RowFault) for case in item):
+        return sizer.run_cases([case for case in item if isinstance(case, Line)])
+    each = [_cases.case_error(_fault_result(c), c.case) if isinstance(c, RowFault) else sizer.run_safely(c)
+            for c in item]
+    first = item[0]
+    mode = first.mode if isinstance(first, RowFault) else "check" if first.nps else "size"
+    return _cases.cases_error(each[0].tag, each, mode)
+
+
+def _fault_result(fault: RowFault) -> LineResult:
+    return error_result(fault.tag, fault.error, mode=fault.mode)
 
 
 class _CollectorPause:
     """Pauses the cyclic garbage collector while a batch builds or receives its results; restores it after.
 
     A result is about 430 objects a line (dataclasses, tuples, floats, strings), none in a reference cycle;
-    the collections made while they pile up traverse everything alive, again and again: they made unpickling
-    a 2,000-line batch in the parent 2.5-4x slower and sizing in one process about 25 % slower. The objects
+    the collections made while they pile up traverse everything alive, again and again (the figures are at
+    ``_COLLECTOR_PAUSE`` below). The objects
     alive at the start (modules, the sizer) are frozen, so that workers forked meanwhile, which collect as
     usual, leave them alone (the recipe of the ``gc.freeze`` documentation); at the end, freezing again and
     unfreezing moves the results to the oldest generation without traversing them. Objects the caller froze
@@ -119,41 +171,38 @@ class _CollectorPause:
                 gc.enable()
 
 
+# benchmarks/bench_tricks.py gc-pause, 2,000 lines (late 2026, medians of 5): 12 % faster here, 20 % on 2 workers.
 _COLLECTOR_PAUSE = _CollectorPause()
 
 
-def _init_worker(spec: SizerSpec, sizer: Sizer | None = None) -> None:
-    """Executor initializer: keep the sizer the parent forked with, else build the worker's own for ``spec``."""
+def _init_worker(spec: SizerSpec) -> None:
+    """Executor initializer: the worker's sizer for ``spec`` (a forked worker finds the parent's in the cache)."""
     _COLLECTOR_PAUSE.after_fork()
-    if sizer is not None:
-        with _SIZERS_LOCK:
-            _SIZERS[spec] = sizer
     shared_sizer(spec)
 
 
-def _run_chunk(spec: SizerSpec, chunk: Sequence[Sequence[Row]]) -> list[LineResult]:
+def _run_chunk(spec: SizerSpec, chunk: Sequence[Item]) -> list[LineResult]:
+    """A worker's task: size a chunk of lines with the worker's own sizer (plain LineResults travel back)."""
     sizer = shared_sizer(spec)
-    return [sizer.run_line_rows(group) for group in chunk]
+    return [size_item(sizer, item) for item in chunk]
 
 
-def _chunks(groups: Sequence[Sequence[Row]], workers: int, size: int | None) -> list[Sequence[Sequence[Row]]]:
+def _chunks(items: Sequence[Item], workers: int, size: int | None) -> list[Sequence[Item]]:
     """Chunks of whole lines: about eight per worker (a balance of load against pickling), 1-64 lines each."""
-    size = size or max(1, min(64, math.ceil(len(groups) / (max(workers, 1) * 8))))
-    return [groups[i:i + size] for i in range(0, len(groups), size)]
+    size = size or max(1, min(64, math.ceil(len(items) / (max(workers, 1) * 8))))
+    return [items[i:i + size] for i in range(0, len(items), size)]
 
 
-def process_pool(workers: int, spec: SizerSpec, *, sizer: Sizer | None = None) -> ProcessPoolExecutor:
-    """A pool of ``workers`` processes, each building its sizer for ``spec`` before its first task.
+def process_pool(workers: int, spec: SizerSpec) -> ProcessPoolExecutor:
+    """A pool of ``workers`` processes, each with its sizer for ``spec`` before its first task.
 
-    :param sizer: a sizer built from ``spec`` in this process: forked workers inherit it instead of building
-        their own (loading plugins and criteria again costs 0.3-1 s a process); ignored where workers are spawned
+    On Linux the workers are forked: they inherit the imported modules (pint, plugins, property libraries)
+    and this process's sizer for ``spec`` (:func:`shared_sizer`) instead of importing and building again.
     """
-    # fork on Linux: the workers inherit the imported modules (pint, plugins) instead of importing again.
-    # All workers are forked at the first submit, before the progress bar starts its thread. A forked
-    # process receives the initializer's arguments as they are in memory: the sizer is not pickled.
+    # benchmarks/bench_tricks.py fork, 2,000 lines on 2 workers: 1.1 s forked, 8.7 s spawned (medians of 5).
+    # All workers are forked at the first submit, before the progress bar starts its thread.
     context = multiprocessing.get_context("fork") if sys.platform == "linux" else None
-    inherited = sizer if context is not None else None
-    return ProcessPoolExecutor(workers, mp_context=context, initializer=_init_worker, initargs=(spec, inherited))
+    return ProcessPoolExecutor(workers, mp_context=context, initializer=_init_worker, initargs=(spec,))
 
 
 @contextmanager
@@ -177,92 +226,74 @@ def _progress(total: int, show: bool | None, stream: TextIO | None) -> Iterator[
         yield lambda n: bar.advance(task, n)
 
 
-def run_batch(rows: Iterable[tuple[Mapping[str, object], Mapping[str, str | None]]], spec: SizerSpec | None = None,
-              *, sizer: Sizer | None = None, executor: Executor | None = None, workers: int = 1,
-              progress: bool | None = None, chunk_size: int | None = None,
-              progress_stream: TextIO | None = None) -> list[LineResult]:
-    """Size or check every line of a line list; one result per line (cases grouped), in input order.
+def run_items(items: Sequence[Item], spec: SizerSpec | None = None, *, sizer: Sizer | None = None,
+              executor: Executor | None = None, workers: int = 1, progress: bool | None = None,
+              chunk_size: int | None = None, progress_stream: TextIO | None = None,
+              retry_hint: str = "--workers 1") -> list[LineResult]:
+    """Size or check every line; one result per item, in input order.
 
-    :param rows: (field -> cell, field -> default unit) per row, e.g. ``LineList.pairs()``
+    :param items: the lines (see :data:`Item`), e.g. :func:`boresize.io.line_items.line_items`'s
     :param spec: how workers build their sizer (also used here when ``sizer`` is not given)
-    :param sizer: the sizer to use in this process; in a parallel run (with ``spec``, from which it must be
-        built) it sizes the first line here before the workers start, and the worker processes started here
-        (forked) keep it, with the property libraries it imported, instead of building their own from ``spec``
+    :param sizer: the sizer to use in this process; in a parallel run on processes started here it sizes the
+        first line before they start, so that forked workers inherit the property libraries it loaded
     :param executor: any executor to run chunks on (it is not shut down here)
-    :param workers: worker processes to start when no executor is given (1 runs here)
+    :param workers: worker processes to start when no executor is given (1: size here, start none)
     :param progress: True/False to force the progress bar on or off; None shows it on a terminal for long runs
+    :param chunk_size: lines per task (default: about eight tasks per worker, 1 to 64 lines each)
+    :param retry_hint: how the caller asks for one process, for the message when a worker dies
     :raises InputError: a parallel run given a ``sizer`` but no ``spec`` (workers could not rebuild it)
     :raises BoresizeError: a worker process died (the line at fault is not known)
     """
-    groups = group_rows(rows)
     parallel = executor is not None or workers > 1
     if parallel and spec is None and sizer is not None:
         raise InputError("a parallel run cannot send a Sizer to its workers", field="spec", value=None,
                          expected="a SizerSpec from which each worker builds its own sizer")
     spec = spec or SizerSpec()
-    if not parallel:
-        local = sizer or spec.build()
-        results = []
-        with _COLLECTOR_PAUSE, _progress(len(groups), progress, progress_stream) as advance:
-            for group in groups:
-                results.append(local.run_line_rows(group))
-                advance(1)
-        return results
-    head = [sizer.run_line_rows(groups[0])] if sizer is not None and groups else []
-    return head + _run_parallel(groups[len(head):], spec, sizer, executor, workers, progress, chunk_size,
-                                progress_stream, len(groups))
-
-
-def _run_parallel(groups: Sequence[Sequence[Row]], spec: SizerSpec, sizer: Sizer | None, executor: Executor | None,
-                  workers: int, progress: bool | None, chunk_size: int | None, stream: TextIO | None,
-                  total: int) -> list[LineResult]:
-    if not groups:
-        return []
 
     def bar() -> AbstractContextManager[Callable[[int], None]]:
-        return _progress(total, progress, stream)
+        return _progress(len(items), progress, progress_stream)
 
-    def here(chunk: Sequence[Sequence[Row]]) -> list[LineResult]:
-        return [sizer.run_line_rows(group) for group in chunk]  # type: ignore[union-attr]
+    if not parallel:
+        engine = sizer or spec.build()
+        results: list[LineResult] = []
+        with _COLLECTOR_PAUSE, bar() as advance:
+            for item in items:
+                results.append(size_item(engine, item))
+                advance(1)
+        return results
+    head = [size_item(sizer, items[0])] if sizer is not None and executor is None and items else []
+    rest = items[len(head):]
+    if not rest:
+        return head
+    return head + run_chunks(_run_chunk, spec, _chunks(rest, workers, chunk_size), executor=executor,
+                             workers=workers, retry_hint=retry_hint, progress=bar, already_done=len(head))
 
-    return run_chunks(_run_chunk, spec, _chunks(groups, workers, chunk_size), executor=executor, workers=workers,
-                      retry_hint="--workers 1", progress=bar, already_done=total - len(groups), sizer=sizer,
-                      local=here if sizer is not None else None)
 
-
-def run_chunks(task: Callable[[SizerSpec, Any], list[LineResult]], spec: SizerSpec, chunks: Sequence[Sized], *,
+def run_chunks(task: Callable[[SizerSpec, Any], list[Any]], spec: SizerSpec, chunks: Sequence[Sized], *,
                executor: Executor | None, workers: int, retry_hint: str,
                progress: Callable[[], AbstractContextManager[Callable[[int], None]]] | None = None,
-               already_done: int = 0, sizer: Sizer | None = None,
-               local: Callable[[Any], list[LineResult]] | None = None) -> list[LineResult]:
-    """Run ``task(spec, chunk)`` for every chunk on ``executor`` (or on processes started here and shut down
-    after); results come back in chunk order, whatever order the chunks finish in.
-
-    Without an executor, ``workers`` processes share the work. Given ``local`` (the same work done in this
-    process), this process is one of them: it starts ``workers - 1`` and takes chunks from the end of the list
-    while they take them from the start (a chunk no process has begun is cancelled in the pool and run here),
-    so that its share of the results never has to be pickled and sent back.
+               already_done: int = 0) -> list[Any]:
+    """Run ``task(spec, chunk)`` for every chunk on ``executor`` (or on ``workers`` processes started here and
+    shut down after); results come back in chunk order, whatever order the chunks finish in.
 
     :param retry_hint: how the caller asks for one process, for the message when a worker dies
     :param progress: makes the progress bar, entered after every chunk is submitted (a forked pool starts its
         processes at the first submit, before the bar's thread); advanced by the lines of each finished chunk
-    :param sizer: a sizer built from ``spec`` here, for the worker processes started here to inherit
-    :param local: ``chunk -> results`` in this process (``task`` with this process's sizer)
+    :param already_done: lines done before (shown on the bar from the start)
     :raises BoresizeError: a worker process died
     """
-    if executor is None and local is not None and workers <= 1:  # this process is the only one
-        with _COLLECTOR_PAUSE, (progress or nullcontext)() as advance:
-            step = advance if advance is not None else (lambda n: None)
-            step(already_done)
-            return [result for chunk in chunks for result in _advanced(local(chunk), step)]
-    if executor is None:
-        started = workers - 1 if local is not None else workers
-        pool: Executor = process_pool(started, spec, sizer=sizer)
-    else:
-        pool, local = executor, None
+    pool = executor or process_pool(workers, spec)
     try:
         with _COLLECTOR_PAUSE:
-            return _collect(task, spec, chunks, pool, progress, already_done, local)
+            futures = {pool.submit(task, spec, chunk): i for i, chunk in enumerate(chunks)}
+            done: list[list[Any]] = [[] for _ in chunks]
+            with (progress or nullcontext)() as advance:
+                step = advance if advance is not None else (lambda n: None)
+                step(already_done)
+                for future in as_completed(futures):
+                    done[futures[future]] = future.result()
+                    step(len(chunks[futures[future]]))
+            return [result for chunk in done for result in chunk]
     except BrokenProcessPool as exc:
         raise BoresizeError(f"a worker process stopped unexpectedly ({exc}); run again with {retry_hint} to "
                             f"find the line that stops it") from exc
@@ -271,72 +302,7 @@ def run_chunks(task: Callable[[SizerSpec, Any], list[LineResult]], spec: SizerSp
             pool.shutdown(wait=True, cancel_futures=True)
 
 
-def _collect(task: Callable[[SizerSpec, Any], list[LineResult]], spec: SizerSpec, chunks: Sequence[Sized],
-             pool: Executor, progress: Callable[[], AbstractContextManager[Callable[[int], None]]] | None,
-             already_done: int, local: Callable[[Any], list[LineResult]] | None) -> list[LineResult]:
-    """Submit every chunk; run here the chunks (from the end) no worker has begun; gather in chunk order.
-
-    Working beside its own pool, this process has the workers leave their results in files of a private
-    temporary folder and send back only the file's path: a chunk's results (~200 kB pickled) sent through
-    the pool's pipe need this process's receiving thread, which gets the interpreter only between the sizing
-    done here, so the workers would stall on a full pipe (measured: a third of their time).
-    """
-    with tempfile.TemporaryDirectory(prefix="boresize-") if local is not None else nullcontext() as folder:
-        futures: list[Future[str | list[LineResult]]]  # a file's path, or the results themselves
-        if folder is not None:
-            futures = [pool.submit(_run_to_file, task, spec, c, folder) for c in chunks]
-        else:
-            futures = [pool.submit(task, spec, c) for c in chunks]
-        done: list[Any] = [None] * len(chunks)
-        with (progress or nullcontext)() as advance:
-            step = advance if advance is not None else (lambda n: None)
-            step(already_done)  # the lines already sized in this process
-            for i in reversed(range(len(chunks)) if local is not None else ()):
-                if local is None or not futures[i].cancel():
-                    break  # a worker has it, so it has (or will have) every chunk before it
-                done[i] = local(chunks[i])
-                step(len(chunks[i]))
-                for j, future in enumerate(futures):  # what the workers finished meanwhile
-                    if done[j] is None and future.done() and not future.cancelled():
-                        done[j] = future.result()
-                        step(len(chunks[j]))
-            waiting = {future: i for i, future in enumerate(futures) if done[i] is None}
-            for future in as_completed(waiting):
-                done[waiting[future]] = future.result()
-                step(len(chunks[waiting[future]]))
-        return [result for chunk in done for result in (_load(chunk) if isinstance(chunk, str) else chunk)]
-
-
-def _advanced(results: list[LineResult], step: Callable[[int], None]) -> list[LineResult]:
-    step(len(results))
-    return results
-
-
-def _run_to_file(task: Callable[[SizerSpec, Any], list[LineResult]], spec: SizerSpec, chunk: Any,
-                 folder: str) -> str:
-    """A worker's chunk with its results pickled into a new file of ``folder``; returns the file's path."""
-    results = task(spec, chunk)
-    handle, path = tempfile.mkstemp(suffix=".pickle", dir=folder)
-    with os.fdopen(handle, "wb") as out:
-        pickle.dump(results, out, protocol=pickle.HIGHEST_PROTOCOL)
-    return path
-
-
-def _load(path: str) -> list[LineResult]:
-    """The results a worker left in ``path`` (a file of this run's private folder, written by this program)."""
-    with open(path, "rb") as source:
-        results: list[LineResult] = pickle.load(source)
-        return results
-
-
 def summary(results: Sequence[LineResult]) -> str:
     """One line: how many lines were sized or checked, passed, failed and had errors."""
     counts = {s: sum(1 for r in results if r.status == s) for s in ("pass", "fail", "error")}
     return f"{len(results)} lines: {counts['pass']} pass, {counts['fail']} fail, {counts['error']} error"
-
-
-def spec_for(criteria_file: str | Path | None, load_entry_points: bool, check_roughness: float | None, *,
-             every_size: bool = False) -> SizerSpec:
-    """A spec with the criteria path made absolute (workers may not share the parent's working directory)."""
-    path = str(Path(criteria_file).resolve()) if criteria_file else None
-    return SizerSpec(path, load_entry_points, check_roughness, every_size)

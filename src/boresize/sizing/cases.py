@@ -3,7 +3,8 @@
 A line is often given for several operating cases (normal, maximum, minimum, start-up ...), each
 with its own flow, pressure and temperature. They are one line: the size chosen is the smallest that
 passes every case, and for each criterion the case with the highest utilisation at that size governs
-it. These helpers group rows into lines and combine per-case results; the engine does the rating.
+it. These helpers check and combine per-case results; the engine does the rating
+(the readers group rows into lines: :mod:`boresize.io.line_items`).
 
 A row without a ``case`` value is a line of its own, exactly as before cases existed (two such rows
 with the same tag stay two lines, and the second is refused as a duplicate tag).
@@ -11,47 +12,13 @@ with the same tag stay two lines, and the second is refused as a duplicate tag).
 
 from __future__ import annotations
 
-from collections.abc import Iterable, Mapping, Sequence
+from collections.abc import Sequence
 from dataclasses import replace
 
 from boresize.errors import InputError
-from boresize.io.rows import DUPLICATE_TAG
 from boresize.model import CandidateResult, Line, LineResult, Mode
 
-__all__ = ["Row", "group_rows", "check_cases", "name_cases", "common_index", "combine", "case_error",
-           "cases_error"]
-
-#: One input row: (1-based position, field -> cell, field -> default unit).
-Row = tuple[int, Mapping[str, object], Mapping[str, "str | None"]]
-
-
-def _cell(row: Mapping[str, object], name: str) -> str:
-    value = row.get(name)
-    return "" if value is None else str(value).strip()
-
-
-def group_rows(pairs: Iterable[tuple[Mapping[str, object], Mapping[str, str | None]]]) -> list[list[Row]]:
-    """Group rows into lines, in the order of each line's first row.
-
-    Rows with the same tag and a non-empty ``case`` are one line; every other row is a line alone.
-    """
-    groups: list[list[Row]] = []
-    by_tag: dict[str, list[Row]] = {}
-    first: dict[str, int] = {}  # tag -> the row that began its line: a later line with that tag is refused
-    for position, (row, units) in enumerate(pairs, start=1):
-        tag, case = _cell(row, "tag"), _cell(row, "case")
-        if tag and case and tag in by_tag:
-            by_tag[tag].append((position, row, units))
-            continue
-        if tag in first:
-            row = {**row, DUPLICATE_TAG: f"row {first[tag]}"}
-        elif tag:
-            first[tag] = position
-        group: list[Row] = [(position, row, units)]
-        groups.append(group)
-        if tag and case:
-            by_tag[tag] = group
-    return groups
+__all__ = ["check_cases", "name_cases", "common_index", "combine", "case_error", "cases_error"]
 
 
 def name_cases(lines: Sequence[Line]) -> tuple[Line, ...]:

@@ -9,7 +9,7 @@ from __future__ import annotations
 
 import math
 from bisect import bisect_left
-from collections.abc import Iterable, Mapping, Sequence
+from collections.abc import Mapping, Sequence
 from dataclasses import replace
 from pathlib import Path
 from typing import Any, NamedTuple
@@ -250,38 +250,6 @@ class Sizer:
                                       f"be rated in every case", "criteria")
         each = [self._finish(p, r, r[index], closest_note=False) for p, r in zip(ready, rated)]
         return _cases.combine(each, passed, mode)
-
-    # -- many lines ---------------------------------------------------------------------------
-    def run_rows(self, rows: Iterable[tuple[Mapping[str, object], Mapping[str, str | None]]]) -> list[LineResult]:
-        """Parse and run rows in order; a bad row gives an ``error`` result and the others go on.
-
-        Rows that share a tag and name a ``case`` are one line (see :mod:`boresize.sizing.cases`): one
-        result per line, in the order of each line's first row.
-        """
-        return [self.run_line_rows(group) for group in _cases.group_rows(rows)]
-
-    def run_line_rows(self, rows: Sequence[_cases.Row]) -> LineResult:
-        """Parse and run the rows of one line (one row, or one row per case); the rows are kept in ``raw``."""
-        from boresize.io.rows import line_from_row
-
-        parsed: list[Line | LineResult] = []
-        for position, row, units in rows:
-            try:
-                parsed.append(line_from_row(row, units, position))
-            except BoresizeError as exc:
-                tag = str(row.get("tag") or f"row {position}")
-                parsed.append(error_result(tag, exc, mode="check" if row.get("nps") else "size"))
-        raws = [{str(k): "" if v is None else str(v) for k, v in row.items()} for _, row, _ in rows]
-        if len(parsed) == 1:
-            only = parsed[0]
-            return replace(only if isinstance(only, LineResult) else self.run_safely(only), raw=raws[0])
-        if any(isinstance(p, LineResult) for p in parsed):
-            each = [_cases.case_error(p, raws[i].get("case", "")) if isinstance(p, LineResult) else
-                    self.run_safely(p) for i, p in enumerate(parsed)]
-            result = _cases.cases_error(each[0].tag, each, "check" if raws[0].get("nps") else "size")
-        else:
-            result = self.run_cases([p for p in parsed if isinstance(p, Line)])
-        return replace(result, cases=tuple(replace(c, raw=raw) for c, raw in zip(result.cases, raws)))
 
     def run_safely(self, line: Line) -> LineResult:
         """:meth:`run`, but an unexpected fault (a bug) is also an ``error`` result, never lost."""

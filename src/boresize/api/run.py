@@ -1,0 +1,269 @@
+"""One run: a line list in, every line sized or checked, a :class:`Run` out that writes itself anywhere.
+
+The one path from a line list to files, for scripts, notebooks and the ``boresize`` command alike::
+
+    run = run_lines("lines.csv", "criteria.toml", workers=2)
+    run.write("results.xlsx")        # .json, .csv, .xlsx or .html, chosen by the extension
+    run.document()                   # the JSON document as a dict
+    print(run.table())               # the terminal table
+
+The line list may be a path, an open file, ``"-"`` (standard input, CSV), a pandas DataFrame, a
+:class:`~boresize.io.LineList`, or Lines (and lists of one line's cases). Rows are read into Lines by
+the readers; a row that cannot be read is a result with status ``error`` and the others go on.
+"""
+
+from __future__ import annotations
+
+import hashlib
+import sys
+from collections.abc import Callable, Iterable, Sequence
+from concurrent.futures import Executor
+from dataclasses import dataclass, replace
+from pathlib import Path
+from typing import IO, TYPE_CHECKING, Any, Union, cast
+
+from boresize.api.calls import Item as LineItem, checked_item, default_sizer
+from boresize.api.result import SizingResult
+from boresize.errors import InputError
+from boresize.io.csv_reader import LineList
+from boresize.model import Line, LineResult
+from boresize.report.trace import Traceability, traceability
+from boresize.sizing.batch import SizerSpec, run_items, spec_for, summary
+from boresize.sizing.headroom import Headroom
+
+if TYPE_CHECKING:
+    import pandas as pd
+
+    from boresize.io.line_items import Cells
+    from boresize.sizing.engine import Sizer
+
+__all__ = ["LineSource", "Run", "read_lines", "roughness_value", "run_lines", "size_dataframe", "size_rows"]
+
+#: What :func:`run_lines` reads lines from.
+LineSource = Union[str, Path, IO[str], IO[bytes], "pd.DataFrame", LineList, Iterable[LineItem]]
+
+
+@dataclass(frozen=True)
+class Run:
+    """The results of one run, the line list as read, and the record of what produced them.
+
+    :param results: one result per line, in the order of each line's first row
+    :param line_list: the line list as read (headers, units, source, SHA-256); no rows when given Lines
+    :param trace: the traceability record (versions, backends, criteria set, input digest, date)
+    :param headrooms: each line's headroom at its size, when asked for
+    """
+
+    results: tuple[SizingResult, ...]
+    line_list: LineList
+    trace: Traceability
+    headrooms: tuple[Headroom, ...] | None = None
+
+    @property
+    def passed(self) -> bool:
+        """True when there are lines and every one passed."""
+        return bool(self.results) and all(r.status == "pass" for r in self.results)
+
+    def summary(self) -> str:
+        """One line: how many lines were sized or checked, passed, failed and had errors."""
+        return summary(self.results)
+
+    def document(self) -> dict[str, Any]:
+        """The JSON document (``boresize size --json``), with each line's headroom when asked for."""
+        from boresize.io.document import document
+        from boresize.sizing.headroom import headroom_to_dict
+
+        doc = document(self.results, criteria_source=self.trace.criteria_source,
+                       lines_source=self.line_list.source, traceability=self.trace.to_dict())
+        for entry, room in zip(doc["lines"], self.headrooms or ()):
+            entry.update(headroom_to_dict(room))
+        return doc
+
+    def table(self) -> str:
+        """The terminal table (and the headroom list when asked for)."""
+        from boresize.report.terminal import render_table
+
+        text = render_table(self.results, self.trace.criteria_source, self.trace.criteria_set)
+        return text + (_headroom_text(self.headrooms) if self.headrooms is not None else "")
+
+    def write(self, path: str | Path) -> Path:
+        """Write the run to ``path``: .json, .csv, .xlsx or .html by its extension; returns the path.
+
+        :raises InputError: (field "output") an extension boresize does not write, or a missing folder
+        """
+        from boresize.api.output import write_run
+
+        return write_run(path, self)
+
+
+def run_lines(lines: LineSource, criteria: str | Path | None = None, *, workers: int = 1,
+              executor: Executor | None = None, every_size: bool = False, corroded_roughness: str | float | None = None,
+              plugins: bool = True, progress: bool | None = False, headroom: bool = False,
+              units_row: bool | None = None) -> Run:
+    """Size (or check) every line of a line list; see the module docstring for what ``lines`` may be.
+
+    :param criteria: a criteria TOML file (the shipped sets when None)
+    :param workers: worker processes to size on (1: this process alone)
+    :param executor: any :class:`concurrent.futures.Executor` to size on instead (not shut down here)
+    :param every_size: rate every size of the pipe class (same selection, slower)
+    :param corroded_roughness: absolute roughness for lines checked at a given NPS ("0.5 mm", or metres)
+    :param plugins: False to use only boresize's built-in plugins (no entry points)
+    :param progress: True/False for a progress bar on stderr; None shows it on a terminal for long runs
+    :param headroom: also rate each line at its size: how much more flow it carries before a criterion fails
+    :param units_row: for a DataFrame, as :func:`boresize.io.dataframe.read_dataframe`'s
+    :raises InputError: an unreadable line list, a bad option (naming it)
+    :raises BoresizeError: a worker process died
+    """
+    if isinstance(workers, bool) or not isinstance(workers, int) or workers < 1:
+        raise InputError(f"workers {workers!r} is not a whole number of 1 or more", field="workers", value=workers,
+                         expected="1 or more processes")
+    roughness = None if corroded_roughness is None else roughness_value(corroded_roughness)
+    spec = spec_for(criteria, plugins, roughness, every_size=every_size)
+    line_list, items, cells = _read(lines, units_row)
+    sizer = default_sizer(spec)
+    results = run_items(items, spec, sizer=sizer, executor=executor, workers=workers, progress=progress,
+                        retry_hint="one process (workers=1, or --workers 1 on the command line)")
+    if cells is not None:
+        results = [_with_cells(result, own) for result, own in zip(results, cells)]
+    rooms = tuple(_headroom(sizer, r) for r in results) if headroom else None
+    trace = _trace(sizer, spec, line_list, str(criteria) if criteria else sizer.config.origin)
+    return Run(tuple(SizingResult.of(r) for r in results), line_list, trace, rooms)
+
+
+def size_rows(rows: Iterable[tuple[Any, Any]], *, sizer: Sizer | None = None,
+              spec: SizerSpec | None = None) -> list[LineResult]:
+    """Size rows ((field -> cell, field -> default unit) pairs, e.g. ``LineList.pairs()``) in this process;
+    one result per line (cases grouped), each with its rows' cells (``raw``) for the writers."""
+    from boresize.io.line_items import line_items
+
+    read = line_items(rows)
+    results = run_items(read.items, spec, sizer=sizer or default_sizer(spec or spec_for(None, True, None)),
+                        progress=False)
+    return [_with_cells(result, own) for result, own in zip(results, read.cells)]
+
+
+def roughness_value(value: str | float, field: str = "corroded_roughness") -> float:
+    """A roughness [m] from text with its unit ("0.5 mm") or a number in metres.
+
+    :raises InputError: naming ``field``: no unit, not a length, not above zero
+    """
+    if isinstance(value, str):
+        from boresize.units import parse_quantity
+
+        number = parse_quantity(value, field, "length")
+    else:
+        number = float(value)
+    if not number > 0:
+        raise InputError(f"{value!r} is not above zero", field=field, value=value, expected="a roughness above zero")
+    return number
+
+
+def read_lines(lines: LineSource, units_row: bool | None = None) -> LineList:
+    """A line list from a path, ``"-"`` (standard input, CSV), an open file, a DataFrame or a LineList.
+
+    :raises InputError: (field "lines") something else, or an unreadable file
+    """
+    from boresize.io import read_line_list
+    from boresize.io.csv_reader import parse_csv_text
+
+    if isinstance(lines, LineList):
+        return lines
+    if isinstance(lines, str) and lines == "-":
+        stdin = getattr(sys.stdin, "buffer", sys.stdin)  # bytes where there are: a bad encoding is named, not raised
+        return _from_text(stdin.read(), "<stdin>", parse_csv_text)
+    if isinstance(lines, (str, Path)):
+        return read_line_list(lines)
+    if hasattr(lines, "read"):
+        handle = cast(IO[Any], lines)
+        return _from_text(handle.read(), str(getattr(handle, "name", "<file>")), parse_csv_text)
+    if type(lines).__module__.partition(".")[0] == "pandas" and hasattr(lines, "columns"):
+        from boresize.io.dataframe import read_dataframe
+
+        return read_dataframe(cast("pd.DataFrame", lines), units_row=units_row)
+    raise InputError(f"a {type(lines).__name__} is not a line list", field="lines", value=repr(lines)[:80],
+                     expected="a path, '-', an open file, a DataFrame, a LineList, or Lines")
+
+
+def _from_text(text: str | bytes, source: str, parse_csv: Callable[[str, str], LineList]) -> LineList:
+    """A line list from the text of a file: TOML when its name ends in .toml, else CSV; digest of its bytes."""
+    data = text if isinstance(text, bytes) else text.encode("utf-8")
+    try:
+        decoded = data.decode("utf-8-sig")
+    except UnicodeDecodeError as exc:
+        raise InputError(f"{source} is not UTF-8 text", field="lines", value=source,
+                         expected="a line list saved as UTF-8") from exc
+    if source.lower().endswith(".toml"):
+        import tomllib
+
+        from boresize.io.toml_lines import lines_from_document
+
+        try:
+            line_list = lines_from_document(tomllib.loads(decoded), source)
+        except tomllib.TOMLDecodeError as exc:
+            raise InputError(f"{source} is not valid TOML: {exc}", field="lines", value=source,
+                             expected="a TOML line list") from exc
+    else:
+        line_list = parse_csv(decoded, source)
+    line_list.digest = hashlib.sha256(data).hexdigest()
+    return line_list
+
+
+def _read(lines: LineSource, units_row: bool | None) -> tuple[LineList, Sequence[Any], tuple[tuple[Cells, ...], ...] | None]:
+    """(the line list, the lines to size, each line's rows' cells) from any line source."""
+    if isinstance(lines, Line) or (isinstance(lines, (list, tuple)) and lines
+                                   and all(isinstance(v, (Line, list, tuple)) for v in lines)):
+        given = [lines] if isinstance(lines, Line) else list(lines)
+        items = [checked_item(value, i) for i, value in enumerate(given, start=1)]
+        return LineList(rows=[], units={}, source="<lines>"), items, None
+    from boresize.io.line_items import line_items
+
+    line_list = read_lines(lines, units_row)
+    read = line_items(line_list.pairs())
+    return line_list, read.items, read.cells
+
+
+def _with_cells(result: LineResult, cells: Sequence[Cells]) -> LineResult:
+    """The result with its rows' cells as given (``raw``; for a line of cases, each case's own)."""
+    if len(cells) == 1:
+        return replace(result, raw=cells[0])
+    return replace(result, cases=tuple(replace(c, raw=raw) for c, raw in zip(result.cases, cells)))
+
+
+def _trace(sizer: Sizer, spec: SizerSpec, line_list: LineList, criteria_source: str) -> Traceability:
+    """The run's record; ``criteria_source`` names the criteria file as the caller gave it."""
+    host, config = sizer.host, sizer.config
+    services = {name: getattr(config.services[name], "stamp", name) for name in config.service_names()}
+    return traceability(backends=list(host.backends), owner=host.backends.owner, criteria_set=config.version,
+                        criteria_source=criteria_source, services=services, check_roughness=spec.check_roughness,
+                        lines_source=line_list.source, lines_digest=line_list.digest)
+
+
+def _headroom(sizer: Sizer, result: LineResult) -> Headroom:
+    """Headroom of a line at the size it got (its governing case's conditions)."""
+    from boresize.sizing.headroom import find_headroom
+
+    if result.line is None or result.selected is None:
+        return Headroom(result.tag, None, None, (), result.error or "no size to rate")
+    chosen = result.selected.candidate
+    return find_headroom(sizer, replace(result.line, nps=chosen.nps, schedule=chosen.schedule))
+
+
+def _headroom_text(rooms: Sequence[Headroom]) -> str:
+    out = ["", "Headroom at the selected or given size (flow beyond the design flow before a criterion fails):"]
+    for room in rooms:
+        shown = "-" if room.percent is None else f"{room.percent:+.1f} %"
+        out.append(f"  {room.tag:<14} {shown:>9}  {room.note}")
+    return "\n".join(out) + "\n"
+
+
+def size_dataframe(frame: pd.DataFrame, *, criteria: str | Path | None = None, plugins: bool = True,
+                   executor: Executor | None = None, workers: int = 1, units_row: bool | None = None) -> pd.DataFrame:
+    """Size (or check) every line of a DataFrame of streams; the results as
+    :func:`boresize.io.dataframe.results_dataframe` lays them out (input columns, then ``result.*``).
+
+    Rows are grouped into lines (operating cases) as a CSV line list's are; a bad row gives an
+    ``error`` row and the others go on. ``executor`` and ``workers`` as in :func:`run_lines`.
+    """
+    from boresize.io.dataframe import results_dataframe
+
+    run = run_lines(frame, criteria, plugins=plugins, executor=executor, workers=workers, units_row=units_row)
+    return results_dataframe(run.results, run.line_list.headers)
