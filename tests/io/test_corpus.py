@@ -4,7 +4,7 @@ Each file in tests/corpus/ holds one kind of mistake; tests/corpus/expected.toml
 input in it, the exact message, the field at fault, the value as given and what was expected. A bad
 row must give an ``error`` result for that line only, and every other line must still be in the JSON
 output, in input order; a bad file (or criteria file, or plugin) must stop the run with exit code 2
-and the message on stderr, and print nothing on stdout. The contract is DESIGN.md's ("one entry per
+and the message on stderr, and print nothing on stdout. The contract is the README's ("one entry per
 input line, in input order ... for status error, error (a message naming the field at fault)"; exit
 code 2 for a usage error; no traceback); how to add a case is in DEVELOPERS.md.
 """

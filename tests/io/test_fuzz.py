@@ -8,7 +8,7 @@ watchdog timer that interrupts an example running for seconds.
 
 The quick runs are derandomized (the same examples every time, so CI is stable); the ``slow``
 sweeps draw fresh random examples on every run. The properties are the package's contract
-(DESIGN.md: "No Python traceback reaches the user"; errors name the field, the value and what was
+(README: "No Python traceback reaches the user"; errors name the field, the value and what was
 expected), not values computed by boresize.
 """
 

@@ -208,10 +208,10 @@ def test_missing_schedule_lists_what_exists_at_that_nps() -> None:
 
 def test_default_class_follows_the_design() -> None:
     cls = DEFAULT_PIPE_CLASS
-    assert (cls.name, cls.material, cls.schedule) == ("default", "carbon steel", "40")  # DESIGN.md
+    assert (cls.name, cls.material, cls.schedule) == ("default", "carbon steel", "40")  # README
     assert cls.roughness == pytest.approx(0.045 * MM)  # commercial steel, common practice (Moody 1944)
     labels = [c.nps for c in cls.candidates()]
-    assert not {"1-1/4", "2-1/2", "3-1/2", "5"} & set(labels)  # DESIGN.md: preferred sizes only
+    assert not {"1-1/4", "2-1/2", "3-1/2", "5"} & set(labels)  # README: preferred sizes only
     assert labels[0] == "1/2" and labels[-1] == "36"
     DEFAULT_PIPE_CLASS.check()
 

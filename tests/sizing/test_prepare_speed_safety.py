@@ -115,7 +115,7 @@ def test_unknown_and_mixture_names_keep_their_messages_after_a_known_one() -> No
 def test_given_density_and_viscosity_win_over_a_name_already_read() -> None:
     backend = CoolPropBackend()
     assert backend.handles(make_line("water"))
-    # DESIGN.md, line list columns: given density and viscosity are used instead of the backend
+    # README, line list columns: given density and viscosity are used instead of the backend
     assert not backend.handles(make_line("water", density=998.0, viscosity=1e-3))
 
 

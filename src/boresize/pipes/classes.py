@@ -142,7 +142,7 @@ def _first_missing(pipe_class: PipeClass, catalogue: Catalogue) -> tuple[str, st
     return None
 
 
-# The default class (DESIGN.md): carbon steel, Sch 40, preferred sizes only (no 1-1/4, 2-1/2, 3-1/2, 5).
+# The default class (README, "Your own criteria and pipe classes"): carbon steel, Sch 40, preferred sizes only (no 1-1/4, 2-1/2, 3-1/2, 5).
 # Roughness 0.045 mm: commercial steel, common practice (L. F. Moody, Trans. ASME 66, 1944; Crane TP-410
 # gives 0.0018 in = 0.046 mm). ASME B36.10M-2018 lists no Sch 40 wall at NPS 22, 26, 28 and 30; there the
 # class takes STD (9.53 mm), the lighter neighbour of the missing wall, explicitly. A company narrows the
