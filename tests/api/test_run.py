@@ -133,11 +133,19 @@ def test_an_edited_criteria_file_gives_its_new_limit(tmp_path: Path) -> None:
     assert velocity_limit("1.5 m/s") == pytest.approx(1.5)  # same path, new content: the new limit
 
 
-def test_an_output_that_cannot_be_written_is_named(reference: Run, tmp_path: Path) -> None:
-    (tmp_path / "taken.json").mkdir()  # a folder where the file should go
-    with pytest.raises(InputError, match=r"^output: cannot write '.*taken\.json': Is a directory; expected a file "
-                                         r"this user may write$"):
-        reference.write(tmp_path / "taken.json")
+def test_an_output_that_cannot_be_written_is_named(reference: Run, tmp_path: Path,
+                                                   monkeypatch: pytest.MonkeyPatch) -> None:
+    import errno
+
+    from boresize.api import output
+
+    def full_disk(path: Path, run: Run) -> None:
+        raise OSError(errno.ENOSPC, "No space left on device")
+
+    monkeypatch.setitem(output.WRITERS, ".json", full_disk)
+    with pytest.raises(InputError, match=r"^output: cannot write '.*out\.json': No space left on device; expected a "
+                                         r"file this user may write$"):
+        reference.write(tmp_path / "out.json")
 
 
 def test_standard_input_that_is_not_utf8_is_named(monkeypatch: pytest.MonkeyPatch) -> None:
@@ -146,3 +154,55 @@ def test_standard_input_that_is_not_utf8_is_named(monkeypatch: pytest.MonkeyPatc
     monkeypatch.setattr(sys, "stdin", io.TextIOWrapper(io.BytesIO(b"tag,fluid\n\xff\xfe,x\n")))
     with pytest.raises(InputError, match=r"^lines: <stdin> is not UTF-8 text; expected a line list saved as UTF-8$"):
         run_lines("-", plugins=False)
+
+
+def test_a_generator_of_lines_is_read_like_a_list() -> None:
+    water = [make_line(tag=f"G-{i}", fluid="water", flow="45 t/h", pressure="9 barg", temperature="30 degC")
+             for i in range(2)]
+    run = run_lines((line for line in water), plugins=False)
+    assert [r.to_dict() for r in run.results] == [r.to_dict() for r in size_many(water, plugins=False)]
+
+
+def test_no_lines_at_all_is_named() -> None:
+    with pytest.raises(InputError, match=r"^lines: no lines given; expected one or more Lines from make_line\(\), "
+                                         r"or a line list to read$"):
+        run_lines([])
+
+
+def test_an_output_never_overwrites_the_line_list_it_was_made_from(tmp_path: Path) -> None:
+    lines = tmp_path / "lines.csv"
+    lines.write_bytes(LINES.read_bytes())
+    run = run_lines(lines, CRITERIA, plugins=False)
+    with pytest.raises(InputError, match=r"^output: '.*lines\.csv' is the line list being read; expected another "
+                                         r"file name: an output never overwrites its input$"):
+        run.write(tmp_path / "." / "lines.csv")  # the same file, spelt another way
+    assert lines.read_bytes() == LINES.read_bytes()
+
+
+def test_an_output_that_is_a_folder_is_named(reference: Run, tmp_path: Path) -> None:
+    folder = tmp_path / "out.csv"
+    folder.mkdir()
+    with pytest.raises(InputError, match=r"^output: '.*out\.csv' is a folder; expected a file name ending in "
+                                         r"\.json, \.csv, \.xlsx, \.html$"):
+        reference.write(folder)
+
+
+def test_the_command_line_refuses_to_overwrite_its_input_before_sizing(tmp_path: Path) -> None:
+    lines = tmp_path / "lines.csv"
+    lines.write_bytes(LINES.read_bytes())
+    done = subprocess.run([sys.executable, "-m", "boresize", "size", str(lines), "-o", str(lines)],
+                          capture_output=True, text=True, timeout=300)
+    assert done.returncode == 2 and "Traceback" not in done.stderr
+    assert done.stderr == (f"boresize: error: output: {str(lines)!r} is the line list being read; expected another "
+                           f"file name: an output never overwrites its input\n")
+    assert lines.read_bytes() == LINES.read_bytes()
+
+
+def test_a_criteria_file_that_is_not_text_is_named(tmp_path: Path) -> None:
+    from boresize import CriteriaFileError
+
+    binary = tmp_path / "criteria.toml"
+    binary.write_bytes(b"\x00\x01\xff\xfe[service]")
+    with pytest.raises(CriteriaFileError, match=r"^criteria: .*criteria\.toml is not UTF-8 text; expected a TOML file "
+                                                r"saved as UTF-8$"):
+        run_lines(LINES, binary, plugins=False)

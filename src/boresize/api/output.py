@@ -7,7 +7,7 @@ The table :data:`WRITERS` maps an extension to a function ``(path, run)``; every
 from __future__ import annotations
 
 import json
-from collections.abc import Callable
+from collections.abc import Iterable, Callable
 from pathlib import Path
 from typing import TYPE_CHECKING
 
@@ -47,12 +47,19 @@ WRITERS: dict[str, Callable[[Path, Run], None]] = {".json": _json, ".csv": _csv,
 OUTPUT_SUFFIXES = tuple(WRITERS)
 
 
-def check_output(path: str | Path) -> Path:
-    """The path, if its extension names a kind boresize writes and its folder exists.
+def check_output(path: str | Path, inputs: Iterable[str | Path] = ()) -> Path:
+    """The path, if its extension names a kind boresize writes, its folder exists, it is not a folder itself
+    and it is none of ``inputs`` (the line list read: an output never overwrites what it was made from).
 
-    :raises InputError: (field "output") naming the path and the kinds accepted
+    :raises InputError: (field "output") naming the path and what is accepted
     """
     target = Path(path)
+    if target.is_dir():
+        raise InputError(f"{str(path)!r} is a folder", field="output", value=str(path),
+                         expected=f"a file name ending in {', '.join(OUTPUT_SUFFIXES)}")
+    if any(Path(given).is_file() and target.resolve() == Path(given).resolve() for given in inputs):
+        raise InputError(f"{str(path)!r} is the line list being read", field="output", value=str(path),
+                         expected="another file name: an output never overwrites its input")
     if target.suffix.lower() not in WRITERS:
         raise InputError(f"cannot tell what to write to {str(path)!r} from its extension", field="output",
                          value=str(path), expected=f"a file ending in {', '.join(OUTPUT_SUFFIXES)}")
@@ -67,7 +74,7 @@ def write_run(path: str | Path, run: Run) -> Path:
 
     :raises InputError: (field "output") an unknown extension, a missing folder, a file that cannot be written
     """
-    target = check_output(path)
+    target = check_output(path, [run.line_list.source])
     try:
         WRITERS[target.suffix.lower()](target, run)
     except OSError as exc:

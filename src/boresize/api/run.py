@@ -209,9 +209,8 @@ def _from_text(text: str | bytes, source: str, parse_csv: Callable[[str, str], L
 
 def _read(lines: LineSource, units_row: bool | None) -> tuple[LineList, Sequence[Any], tuple[tuple[Cells, ...], ...] | None]:
     """(the line list, the lines to size, each line's rows' cells) from any line source."""
-    if isinstance(lines, Line) or (isinstance(lines, (list, tuple)) and lines
-                                   and all(isinstance(v, (Line, list, tuple)) for v in lines)):
-        given = [lines] if isinstance(lines, Line) else list(lines)
+    given = _given_lines(lines)
+    if given is not None:
         items = [checked_item(value, i) for i, value in enumerate(given, start=1)]
         return LineList(rows=[], units={}, source="<lines>"), items, None
     from boresize.io.line_items import line_items
@@ -219,6 +218,24 @@ def _read(lines: LineSource, units_row: bool | None) -> tuple[LineList, Sequence
     line_list = read_lines(lines, units_row)
     read = line_items(line_list.pairs())
     return line_list, read.items, read.cells
+
+
+def _given_lines(lines: object) -> list[Any] | None:
+    """Lines (and lists of one line's cases) from a Line or any iterable of them, generators included; None when
+    ``lines`` is something else to read (a path, a file, a DataFrame, a LineList).
+
+    :raises InputError: (field "lines") an empty iterable: nothing to size
+    """
+    if isinstance(lines, Line):
+        return [lines]
+    if isinstance(lines, (str, bytes, Path, LineList)) or hasattr(lines, "read") or hasattr(lines, "columns") \
+            or not isinstance(lines, Iterable):
+        return None
+    given = list(lines)
+    if not given:
+        raise InputError("no lines given", field="lines", value="[]",
+                         expected="one or more Lines from make_line(), or a line list to read")
+    return given if all(isinstance(v, (Line, list, tuple)) for v in given) else None
 
 
 def _with_cells(result: LineResult, cells: Sequence[Cells]) -> LineResult:

@@ -48,8 +48,8 @@ def _workers(args: argparse.Namespace) -> int:
 
 
 def run_size(args: argparse.Namespace) -> int:
-    outputs = [api.check_output(path) for path in args.output]
     lines = _lines(args)
+    outputs = [api.check_output(path, [lines] if isinstance(lines, str) else []) for path in args.output]
     roughness = api.roughness_value(args.corroded_roughness, "corroded-roughness") if args.corroded_roughness \
         else None
     run = api.run_lines(lines, args.criteria, workers=_workers(args), every_size=args.every_size,

@@ -90,6 +90,9 @@ def read_toml(path: str | Path) -> dict[str, Any]:
     except OSError as exc:
         raise CriteriaFileError(f"cannot read {path}: {exc.strerror}", field="criteria", value=str(path),
                                 expected="a readable TOML file") from exc
+    except UnicodeDecodeError as exc:  # TOML is UTF-8 text; tomllib decodes before it parses
+        raise CriteriaFileError(f"{path} is not UTF-8 text", field="criteria", value=str(path),
+                                expected="a TOML file saved as UTF-8") from exc
     except tomllib.TOMLDecodeError as exc:
         raise CriteriaFileError(f"{path} is not valid TOML: {exc}", field="criteria", value=str(path),
                                 expected="a TOML file with [service.NAME] and [pipe_class.NAME] tables") from exc
