@@ -9,6 +9,7 @@ import fluids.fittings as ff
 import pytest
 from fluids.friction import friction_factor as fluids_friction_factor
 from fluids.friction import ft_Crane
+import fluids.friction as ff_friction
 from fluids.piping import nearest_pipe
 
 from boresize.errors import InputError
@@ -29,7 +30,7 @@ from boresize.model import Candidate, Flow, FluidState, Line
 # Our kind -> the row of fluids.fittings.Darby holding the constants of Silverberg & Darby, Chem. Eng. 1999.
 DARBY_ROWS = {
     "elbow-90-sr": "Elbow, 90°, flanged, welded, bends, (r/D = 1)",
-    "elbow-90-lr": "Elbow, 90°, threaded, long radius, (r/D = 1.5)",
+    "elbow-90-lr-threaded": "Elbow, 90°, threaded, long radius, (r/D = 1.5)",
     "elbow-90-threaded": "Elbow, 90°, threaded, standard, (r/D = 1)",
     "bend-90-2d": "Elbow, 90°, (r/D = 2)",
     "bend-90-4d": "Elbow, 90°, (r/D = 4)",
@@ -61,7 +62,8 @@ DARBY_ROWS = {
 # plug valve, full line size" serves all three; fluids files the "tee used as elbow" rows under "Elbow, ...".
 HOOPER_ROWS = {
     "elbow-90-sr": "Elbow, 90°, Standard (R/D = 1), Flanged/welded",
-    "elbow-90-lr": "Elbow, 90°, Long-radius (R/D = 1.5), All types",
+    "elbow-90-lr-welded": "Elbow, 90°, Long-radius (R/D = 1.5), All types",
+    "elbow-90-lr-threaded": "Elbow, 90°, Long-radius (R/D = 1.5), All types",
     "elbow-90-threaded": "Elbow, 90°, Standard (R/D = 1), Screwed",
     "elbow-90-mitre-1": "Elbow, 90°, Mitered (R/D = 1.5), 1 weld (90° angle)",
     "elbow-90-mitre-2": "Elbow, 90°, Mitered (R/D = 1.5), 2 weld (45° angle)",
@@ -144,17 +146,17 @@ def test_crane_valves_are_ft_times_l_over_d(kind):
         di = nearest_pipe(NPS=nps, schedule="40")[1]
         k, method = fitting_k(kind, "crane", 1e5, di, nps)
         assert method == "crane"
-        assert k == pytest.approx(CRANE_VALVES[kind](di, crane_ft(di)), rel=1e-9)
+        assert k == pytest.approx(CRANE_VALVES[kind](di, crane_ft(nps)), rel=1e-9)
 
 
 def test_crane_elbows_entrances_exit():
     di = nearest_pipe(NPS=4, schedule="40")[1]
-    ft = crane_ft(di)
+    ft = crane_ft(4.0)
     # Crane TP-410: standard 90 deg elbow 30 fT, 45 deg elbow 16 fT, close return bend 50 fT, tee run 20 fT,
     # tee branch 60 fT, bends r/d 1.5 -> 14 fT, 2 -> 12 fT, 4 -> 14 fT, 6 -> 17 fT; mitre 90 deg 60 fT, 45 deg 15 fT
     # (fluids.fittings bend_rounded_Crane_fds and bend_miter_Crane_fds hold the same table).
     expected = {"elbow-90-sr": 30, "elbow-45-sr": 16, "return-bend": 50, "tee-run": 20, "tee-branch": 60,
-                "elbow-90-lr": 14, "bend-90-2d": 12, "bend-90-4d": 14, "bend-90-6d": 17, "elbow-90-mitre-1": 60,
+                "elbow-90-lr-welded": 14, "bend-90-2d": 12, "bend-90-4d": 14, "bend-90-6d": 17, "elbow-90-mitre-1": 60,
                 "elbow-45-mitre": 15}
     for kind, ld in expected.items():
         assert fitting_k(kind, "crane", 1e5, di, 4.0)[0] == pytest.approx(ld * ft, rel=1e-12), kind
@@ -167,13 +169,37 @@ def test_crane_elbows_entrances_exit():
     assert fitting_k("exit", "crane", 1e5, di, 4.0)[0] == ff.exit_normal()
 
 
-def test_crane_ft_follows_the_crane_table():
-    # Crane TP-410M example 7-2 takes fT = 0.015 for 150 mm (NPS 6) Sch 40 pipe.
-    assert round(crane_ft(nearest_pipe(NPS=6, schedule="40")[1]), 3) == 0.015
-    # And within 2 % of fluids' ft_Crane, a fit that reproduces Crane's printed table, NPS 1/2 to 24.
-    for nps in (0.5, 1, 2, 3, 4, 6, 8, 12, 16, 24):
-        di = nearest_pipe(NPS=nps, schedule="40")[1]
-        assert crane_ft(di) == pytest.approx(ft_Crane(di), rel=0.02)
+# fluids.friction.Crane_fts_nominal_Ds are nominal DN [m]; the NPS of each (ASME B36.10M), for the table check.
+DN_TO_NPS = {0.015: 0.5, 0.02: 0.75, 0.025: 1.0, 0.032: 1.25, 0.04: 1.5, 0.05: 2.0, 0.065: 2.5, 0.08: 3.0,
+             0.1: 4.0, 0.125: 5.0, 0.15: 6.0, 0.2: 8.0, 0.25: 10.0, 0.35: 14.0, 0.4: 16.0, 0.55: 22.0,
+             0.6: 24.0, 0.9: 36.0}
+
+
+def test_crane_ft_is_the_crane_table_value_by_value():
+    # Crane TP-410 (2009 and later editions), "pipe friction data for clean commercial steel pipe with flow in
+    # zone of complete turbulence", as digitised in fluids.friction.Crane_fts (one value per nominal size).
+    assert len(ff_friction.Crane_fts) == len(ff_friction.Crane_fts_nominal_Ds) == len(DN_TO_NPS)
+    for dn, ft in zip(ff_friction.Crane_fts_nominal_Ds, ff_friction.Crane_fts, strict=True):
+        assert crane_ft(DN_TO_NPS[dn]) == ft, dn
+    # Crane TP-410M example 7-2 takes fT = 0.015 for 150 mm (NPS 6) pipe.
+    assert crane_ft(6.0) == 0.015
+    # fluids' ft_Crane, a fit that reproduces the printed table when rounded, agrees at each printed size.
+    for dn, nps in DN_TO_NPS.items():
+        di = ff_friction.Crane_fts_Ds[ff_friction.Crane_fts_nominal_Ds.index(dn)]
+        assert round(ft_Crane(di), 3) == crane_ft(nps), nps
+
+
+def test_crane_ft_between_and_outside_the_printed_sizes():
+    # Crane prints ranges 10-14, 16-22, 24-36 in: sizes inside take the range's value; a size between two
+    # printed ones takes the smaller size's (higher) value; above 36 in, the 36 in value.
+    assert [crane_ft(n) for n in (12.0, 18.0, 20.0, 30.0, 3.5, 42.0)] == [0.013, 0.012, 0.012, 0.011, 0.017, 0.011]
+    # Below 1/2 in: Crane's formula 0.25 / log10(e/3.7D)^2, e = 0.0018 in, at the bore, no less than the 1/2 in value.
+    di = nearest_pipe(NPS=0.25, schedule="40")[1]
+    assert crane_ft(0.25, di) == pytest.approx(0.25 / math.log10(0.0018 * INCH / (3.7 * di)) ** 2, rel=1e-12)
+    assert crane_ft(0.25, di) > crane_ft(0.5)
+    assert crane_ft(0.125, 1.0) == 0.026  # a bore too large for the size: never below the 1/2 in value
+    with pytest.raises(InputError, match=r"^nps: NPS 0.25 is below Crane's fT table; expected the inside diameter"):
+        crane_ft(0.25)
 
 
 def test_crane_example_7_2_kv_to_k_and_l_over_d():
@@ -206,10 +232,10 @@ def test_reducers_follow_crane(beta, angle):
 
 def test_explicit_items_and_counts():
     di, f = 0.10226, 0.02
-    loss = fittings_loss(parse_fittings("K=2.5: 2; Leq=12 m; Leq=40 ft; L/D=340; elbow-90-lr: 4"), None,
+    loss = fittings_loss(parse_fittings("K=2.5: 2; Leq=12 m; Leq=40 ft; L/D=340; elbow-90-lr-threaded: 4"), None,
                          reynolds=1e5, inside_diameter=di, nps=4.0)
-    darby_lr = ff.Darby3K(NPS=4.0, Re=1e5, name=DARBY_ROWS["elbow-90-lr"])  # Silverberg & Darby 1999
-    assert loss.k_total == pytest.approx(5.0 + 340 * crane_ft(di) + 4 * darby_lr, rel=1e-9)
+    darby_lr = ff.Darby3K(NPS=4.0, Re=1e5, name=DARBY_ROWS["elbow-90-lr-threaded"])  # Silverberg & Darby 1999
+    assert loss.k_total == pytest.approx(5.0 + 340 * 0.016 + 4 * darby_lr, rel=1e-9)  # fT 0.016 at NPS 4 (Crane)
     assert loss.equivalent_length == pytest.approx(12.0 + 40 * 0.3048, rel=1e-12)  # 1 ft = 0.3048 m (exact)
     # Equivalent length adds f Leq/D velocity heads (Darcy-Weisbach).
     assert loss.drop(f, 1000.0, 2.0, di) == pytest.approx((loss.k_total + f * loss.equivalent_length / di) * 2000.0)
@@ -232,7 +258,7 @@ def test_unknown_kind_lists_the_valid_ones():
 
 
 def test_bad_explicit_items_and_methods_name_the_field():
-    with pytest.raises(InputError, match=r"^fittings: K 'x' in 'k=x' is not a number above zero"):
+    with pytest.raises(InputError, match=r"^fittings: K 'x' in 'k=x' is not a number; expected items 'KIND"):
         fittings_loss([("k=x", 1.0)], None, reynolds=1e5, inside_diameter=0.1, nps=4.0)
     with pytest.raises(InputError, match=r"^fittings: beta 1.2 or angle 180 deg out of range in 'contraction\(1.2\)'"):
         fittings_loss([("contraction(1.2)", 1.0)], None, reynolds=1e5, inside_diameter=0.1, nps=4.0)
@@ -258,7 +284,7 @@ def test_crane_example_7_15_pump_system_total_head():
     rho = 62.298 * 0.45359237 / FT**3
     _, di, do, wall = nearest_pipe(NPS=3, schedule="40")
     di_valve = nearest_pipe(NPS=2.5, schedule="40")[1]
-    k_check = ff.K_lift_check_valve_Crane(D1=di_valve, D2=di, fd=crane_ft(di), angled=False)  # Crane A-27 formula
+    k_check = ff.K_lift_check_valve_Crane(D1=di_valve, D2=di, fd=crane_ft(3.0), angled=False)  # Crane A-27 formula
     line = Line(tag="7-15", fluid="water", flow=Flow("volume", 100 * 3.785411784e-3 / 60), pressure=5e5,
                 temperature=294.26, length=500 * FT, elevation=400 * FT, fittings_method="crane",
                 fittings=(("exit", 1.0), ("gate", 1.0), ("elbow-90-sr", 4.0), (f"k={k_check}", 1.0)))
@@ -288,11 +314,11 @@ def _independent_drops(sizer, result, k_names):
 
 
 def test_fittings_elevation_allowances_and_outlet_pressure_through_the_engine(sizer):
-    row = _water_line(fittings="elbow-90-lr: 6; gate: 2; check-swing", elevation="15 m", fixed_drop="0.4 bar",
-                      min_outlet_pressure="2 barg", design_margin="0 %")
+    row = _water_line(fittings="elbow-90-lr-threaded: 6; gate: 2; check-swing", elevation="15 m",
+                      fixed_drop="0.4 bar", min_outlet_pressure="2 barg", design_margin="0 %")
     result = sizer.run(line_from_row(row))
     h = result.selected.hydraulics
-    friction, fittings = _independent_drops(sizer, result, [(DARBY_ROWS["elbow-90-lr"], 6),
+    friction, fittings = _independent_drops(sizer, result, [(DARBY_ROWS["elbow-90-lr-threaded"], 6),
                                                              (ff.DARBY_GATE_VALVE, 2), (ff.DARBY_SWING_CHECK_VALVE, 1)])
     static = result.state.density * 9.80665 * 15.0  # standard gravity (CGPM 1901)
     assert (h.drop, h.fittings_drop) == (pytest.approx(friction, rel=1e-5), pytest.approx(fittings, rel=1e-5))
@@ -330,3 +356,72 @@ def test_outlet_pressure_drop_allowance_and_not_applicable(sizer):
     assert verdict.reason.startswith("total drop ") and "above the allowance 1.5 bar" in verdict.reason
     _, none = _outlet_verdict(sizer)
     assert none.status == "not-applicable"
+
+
+def test_welded_and_threaded_elbows_are_separate_kinds():
+    di, nps, re = nearest_pipe(NPS=4, schedule="40")[1], 4.0, 1e5
+    # Darby 3-K (Silverberg & Darby 1999, fluids.fittings.Darby) prints the threaded r/D 1.5 elbow and the
+    # flanged/welded r/D 1 elbow with their own constants; it prints no flanged/welded r/D 1.5 row.
+    assert KINDS["elbow-90-lr-threaded"].darby == ff.Darby["Elbow, 90°, threaded, long radius, (r/D = 1.5)"]
+    assert KINDS["elbow-90-sr"].darby == ff.Darby["Elbow, 90°, flanged, welded, bends, (r/D = 1)"]
+    assert KINDS["elbow-90-threaded"].darby == ff.Darby["Elbow, 90°, threaded, standard, (r/D = 1)"]
+    assert KINDS["elbow-90-lr-welded"].darby is None
+    # Hooper 2-K (Hooper 1981, fluids.fittings.Hooper): screwed vs flanged/welded standard elbows differ; its
+    # long-radius row is "all types".
+    assert KINDS["elbow-90-threaded"].hooper == ff.Hooper["Elbow, 90°, Standard (R/D = 1), Screwed"]
+    assert KINDS["elbow-90-sr"].hooper == ff.Hooper["Elbow, 90°, Standard (R/D = 1), Flanged/welded"]
+    # Under Darby a welded long-radius elbow takes Hooper's constants, and the record names them.
+    welded = fittings_loss([("elbow-90-lr-welded", 1.0)], "darby-3k", reynolds=re, inside_diameter=di, nps=nps)
+    assert welded.k_total == pytest.approx(
+        ff.Hooper2K(Di=di / INCH, Re=re, name="Elbow, 90°, Long-radius (R/D = 1.5), All types"), rel=1e-9)
+    assert welded.method.endswith("; elbow-90-lr-welded by Hooper 2-K (Hooper, Chem. Eng. 1981)")
+    threaded = fittings_loss([("elbow-90-lr-threaded", 1.0)], "darby-3k", reynolds=re, inside_diameter=di, nps=nps)
+    assert threaded.k_total == pytest.approx(
+        ff.Darby3K(NPS=nps, Re=re, name="Elbow, 90°, threaded, long radius, (r/D = 1.5)"), rel=1e-9)
+    assert threaded.k_total != welded.k_total
+    # Crane: 14 fT for the flanged or butt-welding r/D 1.5 elbow (fluids bend_rounded_Crane_fds); Crane has
+    # no threaded long-radius elbow, so Darby's threaded constants serve and the record says so.
+    assert fitting_k("elbow-90-lr-welded", "crane", re, di, nps) == (pytest.approx(14 * 0.016, rel=1e-12), "crane")
+    assert fitting_k("elbow-90-lr-threaded", "crane", re, di, nps)[1] == "darby-3k"
+
+
+def test_the_old_kind_names_still_work_as_documented():
+    # elbow-90-lr is the welded long-radius elbow; elbow-90 the welded standard one.
+    for old, new in (("elbow-90-lr", "elbow-90-lr-welded"), ("elbow-90", "elbow-90-sr"),
+                     ("elbow-90-sr-threaded", "elbow-90-threaded"), ("elbow-90-sr-welded", "elbow-90-sr")):
+        for method in ("darby-3k", "hooper-2k", "crane"):
+            assert fitting_k(old, method, 1e5, 0.10226, 4.0) == fitting_k(new, method, 1e5, 0.10226, 4.0)
+
+
+@pytest.mark.parametrize(("fittings", "message"), [
+    ([("leq=-12 m", 1.0)], "fittings: Leq '-12 m' in 'leq=-12 m' is not above zero: a fitting adds to the drop and "
+                           "cannot credit the line; expected an equivalent length above zero with its unit, "
+                           "e.g. 'Leq=12 m'"),
+    ([("leq=0 ft", 1.0)], "fittings: Leq '0 ft' in 'leq=0 ft' is not above zero: a fitting adds to the drop and "
+                          "cannot credit the line; expected an equivalent length above zero with its unit, "
+                          "e.g. 'Leq=12 m'"),
+    ([("k=-2.5", 1.0)], "fittings: K '-2.5' in 'k=-2.5' is not above zero: a fitting adds to the drop and cannot "
+                        "credit the line; expected a loss coefficient K above zero, e.g. 'K=2.5'"),
+    ([("l/d=-30", 1.0)], "fittings: L/D '-30' in 'l/d=-30' is not above zero: a fitting adds to the drop and "
+                         "cannot credit the line; expected an equivalent length ratio L/D above zero, "
+                         "e.g. 'L/D=340'"),
+    ([("gate", -2.0)], "fittings: count -2.0 of 'gate' is not above zero: a fitting adds to the drop and cannot "
+                       "credit the line; expected a count above zero, e.g. 'gate: 2'"),
+    ([("k=2", math.nan)], "fittings: count nan of 'k=2' is not above zero: a fitting adds to the drop and cannot "
+                          "credit the line; expected a count above zero, e.g. 'gate: 2'"),
+])
+def test_fittings_that_would_credit_the_line_are_refused(fittings, message):
+    with pytest.raises(InputError) as info:
+        fittings_loss(fittings, None, reynolds=1e5, inside_diameter=0.1, nps=4.0)
+    assert str(info.value) == message
+    assert (info.value.field, info.value.value) == ("fittings", fittings[0][0])
+
+
+def test_a_negative_equivalent_length_in_a_line_list_is_refused():
+    # Through the line-list parser and the whole line: the error, not a smaller drop.
+    line = Line(tag="N-1", fluid="water", flow=Flow("mass", 10.0), pressure=5e5, temperature=293.15, length=50.0,
+                fittings=parse_fittings("gate; Leq=-12 m"))
+    state = FluidState(density=998.0, viscosity=1e-3, phase="liquid", source="table", model="water")
+    pipe = Candidate("3", 3.0, "40", 0.0889, 0.00549, 0.07792, 4.5e-5)
+    with pytest.raises(InputError, match=r"^fittings: Leq '-12 m' in 'leq=-12 m' is not above zero"):
+        rate_line(line, state, pipe, 10.0)

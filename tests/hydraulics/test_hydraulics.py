@@ -18,6 +18,7 @@ from boresize.hydraulics import (
     exact_diameter,
     laminar,
     rate_pipe,
+    regime_text,
     reynolds,
     swamee_jain,
     swamee_jain_diameter,
@@ -106,7 +107,7 @@ def test_swamee_jain_friction_factor_matches_fluids() -> None:
 # --- regimes and errors --------------------------------------------------------------------
 
 
-@pytest.mark.parametrize("re", [1e-3, 1.0, 500.0, 2099.999])
+@pytest.mark.parametrize("re", [1e-3, 1.0, 500.0, 1999.999])
 def test_laminar_is_hagen_poiseuille(re: float) -> None:
     # Hagen-Poiseuille, f = 64/Re (fluids.friction.friction_laminar).
     assert laminar(re) == pytest.approx(ff.friction_laminar(re), rel=1e-15)
@@ -114,20 +115,62 @@ def test_laminar_is_hagen_poiseuille(re: float) -> None:
 
 
 def test_regime_boundaries() -> None:
-    # Limits 2100 / 4000: common practice.
-    assert darcy_friction_factor(2099.999, 0.0)[1] == "laminar"
-    assert darcy_friction_factor(2100.0, 0.0)[1] == "transition"
+    # The critical zone of Moody's chart (L. F. Moody, Trans. ASME 66, 1944): Re 2000 to 4000.
+    assert darcy_friction_factor(1999.999, 0.0)[1] == "laminar"
+    assert darcy_friction_factor(2000.0, 0.0)[1] == "transition"
     assert darcy_friction_factor(3999.999, 0.0)[1] == "transition"
     assert darcy_friction_factor(4000.0, 0.0)[1] == "turbulent"
+    # The band's lower end is below the onset of turbulence fluids takes from Avila et al., Science 333 (2011).
+    assert hydraulics.LAMINAR_LIMIT < ff.LAMINAR_TRANSITION_PIPE == 2040.0
 
 
-@pytest.mark.parametrize("re", [2100.0, 3000.0, 3999.0])
-def test_transition_uses_colebrook_and_is_conservative(re: float) -> None:
-    # fluids.friction.Colebrook at the same Re, which exceeds 64/Re (Hagen-Poiseuille) there.
-    f, regime = darcy_friction_factor(re, 1e-4)
-    assert regime == "transition"
-    assert f == pytest.approx(ff.Colebrook(re, 1e-4), rel=1e-9)
-    assert f > 64.0 / re
+TRANSITION_SWEEP = [2000.0 + 25.0 * i for i in range(80)] + [3999.999]  # Re 2000 to 4000
+
+
+@pytest.mark.parametrize("rel_roughness", ROUGHNESS_SWEEP)
+def test_transition_takes_the_larger_of_laminar_and_colebrook(rel_roughness: float) -> None:
+    # Against the fluids library computed here: its laminar factor (friction_factor Method="laminar",
+    # Hagen-Poiseuille 64/Re) and its Colebrook (fluids.friction.Colebrook, the 1939 equation).
+    for re in TRANSITION_SWEEP:
+        f, regime = darcy_friction_factor(re, rel_roughness)
+        lam = ff.friction_factor(Re=re, eD=rel_roughness, Method="laminar")
+        turb = ff.Colebrook(re, rel_roughness)
+        assert regime == "transition"
+        assert f == pytest.approx(max(lam, turb), rel=1e-9), re
+        # Conservative: no point in the band below either curve, nor below fluids' own pick there
+        # (friction_factor's default, laminar below Re 2040 and Clamond's Colebrook solution above).
+        assert f >= lam and f >= turb * (1 - 1e-12), re
+        assert f >= ff.friction_factor(Re=re, eD=rel_roughness) * (1 - 1e-12), re
+
+
+@pytest.mark.parametrize("rel_roughness", ROUGHNESS_SWEEP)
+def test_the_factor_never_falls_as_re_drops_through_the_band(rel_roughness: float) -> None:
+    # From the turbulent side down to the band's lower end, f at fixed e/D only rises as Re falls: no
+    # jump down at any Re a flow may be turbulent (the old 2100 switch fell by a factor of 1.6 there).
+    sweep = [4000.0 + 100.0 * i for i in range(5, -1, -1)] + sorted(TRANSITION_SWEEP, reverse=True)
+    factors = [darcy_friction_factor(re, rel_roughness)[0] for re in sweep]
+    assert all(lower >= higher for higher, lower in zip(factors, factors[1:]))
+    assert darcy_friction_factor(4000.0, rel_roughness)[0] == pytest.approx(ff.Colebrook(4000.0, rel_roughness),
+                                                                          rel=1e-9)
+
+
+def test_regime_text_says_which_factor_and_why() -> None:
+    assert regime_text("laminar") == "laminar friction factor 64/Re (Re below 2000)"
+    assert regime_text("transition") == (
+        "transition (Re 2000-4000, Moody's critical zone, where the flow may be laminar or turbulent): the larger "
+        "of 64/Re and Colebrook, here Colebrook, so the drop errs on the safe side")
+    assert regime_text("turbulent") == "Colebrook friction factor"
+    # A line in the band says so in its method text (what reaches the record's drop_method).
+    from boresize.hydraulics.line import rate_line
+    from boresize.model import Candidate, Flow, FluidState, Line
+
+    state = FluidState(density=870.0, viscosity=0.02, phase="liquid", source="table", model="oil")
+    pipe = Candidate("5", 5.0, "40", 0.1413, 0.00655, 0.1282, 4.5e-5)
+    line = Line(tag="T-1", fluid="oil", flow=Flow("mass", 0.2), pressure=5e5, temperature=300.0, length=100.0)
+    for mass_flow, regime in ((2.0, "laminar"), (6.0, "transition"), (20.0, "turbulent")):  # Re 990, 2980, 9930
+        hyd = rate_line(line, state, pipe, mass_flow)
+        assert hyd.regime == regime, mass_flow
+        assert hyd.method == f"incompressible Darcy-Weisbach, {regime_text(regime)}; no fittings"
 
 
 @pytest.mark.parametrize("bad", [0.0, -1.0, math.nan, math.inf])
@@ -263,13 +306,13 @@ def test_swamee_jain_diameter_is_a_first_guess_for_water(flow: float, target: fl
 
 
 def test_exact_diameter_in_the_laminar_turbulent_jump() -> None:
-    # A target between the laminar (Hagen-Poiseuille) and Colebrook drops at Re = 2100 has no
-    # exact solution; the diameter at Re = 2100 (definition of Re) is returned.
+    # A target between the laminar (Hagen-Poiseuille) and Colebrook drops at Re = 2000 has no
+    # exact solution; the diameter at Re = 2000 (definition of Re) is returned.
     rho, mu, flow, rough = 870.0, 0.05, 0.01, 4.5e-5
-    d_jump = 4 * rho * flow / (math.pi * 2100.0 * mu)
+    d_jump = 4 * rho * flow / (math.pi * 2000.0 * mu)
     v = flow / (math.pi / 4 * d_jump**2)
-    dp_laminar = ff.friction_laminar(2100.0) / d_jump * rho * v * v / 2
-    dp_colebrook = ff.Colebrook(2100.0, rough / d_jump) / d_jump * rho * v * v / 2
+    dp_laminar = ff.friction_laminar(2000.0) / d_jump * rho * v * v / 2
+    dp_colebrook = ff.Colebrook(2000.0, rough / d_jump) / d_jump * rho * v * v / 2
     target = 0.5 * (dp_laminar + dp_colebrook)
     assert exact_diameter(flow, target, rho, mu, rough) == pytest.approx(d_jump, rel=1e-9)
 
@@ -294,4 +337,4 @@ def test_public_api() -> None:
         "rate_pipe", "swamee_jain_diameter", "exact_diameter",
     }
     assert all(hasattr(hydraulics, name) for name in hydraulics.__all__)
-    assert (hydraulics.LAMINAR_LIMIT, hydraulics.TURBULENT_LIMIT) == (2100.0, 4000.0)
+    assert (hydraulics.LAMINAR_LIMIT, hydraulics.TURBULENT_LIMIT) == (2000.0, 4000.0)

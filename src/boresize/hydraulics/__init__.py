@@ -11,6 +11,7 @@ from boresize.hydraulics.friction import (
     colebrook,
     darcy_friction_factor,
     laminar,
+    regime_text,
     swamee_jain,
 )
 
@@ -22,6 +23,7 @@ __all__ = [
     "laminar",
     "swamee_jain",
     "darcy_friction_factor",
+    "regime_text",
     "flow_area",
     "velocity",
     "reynolds",

@@ -131,7 +131,7 @@ def _point(pipe: _Pipe, p: float, t: float) -> _Point | None:
 
 
 def _friction(pipe: _Pipe, state: FluidState) -> float:
-    """The fixed friction factor, or Colebrook's at the state's Reynolds number G D / mu [-]."""
+    """The fixed friction factor, or darcy_friction_factor's at the state's Reynolds number G D / mu [-]."""
     if pipe.friction_factor is not None:
         return pipe.friction_factor
     return darcy_friction_factor(pipe.flux * pipe.diameter / state.viscosity, pipe.roughness / pipe.diameter)[0]
@@ -227,7 +227,7 @@ def march_gas_line(p_in: float, t_in: float, mass_flow: float, diameter: float, 
     :param properties: the EOS along the line, (p [Pa abs], T [K]) -> FluidState
     :param model: ``isothermal`` or ``adiabatic``
     :param elevation: outlet minus inlet elevation [m], spread evenly over ``length``
-    :param friction_factor: a fixed Darcy friction factor [-]; None re-evaluates Colebrook per point
+    :param friction_factor: a fixed Darcy friction factor [-]; None re-evaluates it per point by regime
     :raises InputError: unknown model, or adiabatic without a speed of sound
     """
     if model not in MODELS:

@@ -79,9 +79,9 @@ def exact_diameter(
 
     Solved with Brent's method on D, bracketed around :func:`swamee_jain_diameter`. The
     friction factor is boresize's own (:func:`~boresize.hydraulics.friction.darcy_friction_factor`:
-    exact Colebrook for Re >= 2100, 64/Re below), so the result agrees with
+    64/Re below Re 2000, the larger of 64/Re and exact Colebrook above), so the result agrees with
     :func:`~boresize.hydraulics.darcy.rate_pipe`. If the target falls in the jump of f at
-    Re = 2100, the diameter of that jump is returned (the smallest D whose drop does not
+    Re = 2000, the diameter of that jump is returned (the smallest D whose drop does not
     exceed the target).
 
     :param volume_flow: actual volume flow [m3/s], > 0

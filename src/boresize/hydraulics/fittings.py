@@ -8,7 +8,8 @@ Three published methods, chosen per line (``fittings_method``):
 - ``hooper-2k``: K = K1/Re + Kinf (1 + 1 in / D), D the inside diameter [in]. Constants from
   W. B. Hooper, "The 2-K method predicts head losses in pipe fittings", Chem. Eng., Aug. 24 1981, p. 97.
 - ``crane``: K = fT L/D, fT the fully turbulent friction factor of clean commercial steel of the
-  fitting's size and L/D the equivalent length ratio of Crane Co., Technical Paper 410 (TP-410).
+  fitting's nominal size as tabulated by Crane (:func:`crane_ft`) and L/D the equivalent length ratio of
+  Crane Co., Technical Paper 410 (TP-410).
 
 A kind the chosen method has no constants for takes the first of Darby, Hooper, Crane that has
 them, and the record says so. Entrances, the exit and reducers are geometric losses taken from
@@ -16,9 +17,14 @@ Crane TP-410 under every method.
 
 Fittings text (the ``fittings`` column), items separated by ``;`` or ``|``, each ``SPEC[: COUNT]``:
 
-- a kind from :data:`KINDS`, e.g. ``elbow-90-lr: 4; gate: 2; check-swing``
+- a kind from :data:`KINDS`, e.g. ``elbow-90-lr-welded: 4; gate: 2; check-swing``. Elbows come welded
+  (flanged or butt-welding) or threaded, each with its own published constants: ``elbow-90-sr`` (welded) and
+  ``elbow-90-threaded``, ``elbow-90-lr-welded`` and ``elbow-90-lr-threaded``; ``elbow-90-lr`` is the welded
+  long-radius elbow (the process-plant fitting from NPS 2 up)
 - ``K=2.5``: a loss coefficient given directly, referred to the line's velocity
 - ``Leq=12 m``: an equivalent length of pipe (unit required: m, ft ...); friction factor of the line
+
+Every K, equivalent length and count must be above zero: a fitting adds to the drop, never credits it.
 - ``L/D=340``: an equivalent length ratio, K = fT L/D (Crane)
 - ``Kv=500`` [m3/h] or ``Cv=580`` [US gal/min]: a line-size valve's flow coefficient, K by Crane TP-410
 - ``contraction(0.6)`` / ``contraction(0.6, 30)``: the line flows into a smaller bore, beta = smaller
@@ -30,15 +36,25 @@ Fittings text (the ``fittings`` column), items separated by ``;`` or ``|``, each
 from __future__ import annotations
 
 import math
+import numbers
 import re
 from collections.abc import Iterable
 from dataclasses import dataclass
 
 from boresize.errors import InputError
+from boresize.hydraulics.crane import (
+    CRANE_FT_TABLE,
+    CRANE_ROUGHNESS,
+    contraction_k,
+    crane_ft,
+    expansion_k,
+    k_from_cv,
+    k_from_kv,
+)
 
 __all__ = ["METHODS", "DEFAULT_METHOD", "KINDS", "FittingItem", "FittingsLoss", "normalise_method", "crane_ft",
            "darby_k", "hooper_k", "k_from_kv", "k_from_cv", "contraction_k", "expansion_k", "fitting_k",
-           "fittings_loss", "syntax_help"]
+           "fittings_loss", "syntax_help", "CRANE_FT_TABLE", "CRANE_ROUGHNESS"]
 
 METHODS = ("darby-3k", "hooper-2k", "crane")
 DEFAULT_METHOD = "darby-3k"
@@ -50,7 +66,6 @@ _SOURCES = {
     "crane": "Crane K = fT L/D (Crane TP-410)",
     "crane-geometry": "Crane TP-410",
 }
-CRANE_ROUGHNESS = 0.0018 * 0.0254  # clean commercial steel, 0.0018 in [m] (Crane TP-410)
 
 
 @dataclass(frozen=True)
@@ -65,9 +80,13 @@ class _Kind:
 
 
 KINDS: dict[str, _Kind] = {
-    "elbow-90-sr": _Kind("90 deg elbow, standard (r/D 1), welded", (800, 0.091, 4.0), (800, 0.25), 30),
-    "elbow-90-lr": _Kind("90 deg elbow, long radius (r/D 1.5)", (800, 0.071, 4.2), (800, 0.20), 14),
-    "elbow-90-threaded": _Kind("90 deg elbow, standard, threaded", (800, 0.14, 4.0), (800, 0.40), 30),
+    # Darby prints no flanged/welded r/D 1.5 elbow (its welded rows are r/D 1, 2, 4, 6): under darby-3k a welded
+    # long-radius elbow takes Hooper's "long radius, all types" and the record says so. Crane's 14 fT is its
+    # "flanged or butt-welding 90 deg elbow" r/D 1.5; Crane has no threaded long-radius elbow.
+    "elbow-90-sr": _Kind("90 deg elbow, standard (r/D 1), flanged or welded", (800, 0.091, 4.0), (800, 0.25), 30),
+    "elbow-90-lr-welded": _Kind("90 deg elbow, long radius (r/D 1.5), flanged or welded", None, (800, 0.20), 14),
+    "elbow-90-lr-threaded": _Kind("90 deg elbow, long radius (r/D 1.5), threaded", (800, 0.071, 4.2), (800, 0.20)),
+    "elbow-90-threaded": _Kind("90 deg elbow, standard (r/D 1), threaded", (800, 0.14, 4.0), (800, 0.40), 30),
     "bend-90-2d": _Kind("90 deg bend, r/D 2", (800, 0.056, 3.9), None, 12),
     "bend-90-4d": _Kind("90 deg bend, r/D 4", (800, 0.066, 3.9), None, 14),
     "bend-90-6d": _Kind("90 deg bend, r/D 6", (800, 0.075, 4.2), None, 17),
@@ -100,7 +119,8 @@ KINDS: dict[str, _Kind] = {
     "entrance-rounded": _Kind("pipe entrance, rounded (r/d >= 0.15)", crane_k=0.04),
     "exit": _Kind("pipe exit into a vessel", crane_k=1.0),
 }
-_ALIASES = {"elbow-90": "elbow-90-sr", "elbow-45": "elbow-45-sr"}
+_ALIASES = {"elbow-90": "elbow-90-sr", "elbow-45": "elbow-45-sr", "elbow-90-lr": "elbow-90-lr-welded",
+            "elbow-90-sr-welded": "elbow-90-sr", "elbow-90-sr-threaded": "elbow-90-threaded"}
 _EXPLICIT = re.compile(r"^(k|leq|l/d|kv|cv)\s*=\s*(.+)$")
 _REDUCER = re.compile(r"^(contraction|expansion)\s*\(\s*([^,()]+?)\s*(?:,\s*([^,()]+?)\s*)?\)$")
 
@@ -148,15 +168,6 @@ def normalise_method(method: str | None) -> str:
     return key
 
 
-def crane_ft(inside_diameter: float) -> float:
-    """Crane's fully turbulent friction factor fT = 0.25 / log10(e / 3.7 D)^2 for clean steel, e = 0.0018 in.
-
-    :param inside_diameter: [m]
-    :returns: Darcy friction factor [-] (Crane TP-410; about 0.015 for NPS 6)
-    """
-    return 0.25 / math.log10(CRANE_ROUGHNESS / (3.7 * inside_diameter)) ** 2
-
-
 def darby_k(k1: float, ki: float, kd: float, reynolds: float, nps: float) -> float:
     """Darby 3-K: K = K1/Re + Ki (1 + Kd / NPS^0.3). :param nps: nominal size [in]; Re [-]; returns K [-]."""
     k: float = k1 / reynolds + ki * (1.0 + kd / nps**0.3)  # float ** float is typed Any (it may be complex)
@@ -166,37 +177,6 @@ def darby_k(k1: float, ki: float, kd: float, reynolds: float, nps: float) -> flo
 def hooper_k(k1: float, kinf: float, reynolds: float, inside_diameter: float) -> float:
     """Hooper 2-K: K = K1/Re + Kinf (1 + 1/D_in). :param inside_diameter: [m]; Re [-]; returns K [-]."""
     return k1 / reynolds + kinf * (1.0 + 0.0254 / inside_diameter)
-
-
-def k_from_kv(kv: float, inside_diameter: float) -> float:
-    """K of a valve from its Kv [m3/h of water at 1 bar]: K = 1.6e9 D^4 / Kv^2, D [m] (Crane TP-410M)."""
-    return 1.6e9 * inside_diameter**4 / kv**2
-
-
-def k_from_cv(cv: float, inside_diameter: float) -> float:
-    """K of a valve from its Cv [US gal/min of water at 1 psi], with Kv = Cv / 1.156 (IEC 60534-1)."""
-    return k_from_kv(cv / 1.156, inside_diameter)
-
-
-def contraction_k(beta: float, angle: float = 180.0) -> float:
-    """Contraction K referred to the SMALLER bore (Crane TP-410): beta = d_small/d_large [-], angle [deg].
-
-    0.8 sin(a/2)(1 - b^2) up to 45 deg, else 0.5 (1 - b^2) sqrt(sin(a/2)).
-    """
-    half = math.radians(angle) / 2.0
-    if angle <= 45.0:
-        return 0.8 * math.sin(half) * (1.0 - beta**2)
-    return 0.5 * (1.0 - beta**2) * math.sqrt(math.sin(half))
-
-
-def expansion_k(beta: float, angle: float = 180.0) -> float:
-    """Expansion K referred to the SMALLER bore (Crane TP-410): beta = d_small/d_large [-], angle [deg].
-
-    2.6 sin(a/2)(1 - b^2)^2 up to 45 deg, else (1 - b^2)^2.
-    """
-    if angle <= 45.0:
-        return 2.6 * math.sin(math.radians(angle) / 2.0) * (1.0 - beta**2) ** 2
-    return (1.0 - beta**2) ** 2
 
 
 def _crane_ld(kind: _Kind, nps: float) -> float | None:
@@ -238,32 +218,53 @@ def _kind_terms(kind: str, method: str, inside_diameter: float, nps: float) -> t
             k1, kinf = data.hooper
             return k1, kinf * (1.0 + 0.0254 / inside_diameter), name
         if name == "crane" and crane_ld is not None:
-            return 0.0, crane_ft(inside_diameter) * crane_ld, name
+            return 0.0, crane_ft(nps, inside_diameter) * crane_ld, name
     raise AssertionError(f"fitting kind {kind!r} has no constants")  # pragma: no cover - table is complete
 
 
-def _number(text: str, spec: str, what: str) -> float:
+_CREDIT = "a fitting adds to the drop and cannot credit the line"
+_WHAT = {"k": ("K", "a loss coefficient K above zero, e.g. 'K=2.5'"),
+         "l/d": ("L/D", "an equivalent length ratio L/D above zero, e.g. 'L/D=340'"),
+         "kv": ("Kv", "a flow coefficient Kv above zero, e.g. 'Kv=500'"),
+         "cv": ("Cv", "a flow coefficient Cv above zero, e.g. 'Cv=580'"),
+         "beta": ("beta", "a diameter ratio beta above zero, e.g. 'contraction(0.6)'"),
+         "angle": ("angle", "an included angle above zero in deg, e.g. 'expansion(0.6, 20)'")}
+
+
+def _number(text: str, spec: str, key: str) -> float:
+    """The number ``text`` of item ``spec``; InputError unless it is finite and above zero."""
+    what, expected = _WHAT[key]
     try:
         value = float(text)
     except ValueError:
-        value = math.nan
+        raise InputError(f"{what} {text!r} in {spec!r} is not a number", field="fittings", value=spec,
+                         expected=syntax_help()) from None
     if not (math.isfinite(value) and value > 0.0):
-        raise InputError(f"{what} {text!r} in {spec!r} is not a number above zero", field="fittings",
-                         value=spec, expected=syntax_help())
+        raise InputError(f"{what} {text!r} in {spec!r} is not above zero: {_CREDIT}", field="fittings",
+                         value=spec, expected=expected)
     return value
 
 
-def _explicit(key: str, raw: str, spec: str, inside_diameter: float) -> tuple[float, float, str]:
+def _equivalent_length(raw: str, spec: str) -> float:
+    """The length [m] of a ``Leq=`` item; InputError unless it is above zero."""
+    from boresize.units import parse_quantity
+
+    length = parse_quantity(raw, "fittings", "length")
+    if not length > 0.0:
+        raise InputError(f"Leq {raw!r} in {spec!r} is not above zero: {_CREDIT}", field="fittings", value=spec,
+                         expected="an equivalent length above zero with its unit, e.g. 'Leq=12 m'")
+    return length
+
+
+def _explicit(key: str, raw: str, spec: str, inside_diameter: float, nps: float) -> tuple[float, float, str]:
     """(K, Leq [m], source) of a K=, Leq=, L/D=, Kv= or Cv= item."""
     if key == "leq":
-        from boresize.units import parse_quantity
-
-        return 0.0, parse_quantity(raw, "fittings", "length"), "given"
-    value = _number(raw, spec, key.upper() if key != "l/d" else "L/D")
+        return 0.0, _equivalent_length(raw, spec), "given"
+    value = _number(raw, spec, key)
     if key == "k":
         return value, 0.0, "given"
     if key == "l/d":
-        return crane_ft(inside_diameter) * value, 0.0, "crane"
+        return crane_ft(nps, inside_diameter) * value, 0.0, "crane"
     if key == "kv":
         return k_from_kv(value, inside_diameter), 0.0, "crane-geometry"
     return k_from_cv(value, inside_diameter), 0.0, "crane-geometry"
@@ -288,10 +289,13 @@ _PLANS_MAX = 4096
 
 
 def _term(spec: str, count: float, method: str, inside_diameter: float, nps: float) -> _Term:
+    if not (isinstance(count, numbers.Real) and math.isfinite(count) and count > 0.0):
+        raise InputError(f"count {count!r} of {spec!r} is not above zero: {_CREDIT}", field="fittings",
+                         value=spec, expected="a count above zero, e.g. 'gate: 2'")
     text = spec.strip().lower()
     explicit = _EXPLICIT.match(text)
     if explicit:
-        k, leq, source = _explicit(explicit.group(1), explicit.group(2).strip(), spec, inside_diameter)
+        k, leq, source = _explicit(explicit.group(1), explicit.group(2).strip(), spec, inside_diameter, nps)
         return spec, count, 0.0, k, leq, source
     reducer = _REDUCER.match(text)
     if reducer:

@@ -2,7 +2,14 @@
 
 ``colebrook`` solves the Colebrook-White equation exactly through the Wright omega function;
 ``darcy_friction_factor`` is what the rest of boresize calls: it picks the flow regime and
-returns the factor with the regime's name.
+returns the factor with the regime's name; ``regime_text`` says in words which factor a regime used.
+
+Regimes (the critical zone of L. F. Moody, "Friction factors for pipe flow", Trans. ASME 66 (1944) 671-684,
+also Crane TP-410's: flow there "may be either laminar or turbulent"): laminar below Re 2000, turbulent from
+Re 4000. In between the factor is not predictable, so boresize takes the larger of 64/Re and Colebrook: a drop
+check then errs on the safe side whichever the flow is. The band's lower end sits below the onset of sustained
+turbulence measured by K. Avila et al., "The onset of turbulence in pipe flow", Science 333 (2011) 192-196
+(Re about 2040), so no flow that may be turbulent is given the laminar factor.
 """
 
 from __future__ import annotations
@@ -22,14 +29,16 @@ __all__ = [
     "laminar",
     "swamee_jain",
     "darcy_friction_factor",
+    "regime_text",
+    "along_text",
 ]
 
 Regime = Literal["laminar", "transition", "turbulent"]
 
-LAMINAR_LIMIT = 2100.0
-"""Reynolds number below which pipe flow is taken as laminar [-] (common practice)."""
+LAMINAR_LIMIT = 2000.0
+"""Reynolds number below which pipe flow is taken as laminar [-] (lower end of Moody's 1944 critical zone)."""
 TURBULENT_LIMIT = 4000.0
-"""Reynolds number from which pipe flow is taken as fully turbulent [-] (common practice)."""
+"""Reynolds number from which pipe flow is taken as turbulent [-] (upper end of Moody's 1944 critical zone)."""
 
 _K = 2.0 / math.log(10.0)  # 1/sqrt(f) = -_K ln(...) is Colebrook's -2 log10(...)
 
@@ -140,10 +149,12 @@ def swamee_jain(reynolds: float, relative_roughness: float) -> float:
 def darcy_friction_factor(reynolds: float, relative_roughness: float) -> tuple[float, Regime]:
     """Darcy friction factor and flow regime for single-phase flow in a round pipe.
 
-    - Re < 2100: laminar, f = 64/Re.
-    - 2100 <= Re < 4000: transition. The flow may be laminar or turbulent and f is not
-      predictable; boresize uses the Colebrook value at that Re, which is larger than 64/Re
-      there, so a pressure-drop check errs on the safe side (common practice).
+    - Re < 2000: laminar, f = 64/Re.
+    - 2000 <= Re < 4000: transition (Moody's critical zone). The flow may be laminar or turbulent;
+      f is the larger of 64/Re and :func:`colebrook` at that Re, so a pressure-drop check errs on the
+      safe side whichever it is. (Colebrook is the larger everywhere in the band for any e/D >= 0: it
+      falls with Re and rises with e/D, so it is never below its smooth-pipe value at Re 4000, 0.0399,
+      while 64/Re never exceeds 0.032 there.)
     - Re >= 4000: turbulent, f from :func:`colebrook` (exact).
 
     :param reynolds: Reynolds number [-], finite and > 0
@@ -153,9 +164,27 @@ def darcy_friction_factor(reynolds: float, relative_roughness: float) -> tuple[f
         or a relative roughness outside 0 <= e/D < 1 (field ``relative_roughness``)
     """
     _check_reynolds(reynolds)
-    if reynolds < LAMINAR_LIMIT:
-        _check_relative_roughness(relative_roughness)
-        return 64.0 / reynolds, "laminar"
     _check_relative_roughness(relative_roughness)
-    regime: Regime = "transition" if reynolds < TURBULENT_LIMIT else "turbulent"
-    return _colebrook(reynolds, relative_roughness), regime
+    if reynolds < LAMINAR_LIMIT:
+        return 64.0 / reynolds, "laminar"
+    turbulent = _colebrook(reynolds, relative_roughness)
+    if reynolds < TURBULENT_LIMIT:
+        return max(64.0 / reynolds, turbulent), "transition"
+    return turbulent, "turbulent"
+
+
+def regime_text(regime: Regime) -> str:
+    """Which friction factor :func:`darcy_friction_factor` used for ``regime``, and why, for the record."""
+    if regime == "laminar":
+        return f"laminar friction factor 64/Re (Re below {LAMINAR_LIMIT:.0f})"
+    if regime == "transition":
+        return (f"transition (Re {LAMINAR_LIMIT:.0f}-{TURBULENT_LIMIT:.0f}, Moody's critical zone, where the flow "
+                f"may be laminar or turbulent): the larger of 64/Re and Colebrook, here Colebrook, so the drop "
+                f"errs on the safe side")
+    return "Colebrook friction factor"
+
+
+def along_text() -> str:
+    """The rule of :func:`darcy_friction_factor` in one phrase, for a line whose regime may change along it."""
+    return (f"64/Re below Re {LAMINAR_LIMIT:.0f}, the larger of 64/Re and Colebrook up to Re {TURBULENT_LIMIT:.0f}, "
+            f"Colebrook above")

@@ -1,7 +1,7 @@
 """The whole line: straight-pipe friction plus fittings, static head, fixed allowances, gas compressibility.
 
 ``rate_line`` is what the engine calls for each candidate. Total drop = friction (Darcy-Weisbach,
-Colebrook) + fittings (:mod:`boresize.hydraulics.fittings`) + static head rho g dz (rise positive)
+friction factor by regime) + fittings (:mod:`boresize.hydraulics.fittings`) + static head rho g dz (rise positive)
 + fixed allowances (equipment, control valves), and the outlet pressure is the inlet pressure less
 the total. A gas or vapour line whose flowing drop (friction + fittings + static) exceeds 10 % of its
 inlet pressure (Crane TP-410) is marched in segments with the properties re-evaluated along it
@@ -25,6 +25,7 @@ from boresize.hydraulics.compressible import (
 )
 from boresize.hydraulics.darcy import _pipe_flow
 from boresize.hydraulics.fittings import FittingsLoss, fittings_loss
+from boresize.hydraulics.friction import Regime, along_text, regime_text
 from boresize.model import Candidate, FluidState, Hydraulics, Line
 
 __all__ = ["G", "rate_line", "is_gas", "needs_march"]
@@ -71,7 +72,7 @@ def rate_line(line: Line, state: FluidState, candidate: Candidate, mass_flow: fl
                       friction_factor=f, regime=regime, drop_per_length=dpl, drop=drop, momentum=density * v * v,
                       mach=mach, fittings_drop=fittings, static_drop=static, fixed_drop=line.fixed_drop,
                       total_drop=total, outlet_pressure=line.pressure - total,
-                      method=_simple_text(state, fraction, loss), fittings_k=loss.k_total,
+                      method=_simple_text(state, fraction, loss, regime), fittings_k=loss.k_total,
                       fittings_method=loss.method, acceleration_drop=0.0, outlet_velocity=None, outlet_mach=None,
                       choked=False)
 
@@ -81,8 +82,8 @@ def needs_march(line: Line, state: FluidState, hyd: Hydraulics) -> bool:
     return is_gas(state) and (hyd.drop + hyd.fittings_drop + hyd.static_drop) / line.pressure > SIMPLE_LIMIT
 
 
-def _simple_text(state: FluidState, fraction: float, loss: FittingsLoss) -> str:
-    text = "incompressible Darcy-Weisbach, Colebrook friction factor"
+def _simple_text(state: FluidState, fraction: float, loss: FittingsLoss, regime: Regime) -> str:
+    text = f"incompressible Darcy-Weisbach, {regime_text(regime)}"
     if is_gas(state):
         text += (f", inlet density: drop {fraction:.1%} of inlet pressure, within the {SIMPLE_LIMIT:.0%} "
                  f"limit of Crane TP-410")
@@ -122,7 +123,8 @@ def _compressible_text(gas: GasLine, state: FluidState, scaled: bool, fraction: 
     text = (f"{gas.model} compressible flow in {gas.segments} segments with acceleration, properties from "
             f"{source}: the incompressible drop is {fraction:.1%} of inlet pressure, above the "
             f"{SIMPLE_LIMIT:.0%} limit of Crane TP-410; fittings as equivalent length L = K D/f ({loss.method}); "
-            f"friction factor Colebrook, drop per length the mean over the line, Mach number the outlet's")
+            f"friction factor re-evaluated along the line ({along_text()}), drop per length the mean over the "
+            f"line, Mach number the outlet's")
     if gas.choked:
         text += (f"; CHOKED at {gas.reached_length:.4g} m of {marched:.4g} m (pipe plus fittings' equivalent "
                  f"length): {gas.stop_reason}")
