@@ -79,7 +79,8 @@ def saturated_line(line: Line) -> Line:
                      f"{celsius_text(t_sat)}")
     side = _SIDES[quality]
     if line.phase is not None and line.phase != side:
-        raise InputError(f"phase {line.phase} disagrees with quality {quality:g} (saturated {side})", field="phase",
+        raise InputError(f"phase {line.phase} disagrees with quality {quality:g} (saturated "
+                         f"{'vapour' if side == 'gas' else 'liquid'})", field="phase",
                          value=line.phase, expected=f"phase {side} or none with quality {quality:g}")
     return replace(line, temperature=t_sat)
 
