@@ -33,12 +33,13 @@ import functools
 import importlib.metadata
 import re
 import threading
-from dataclasses import dataclass
 from typing import Any, Literal
 
 from boresize.errors import InputError, PropertyError
 from boresize.model import FluidState, Line, Phase
-from boresize.properties.base import ZERO_CELSIUS, check_plausible, describe_conditions
+from boresize.properties.base import check_plausible, describe_conditions
+from boresize.properties.coolprop_range import Limits as _Limits
+from boresize.properties.coolprop_range import check_range as _check_range
 from boresize.properties.saturation import check_quality, saturation_near
 
 __all__ = ["CoolPropBackend", "TRADE_NAMES", "SATURATION_TOLERANCE", "is_mixture", "coolprop_saturation"]
@@ -88,20 +89,6 @@ def _normalise(name: str) -> str:
 def is_mixture(fluid: str) -> bool:
     """True for a mixture written as "a:0.5, b:0.5", "a[0.5]&b[0.5]" or "a&b"."""
     return any(mark in fluid for mark in (":", "&", "[", ","))
-
-
-@dataclass(frozen=True)
-class _Limits:
-    """Fixed points and range of one fluid's equation of state (SI: K, Pa, kg/mol)."""
-
-    t_triple: float
-    p_triple: float
-    t_critical: float
-    p_critical: float
-    rho_critical: float
-    t_max: float
-    p_max: float
-    molar_mass: float
 
 
 class CoolPropBackend:
@@ -271,51 +258,6 @@ class CoolPropBackend:
 def _coolprop_version() -> str:
     """CoolProp's version from the installed distribution's metadata (no import of CoolProp)."""
     return importlib.metadata.version("CoolProp")
-
-
-def _celsius(temperature: float) -> str:
-    """A temperature [K] written in degC for messages."""
-    return f"{round(temperature - ZERO_CELSIUS, 2):g} degC"
-
-
-def _check_range(state: Any, name: str, limits: _Limits, pressure: float, temperature: float) -> None:
-    """Raise InputError when (pressure [Pa abs], temperature [K]) is outside the EOS range or solid."""
-    if not pressure > 0.0:
-        raise InputError(f"{pressure:g} Pa is not an absolute pressure", field="pressure",
-                         value=pressure, expected="a pressure above zero (absolute)")
-    if pressure > limits.p_max:
-        raise InputError(
-            f"{pressure / 1e5:.6g} bar abs is above the upper limit of the {name} equation of state",
-            field="pressure", value=pressure, expected=f"at most {limits.p_max / 1e5:.6g} bar abs for {name}")
-    if temperature > limits.t_max:
-        raise InputError(
-            f"{_celsius(temperature)} is above the upper limit of the {name} equation of state",
-            field="temperature", value=temperature, expected=f"at most {_celsius(limits.t_max)} for {name}")
-    if temperature < limits.t_triple:
-        raise InputError(
-            f"{name} would be solid at {_celsius(temperature)}: below its triple point "
-            f"{_celsius(limits.t_triple)} ({limits.t_triple:.2f} K)",
-            field="temperature", value=temperature,
-            expected=f"at least {_celsius(limits.t_triple)} for {name}")
-    melting = _melting_temperature(state, limits, pressure)
-    if melting is not None and temperature < melting:
-        raise InputError(
-            f"{name} would be solid at {_celsius(temperature)} and {pressure / 1e5:.6g} bar abs: "
-            f"below its melting temperature {_celsius(melting)} at that pressure",
-            field="temperature", value=temperature, expected=f"at least {_celsius(melting)} for {name}")
-
-
-def _melting_temperature(state: Any, limits: _Limits, pressure: float) -> float | None:
-    """Melting temperature [K] at ``pressure`` [Pa abs], or None when the fluid has no melting line
-    there (then CoolProp's own flash still refuses a solid state, reported as PropertyError)."""
-    if not state.has_melting_line() or pressure <= limits.p_triple:
-        return None
-    from CoolProp import CoolProp as CP
-
-    try:
-        return float(state.melting_line(CP.iT, CP.iP, pressure))
-    except ValueError:  # pressure outside the melting-line correlation's range
-        return None
 
 
 def _cp() -> Any:
