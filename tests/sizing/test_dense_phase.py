@@ -76,3 +76,23 @@ def test_a_criteria_file_service_accepts_dense_by_a_list(tmp_path, host):
 def test_only_named_shipped_services_accept_dense():
     config = load_config(PluginHost.load(load_entry_points=False))
     assert sorted(n for n, s in config.services.items() if "dense" in s.accepts) == ["liquid", "pump-discharge"]
+
+
+@pytest.mark.xfail(strict=True, reason="hydraulics/line.py is_gas does not count 'dense' yet (another branch owns "
+                   "hydraulics/): a dense fluid's density follows the pressure, so a long line must be marched")
+def test_a_dense_line_whose_drop_exceeds_ten_percent_of_its_pressure_is_marched():
+    from boresize.hydraulics.line import rate_line
+    from boresize.model import Candidate
+    from boresize.properties.coolprop import CoolPropBackend
+
+    backend = CoolPropBackend()
+    line = make_line(tag="C-3", fluid="CO2", flow="100 t/h", pressure="100 bar", temperature="40 degC",
+                     length="1000 m")
+    state = backend.state(line, line.pressure, line.temperature)
+    # NPS 4 Sch 40: OD 114.3 mm, wall 6.02 mm (ASME B36.10M)
+    pipe = Candidate(nps="4", nps_value=4.0, schedule="40", outside_diameter=0.1143, wall=0.00602,
+                     inside_diameter=0.10226, roughness=4.5e-5)
+    hyd = rate_line(line, state, pipe, 100e3 / 3600, properties=lambda p, t: backend.state(line, p, t))
+    # CoolProp: at the incompressible outlet pressure the density is far below the inlet's
+    assert PropsSI("D", "P", hyd.outlet_pressure, "T", T, "CO2") < 0.7 * state.density
+    assert hyd.method.startswith("isothermal compressible flow")
