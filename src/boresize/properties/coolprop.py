@@ -282,7 +282,7 @@ def _evaluate(state: Any, name: str, limits: _Limits, point: tuple[float, float]
         state.update(CP.QT_INPUTS, 0.0, temperature)
         vapour_pressure = float(state.p())
         t_sat = saturation_near(state, pressure, temperature, float(state.first_saturation_deriv(CP.iP, CP.iT)),
-                                vapour_pressure, limits.p_critical)
+                                vapour_pressure, (limits.p_triple, limits.p_critical))
     if t_sat is not None and hint in ("liquid", "gas"):
         state.update(CP.PQ_INPUTS, pressure, 1.0 if hint == "gas" else 0.0)
         return _result(state, name, limits, (hint, 1.0 if hint == "gas" else 0.0, pressure, t_sat),

@@ -108,14 +108,15 @@ def check_quality(line: Line, quality: float) -> None:
 
 
 def saturation_near(state: Any, pressure: float, temperature: float, dp_dt: float, vapour_pressure: float,
-                    p_critical: float) -> float | None:
+                    curve: tuple[float, float]) -> float | None:
     """The saturation temperature at ``pressure`` [K] when ``temperature`` [K] lies within
     :data:`SATURATION_MARGIN` of it, else None.
 
     ``state`` is the fluid's CoolProp AbstractState (updated here); ``vapour_pressure`` [Pa] and ``dp_dt``
     [Pa/K] are the saturation pressure and its slope at ``temperature``, which screen out far states
-    without a flash (Clausius-Clapeyron slope: a first-order estimate, widened twice over)."""
-    if not 0.0 < pressure < p_critical or dp_dt <= 0.0:
+    without a flash (Clausius-Clapeyron slope: a first-order estimate, widened twice over); ``curve`` the
+    triple-point and critical pressures [Pa abs] between which the saturation curve runs."""
+    if not curve[0] <= pressure < curve[1] or dp_dt <= 0.0:
         return None
     if abs(pressure - vapour_pressure) > 2.0 * SATURATION_MARGIN * dp_dt:
         return None
