@@ -24,7 +24,7 @@ from boresize.plugin import (
 from boresize.plugins import PluginHost
 
 GUIDE = '(see DEVELOPERS.md, "The criterion object")'
-KNOWN = "gas, liquid, supercritical, two-phase"
+KNOWN = "dense, gas, liquid, supercritical, two-phase"
 
 
 class _Good(Criterion):

@@ -27,7 +27,10 @@ __all__ = [
 VerdictStatus = Literal["pass", "fail", "warn", "not-applicable", "error"]
 #: The statuses that let a size pass (a warning does not stop it; a criterion that does not apply neither).
 PASSING_STATUSES = frozenset({"pass", "warn", "not-applicable"})
-Phase = Literal["liquid", "gas", "two-phase", "supercritical"]
+#: ``dense``: above the critical point (T > Tc and p > pc) at a density above the critical density, a liquid-like
+#: fluid; ``supercritical``: above the critical point at or below the critical density, gas-like
+#: (:mod:`boresize.properties.coolprop` states the rule and its source).
+Phase = Literal["liquid", "gas", "two-phase", "supercritical", "dense"]
 FlowBasis = Literal["mass", "volume", "standard-volume"]
 #: ``size`` picks the smallest size that passes; ``check`` rates the size the line names.
 Mode = Literal["size", "check"]
@@ -76,6 +79,9 @@ class Line:
     :param schedule: the schedule of an existing line checked at ``nps`` (replaces the pipe class's), or None
     :param fittings_method: "darby-3k" (default), "hooper-2k" or "crane" (see hydraulics.fittings), or None
     :param compressible: gas lines above a 10 % drop: "isothermal" (default) or "adiabatic", or None
+    :param quality: vapour mass fraction at the inlet [-] of a saturated pure fluid (1 saturated vapour,
+        0 saturated liquid), or None; with it the pressure alone fixes the state and ``temperature`` is the
+        saturation temperature at ``pressure`` (:func:`boresize.properties.saturation.saturated_line`)
     """
 
     tag: str
@@ -106,6 +112,7 @@ class Line:
     schedule: str | None = None
     fittings_method: str | None = None
     compressible: str | None = None
+    quality: float | None = None
 
 
 @dataclass(frozen=True)
@@ -127,6 +134,9 @@ class FluidState:
     :param temperature: the temperature the properties were evaluated at [K]
     :param composition: (component, mole fraction) pairs of a mixture
     :param notes: remarks on how the state was obtained (e.g. fractions normalised)
+    :param saturation_temperature: saturation temperature at ``pressure`` [K] of a pure fluid whose state is
+        saturated (a quality, or a phase at saturation) or lies within
+        :data:`boresize.properties.saturation.SATURATION_MARGIN` of it; None elsewhere
     """
 
     density: float
@@ -147,6 +157,7 @@ class FluidState:
     temperature: float | None = None
     composition: tuple[tuple[str, float], ...] = ()
     notes: tuple[str, ...] = ()
+    saturation_temperature: float | None = None
 
 
 @dataclass(frozen=True)

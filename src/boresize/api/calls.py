@@ -60,7 +60,7 @@ def make_line(tag: str, fluid: str | Mapping[str, float], flow: Value, pressure:
               fixed_drop: Value = None, min_outlet_pressure: Value = None, source_pressure: Value = None,
               liquid_level: Value = None, npsh_required: Value = None, roughness: Value = None,
               case: str | None = None, fittings_method: str | None = None, compressible: str | None = None,
-              extra: Mapping[str, str] | None = None) -> Line:
+              extra: Mapping[str, str] | None = None, quality: Value = None) -> Line:
     """A validated :class:`~boresize.model.Line` (SI inside) from text, pint Quantities or numbers.
 
     The fields are the line-list columns of the README (``fluid`` may also be a mapping component ->
@@ -69,6 +69,8 @@ def make_line(tag: str, fluid: str | Mapping[str, float], flow: Value, pressure:
     :param units: the unit of a bare number per field, as a header's brackets give it (``{"flow": "t/h"}``)
     :param si: bare numbers without a unit in ``units`` are in the field's SI unit (:data:`SI_UNITS`)
     :param extra: further columns kept with the line (e.g. ``{"composition_basis": "mass"}``)
+    :param quality: vapour mass fraction of a saturated pure fluid (1 or ``"100 %"`` saturated vapour, 0
+        saturated liquid); ``temperature`` is then None or ``"saturated"`` (or the saturation temperature)
     :raises InputError: (UnitError for units) naming the line, the field, the value and what was expected
     """
     given = dict(locals())

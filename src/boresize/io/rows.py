@@ -23,7 +23,7 @@ COLUMNS = (
     "tag", "fluid", "flow", "pressure", "temperature", "length", "service", "pipe_class", "nps",
     "density", "viscosity", "design_margin", "phase", "backend", "eos", "elevation", "fittings", "fixed_drop",
     "min_outlet_pressure", "source_pressure", "liquid_level", "npsh_required", "roughness", "case", "schedule",
-    "fittings_method", "compressible",
+    "fittings_method", "compressible", "quality",
 )
 # Optional quantities: column -> (quantity kind, must be above zero, example for messages)
 OPTIONAL_QUANTITIES: dict[str, tuple[QuantityKind, bool, str]] = {
@@ -130,8 +130,9 @@ def line_from_row(row: Mapping[str, object], units: Mapping[str, str | None] | N
             raise InputError(f"tag {tag!r} is already the tag of the line in {row[DUPLICATE_TAG]}", field="tag",
                              value=tag, expected="each tag once; rows of one line's operating cases each name "
                              "their case in the case column")
+        quality = _quality(cells)
         for name in REQUIRED:
-            if name not in cells:
+            if name not in cells and (name != "temperature" or quality is None):
                 raise InputError("missing value", field=name, value="", expected=_EXPECTED[name])
         length = _optional_quantity(cells, units, "length", "length", "a length above zero, e.g. '120 m'")
         margin_raw = cells.get("design_margin")
@@ -141,13 +142,12 @@ def line_from_row(row: Mapping[str, object], units: Mapping[str, str | None] | N
                              expected="a fraction of the flow such as '10 %' or 0.1")
         nps_raw, schedule = cells.get("nps"), cells.get("schedule")
         optional = _optional_fields(cells, units)
-        return Line(
+        line = Line(
             tag=tag,
             fluid=cells["fluid"],
             flow=_flow(cells["flow"], units.get("flow")),
             pressure=parse_quantity(cells["pressure"], "pressure", "pressure", units.get("pressure")),
-            temperature=parse_quantity(cells["temperature"], "temperature", "temperature",
-                                       units.get("temperature")),
+            temperature=_temperature(cells, units, quality),
             length=length if length is not None else DEFAULT_LENGTH_M,
             service=cells.get("service"),
             pipe_class=cells.get("pipe_class"),
@@ -165,9 +165,33 @@ def line_from_row(row: Mapping[str, object], units: Mapping[str, str | None] | N
             schedule=normalise_schedule(schedule, "schedule") if schedule else None,
             **optional,
             extra=tuple((k, str(v)) for k, v in row.items() if k not in _COLUMN_SET and v not in (None, "")),
+            quality=quality,
         )
+        if quality is None:
+            return line
+        from boresize.properties.saturation import saturated_line  # lazy: the properties load CoolProp
+
+        return saturated_line(line)
     except InputError as exc:
         raise exc.for_line(tag) from None
+
+
+def _quality(cells: Mapping[str, str]) -> float | None:
+    """The vapour mass fraction of a saturated line (a plain number or a percent), None when not given."""
+    raw = cells.get("quality")
+    return None if raw is None else parse_quantity(raw, "quality", "dimensionless")
+
+
+def _temperature(cells: Mapping[str, str], units: Mapping[str, str | None], quality: float | None) -> float:
+    """The temperature [K]; NaN for a line with a quality whose temperature is blank or ``saturated`` (the
+    saturation temperature replaces it)."""
+    raw = cells.get("temperature")
+    if raw is not None and raw.lower() == "saturated" and quality is None:
+        raise InputError("temperature 'saturated' needs a quality", field="temperature", value=raw,
+                         expected="a quality (1 saturated vapour, 0 saturated liquid), or a temperature with its unit")
+    if raw is None or raw.lower() == "saturated":
+        return math.nan
+    return parse_quantity(raw, "temperature", "temperature", units.get("temperature"))
 
 
 def _optional_fields(cells: Mapping[str, str], units: Mapping[str, str | None]) -> dict[str, float]:
@@ -223,5 +247,5 @@ _EXPECTED = {
     "fluid": "a fluid name (water, methane), CoolProp name or CAS number",
     "flow": "a flow with its unit, e.g. '65 t/h', '120 m3/h' or '2 MMSCFD'",
     "pressure": "an inlet pressure with its unit, e.g. '10 barg' or '1100 kPa' (bare bar/kPa are absolute)",
-    "temperature": "a temperature with its unit, e.g. '40 degC'",
+    "temperature": "a temperature with its unit, e.g. '40 degC', or a quality with the temperature blank",
 }

@@ -4,15 +4,22 @@ CoolProp is imported lazily, on the first call that needs it (the import costs a
 importing boresize stays fast. One ``AbstractState("HEOS", fluid)`` is kept per fluid and reused;
 results are cached per (fluid, pressure, temperature).
 
-Phase names. CoolProp's phase index is mapped to the four phases boresize knows: liquid -> liquid,
-gas -> gas, supercritical (T > Tc and p > pc) and critical_point -> supercritical, twophase ->
-two-phase; supercritical_liquid (p > pc, T < Tc) -> "liquid" because it is dense and liquid-like and
-is sized as a liquid; supercritical_gas (T > Tc, p < pc) -> "gas" because it is sized as a gas.
+Phase names. CoolProp's phase index is mapped to the phases boresize knows: liquid -> liquid,
+gas -> gas, twophase -> two-phase; supercritical_liquid (p > pc, T < Tc) -> "liquid" because it is
+liquid-like and has a vapour pressure at T; supercritical_gas (T > Tc, p < pc) -> "gas". Above the
+critical point (supercritical: T > Tc and p > pc; critical_point) the state is "dense" when its density
+exceeds the critical density, else "supercritical" (gas-like). The critical density as the line between a
+liquid-like and a gas-like supercritical fluid is common practice (a simple stand-in for the
+pseudo-critical line, the locus of the heat-capacity maximum, which it crosses near the critical point).
 
-A (p, T) pair on the saturation curve does not fix the vapour fraction. Within a relative
-:data:`SATURATION_TOLERANCE` of the vapour pressure the state is "two-phase" (saturated-liquid
-properties, vapour fraction unknown), unless the line says which phase it carries: then the
-saturated liquid (``phase="liquid"``) or saturated vapour (``phase="gas"``) is returned.
+Saturation. A line that gives a quality (0 or 1) is evaluated by CoolProp's PQ flash at its own pressure
+(:mod:`boresize.properties.saturation`); points of the same line elsewhere (a gas march, the reference
+conditions of a standard volume) by (p, T) on the side the quality names. A (p, T) pair on the saturation
+curve (within a relative :data:`SATURATION_TOLERANCE` of the vapour pressure) does not fix the vapour
+fraction: it is "two-phase" with saturated-liquid properties and no vapour fraction, unless the line's
+phase names the side. Within :data:`~boresize.properties.saturation.SATURATION_MARGIN` of the saturation
+temperature at its pressure, a state records that temperature (``saturation_temperature``), and a line
+whose phase names the side gets the saturated state of that side at its pressure.
 
 Source: I. H. Bell, J. Wronski, S. Quoilin, V. Lemort, "Pure and Pseudo-pure Fluid Thermophysical
 Property Evaluation and the Open-Source Thermophysical Property Library CoolProp",
@@ -26,14 +33,16 @@ import functools
 import importlib.metadata
 import re
 import threading
-from dataclasses import dataclass
 from typing import Any, Literal
 
 from boresize.errors import InputError, PropertyError
 from boresize.model import FluidState, Line, Phase
-from boresize.properties.base import ZERO_CELSIUS, check_plausible, describe_conditions
+from boresize.properties.base import check_plausible, describe_conditions
+from boresize.properties.coolprop_range import Limits as _Limits
+from boresize.properties.coolprop_range import check_range as _check_range
+from boresize.properties.saturation import check_quality, saturation_near
 
-__all__ = ["CoolPropBackend", "TRADE_NAMES", "SATURATION_TOLERANCE", "is_mixture"]
+__all__ = ["CoolPropBackend", "TRADE_NAMES", "SATURATION_TOLERANCE", "is_mixture", "coolprop_saturation"]
 
 #: Names the trade uses that CoolProp's alias lists lack (matched after normalisation, so
 #: "carbon dioxide" and "hydrogen sulfide" already resolve through CoolProp's own names).
@@ -80,18 +89,6 @@ def _normalise(name: str) -> str:
 def is_mixture(fluid: str) -> bool:
     """True for a mixture written as "a:0.5, b:0.5", "a[0.5]&b[0.5]" or "a&b"."""
     return any(mark in fluid for mark in (":", "&", "[", ","))
-
-
-@dataclass(frozen=True)
-class _Limits:
-    """Fixed points and range of one fluid's equation of state (SI: K, Pa, kg/mol)."""
-
-    t_triple: float
-    p_triple: float
-    t_critical: float
-    t_max: float
-    p_max: float
-    molar_mass: float
 
 
 class CoolPropBackend:
@@ -156,7 +153,36 @@ class CoolPropBackend:
         :raises PropertyError: CoolProp failed, or a result is outside the plausible range
         """
         name = self.resolve(line.fluid)
-        return self._cached_state(name, float(pressure), float(temperature), line.phase)
+        quality, hint = line.quality, line.phase
+        if quality is not None:  # the quality holds at the line's own point; elsewhere it names the side
+            check_quality(line, quality)
+            hint = hint or ("gas" if quality == 1.0 else "liquid")
+            own = pressure == line.pressure and temperature == line.temperature
+            quality = quality if own else None
+        return self._cached_state(name, float(pressure), float(temperature), hint, quality)
+
+    def saturation_temperature(self, fluid: str, pressure: float) -> tuple[str, float]:
+        """(CoolProp name, saturation temperature [K]) of a pure fluid at ``pressure`` [Pa abs].
+
+        :raises InputError: unknown fluid ("fluid"); a pressure off the saturation curve ("pressure")
+        :raises PropertyError: CoolProp failed
+        """
+        name = self.resolve(fluid)
+        with self._lock:
+            state = self._abstract_state(name)
+            limits = self._limits[name]
+            if not limits.p_triple <= pressure < limits.p_critical:
+                raise InputError(
+                    f"{pressure / 1e5:.6g} bar abs is off the saturation curve of {name}, which runs from its "
+                    f"triple point {limits.p_triple / 1e5:.6g} to its critical point {limits.p_critical / 1e5:.6g} "
+                    f"bar abs", field="pressure", value=pressure,
+                    expected=f"a pressure below the critical pressure of {name} for a quality")
+            try:
+                state.update(_cp().PQ_INPUTS, pressure, 0.0)
+                return name, float(state.T())
+            except ValueError as exc:
+                raise PropertyError(f"coolprop: CoolProp failed for saturated {name} at "
+                                    f"{pressure / 1e5:.6g} bar abs: {exc}") from exc
 
     def cache_clear(self) -> None:
         """Forget cached results (the AbstractState objects are kept)."""
@@ -203,18 +229,19 @@ class CoolPropBackend:
             self._states[name] = state
             self._limits[name] = _Limits(
                 t_triple=state.Ttriple(), p_triple=state.p_triple(), t_critical=state.T_critical(),
-                t_max=state.Tmax(), p_max=state.pmax(), molar_mass=state.molar_mass(),
+                p_critical=state.p_critical(), rho_critical=state.rhomass_critical(), t_max=state.Tmax(), p_max=state.pmax(), molar_mass=state.molar_mass(),
             )
         return self._states[name]
 
-    def _compute(self, name: str, pressure: float, temperature: float, hint: PhaseHint) -> FluidState:
+    def _compute(self, name: str, pressure: float, temperature: float, hint: PhaseHint,
+                 quality: float | None) -> FluidState:
         """Uncached evaluation; see :meth:`state`."""
         with self._lock:
             state = self._abstract_state(name)
             limits = self._limits[name]
             _check_range(state, name, limits, pressure, temperature)
             try:
-                result = _evaluate(state, name, limits, pressure, temperature, hint)
+                result = _evaluate(state, name, limits, (pressure, temperature), hint, quality)
             except ValueError as exc:  # CoolProp reports its failures as ValueError
                 raise PropertyError(
                     f"coolprop: CoolProp failed for {name} at "
@@ -233,80 +260,57 @@ def _coolprop_version() -> str:
     return importlib.metadata.version("CoolProp")
 
 
-def _celsius(temperature: float) -> str:
-    """A temperature [K] written in degC for messages."""
-    return f"{round(temperature - ZERO_CELSIUS, 2):g} degC"
-
-
-def _check_range(state: Any, name: str, limits: _Limits, pressure: float, temperature: float) -> None:
-    """Raise InputError when (pressure [Pa abs], temperature [K]) is outside the EOS range or solid."""
-    if not pressure > 0.0:
-        raise InputError(f"{pressure:g} Pa is not an absolute pressure", field="pressure",
-                         value=pressure, expected="a pressure above zero (absolute)")
-    if pressure > limits.p_max:
-        raise InputError(
-            f"{pressure / 1e5:.6g} bar abs is above the upper limit of the {name} equation of state",
-            field="pressure", value=pressure, expected=f"at most {limits.p_max / 1e5:.6g} bar abs for {name}")
-    if temperature > limits.t_max:
-        raise InputError(
-            f"{_celsius(temperature)} is above the upper limit of the {name} equation of state",
-            field="temperature", value=temperature, expected=f"at most {_celsius(limits.t_max)} for {name}")
-    if temperature < limits.t_triple:
-        raise InputError(
-            f"{name} would be solid at {_celsius(temperature)}: below its triple point "
-            f"{_celsius(limits.t_triple)} ({limits.t_triple:.2f} K)",
-            field="temperature", value=temperature,
-            expected=f"at least {_celsius(limits.t_triple)} for {name}")
-    melting = _melting_temperature(state, limits, pressure)
-    if melting is not None and temperature < melting:
-        raise InputError(
-            f"{name} would be solid at {_celsius(temperature)} and {pressure / 1e5:.6g} bar abs: "
-            f"below its melting temperature {_celsius(melting)} at that pressure",
-            field="temperature", value=temperature, expected=f"at least {_celsius(melting)} for {name}")
-
-
-def _melting_temperature(state: Any, limits: _Limits, pressure: float) -> float | None:
-    """Melting temperature [K] at ``pressure`` [Pa abs], or None when the fluid has no melting line
-    there (then CoolProp's own flash still refuses a solid state, reported as PropertyError)."""
-    if not state.has_melting_line() or pressure <= limits.p_triple:
-        return None
+def _cp() -> Any:
+    """CoolProp's low-level module (imported on first use)."""
     from CoolProp import CoolProp as CP
 
-    try:
-        return float(state.melting_line(CP.iT, CP.iP, pressure))
-    except ValueError:  # pressure outside the melting-line correlation's range
-        return None
+    return CP
 
 
-def _evaluate(
-    state: Any, name: str, limits: _Limits, pressure: float, temperature: float, hint: PhaseHint
-) -> FluidState:
-    """Run CoolProp at (pressure [Pa abs], temperature [K]); raises CoolProp's ValueError."""
-    from CoolProp import CoolProp as CP
-
-    vapour_pressure = None
+def _evaluate(state: Any, name: str, limits: _Limits, point: tuple[float, float], hint: PhaseHint,
+              quality: float | None) -> FluidState:
+    """Run CoolProp at ``point`` (pressure [Pa abs], temperature [K]); raises CoolProp's ValueError."""
+    CP = _cp()
+    pressure, temperature = point
+    if quality is not None:
+        state.update(CP.PQ_INPUTS, pressure, quality)
+        side: Phase = "gas" if quality == 1.0 else "liquid"
+        return _result(state, name, limits, (side, quality, pressure, float(state.T())),
+                       (pressure, float(state.T())), _model_text("quality", hint))
+    vapour_pressure = t_sat = None
     if limits.t_triple <= temperature < limits.t_critical:
         state.update(CP.QT_INPUTS, 0.0, temperature)
-        vapour_pressure = state.p()
-    saturated = vapour_pressure is not None and (
-        abs(pressure - vapour_pressure) <= SATURATION_TOLERANCE * vapour_pressure)
-    if saturated:
-        quality = 1.0 if hint == "gas" else 0.0
-        state.update(CP.QT_INPUTS, quality, temperature)
-        phase: Phase = hint if hint in ("liquid", "gas") else "two-phase"
-        fraction = quality if hint in ("liquid", "gas") else None
-    else:
-        state.update(CP.PT_INPUTS, pressure, temperature)
-        phase = _map_phase(int(state.phase()), name, pressure, temperature)
-        fraction = None if phase == "two-phase" else 0.0 if phase == "liquid" else 1.0
-    # recorded whole here (version, state point, a single phase's vapour fraction), so that the engine's
-    # record of the state (properties.select) has nothing to fill in and need not copy it
+        vapour_pressure = float(state.p())
+        t_sat = saturation_near(state, pressure, temperature, float(state.first_saturation_deriv(CP.iP, CP.iT)),
+                                vapour_pressure, (limits.p_triple, limits.p_critical))
+    if t_sat is not None and hint in ("liquid", "gas"):
+        state.update(CP.PQ_INPUTS, pressure, 1.0 if hint == "gas" else 0.0)
+        return _result(state, name, limits, (hint, 1.0 if hint == "gas" else 0.0, pressure, t_sat),
+                       (pressure, t_sat), _model_text("phase", hint))
+    if vapour_pressure is not None and abs(pressure - vapour_pressure) <= SATURATION_TOLERANCE * vapour_pressure:
+        state.update(CP.QT_INPUTS, 0.0, temperature)
+        return _result(state, name, limits, ("two-phase", None, vapour_pressure, t_sat), point,
+                       _model_text("curve", hint))
+    state.update(CP.PT_INPUTS, pressure, temperature)
+    phase = _map_phase(int(state.phase()), name, pressure, temperature)
+    if phase == "supercritical" and state.rhomass() > limits.rho_critical:
+        phase = "dense"
+    fraction = 0.0 if phase == "liquid" else None if phase == "dense" else 1.0
+    return _result(state, name, limits, (phase, fraction, vapour_pressure, t_sat), point, _model_text(None, hint))
+
+
+def _result(state: Any, name: str, limits: _Limits, found: tuple[Phase, float | None, float | None, float | None],
+            point: tuple[float, float], model: str) -> FluidState:
+    """The FluidState of CoolProp's current ``state``: ``found`` is (phase, vapour fraction, vapour pressure
+    [Pa abs], saturation temperature [K]); ``point`` the (pressure [Pa abs], temperature [K]) evaluated.
+    Recorded whole here (version, state point, a single phase's vapour fraction), so that the engine's record
+    of the state (properties.select) has nothing to fill in."""
+    phase, fraction, vapour_pressure, t_sat = found
     return FluidState(
-        density=state.rhomass(), viscosity=state.viscosity(), phase=phase, source="coolprop",
-        model=_model_text(saturated, hint), vapour_fraction=fraction,
-        vapour_pressure=vapour_pressure, speed_of_sound=state.speed_sound(),
+        density=state.rhomass(), viscosity=state.viscosity(), phase=phase, source="coolprop", model=model,
+        vapour_fraction=fraction, vapour_pressure=vapour_pressure, speed_of_sound=state.speed_sound(),
         molar_mass=limits.molar_mass, fluid_name=name, backend_version=_coolprop_version(),
-        pressure=pressure, temperature=temperature,
+        pressure=point[0], temperature=point[1], saturation_temperature=t_sat,
     )
 
 
@@ -319,13 +323,29 @@ def _map_phase(index: int, name: str, pressure: float, temperature: float) -> Ph
     return _PHASE_BY_INDEX[index]
 
 
-def _model_text(saturated: bool, hint: PhaseHint) -> str:
-    """Model text for FluidState.model, e.g. "CoolProp 8.0.0 HEOS (reference EOS)"."""
+def _model_text(how: str | None, hint: PhaseHint) -> str:
+    """Model text for FluidState.model, e.g. "CoolProp 8.0.0 HEOS (reference EOS)"; ``how`` is "quality"
+    (saturated by the line's quality), "phase" (saturated on the side the line's phase names), "curve"
+    (on the saturation curve, side unknown) or None (a (p, T) flash)."""
     text = f"CoolProp {_coolprop_version()} {_MODEL}"
-    if not saturated:
-        return text
-    if hint in ("liquid", "gas"):
-        side = "liquid" if hint == "liquid" else "vapour"
-        return f"{text}; on the saturation curve, saturated {side} as the line's phase says"
-    return (f"{text}; on the saturation curve: pressure and temperature do not fix the vapour "
-            f"fraction, saturated-liquid properties shown; give the line's phase")
+    side = "vapour" if hint == "gas" else "liquid"
+    if how == "quality":
+        return f"{text}; saturated {side} at the line's pressure, by its quality"
+    if how == "phase":
+        return f"{text}; at saturation, saturated {side} at the line's pressure as the line's phase says"
+    if how == "curve":
+        return (f"{text}; on the saturation curve: pressure and temperature do not fix the vapour "
+                f"fraction, saturated-liquid properties shown; give the line's phase")
+    return text
+
+
+@functools.lru_cache(maxsize=1)
+def _shared() -> CoolPropBackend:
+    """A backend for the saturation temperatures of lines being built (its names and states are its own)."""
+    return CoolPropBackend(cache_size=16)
+
+
+def coolprop_saturation(fluid: str, pressure: float) -> tuple[str, float]:
+    """(CoolProp name, saturation temperature [K]) of a pure fluid at ``pressure`` [Pa abs]
+    (see :meth:`CoolPropBackend.saturation_temperature`)."""
+    return _shared().saturation_temperature(fluid, pressure)

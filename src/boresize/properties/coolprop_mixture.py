@@ -48,6 +48,7 @@ from boresize.properties.coolprop_heos import (
     no_envelope,
     set_fractions,
 )
+from boresize.properties.saturation import refuse_quality
 
 __all__ = ["CoolPropMixtureBackend", "SOLUTES", "is_incompressible", "incompressible_spec"]
 
@@ -124,6 +125,7 @@ class CoolPropMixtureBackend:
             temperature or fraction outside an incompressible fit's range
         :raises PropertyError: CoolProp failed, or a guard above refused its result
         """
+        refuse_quality(line, self.id)  # a saturated state by quality: pure fluids of coolprop only
         if line.eos and line.eos.strip().upper() not in ("HEOS", "GERG-2008", "GERG"):
             raise InputError(f"the coolprop-mixture backend has no equation of state {line.eos!r}", field="eos",
                              value=line.eos, expected="HEOS (or leave eos blank); backend thermo offers cubic EOS")

@@ -20,6 +20,7 @@ import math
 from boresize.errors import InputError
 from boresize.model import FluidState, Line, Phase
 from boresize.properties.base import DENSITY_RANGE, VISCOSITY_RANGE, describe_conditions
+from boresize.properties.saturation import refuse_quality
 
 __all__ = ["TableBackend", "LIQUID_DENSITY_THRESHOLD"]
 
@@ -51,6 +52,7 @@ class TableBackend:
             "viscosity"), or a call at other conditions than the line's (field "flow": the only such
             call is the conversion of a standard gas volume)
         """
+        refuse_quality(line, self.id)  # a saturated state by quality: pure fluids of coolprop only
         density = _given(line.density, "density", "kg/m3", DENSITY_RANGE)
         viscosity = _given(line.viscosity, "viscosity", "Pa s", VISCOSITY_RANGE)
         _check_same_point(line, pressure, temperature)

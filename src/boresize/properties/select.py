@@ -23,7 +23,7 @@ from boresize.properties.base import check_plausible
 
 __all__ = ["choose_backend", "fluid_state", "mass_flow_of"]
 
-_PHASES = ("liquid", "gas", "two-phase", "supercritical")
+_PHASES = ("liquid", "gas", "two-phase", "supercritical", "dense")
 
 
 def choose_backend(host: PluginHost, line: Line) -> Any:
@@ -84,9 +84,10 @@ def _who(host: PluginHost, backend: Any) -> str:
 
 def _recorded(state: FluidState, backend: Any, pressure: float, temperature: float) -> FluidState:
     """The state with its backend version, state point [Pa abs, K] and, for one phase, its vapour mass
-    fraction (0 liquid, 1 gas) filled in where the backend left them out."""
+    fraction (0 liquid, 1 gas) filled in where the backend left them out (a dense fluid, above its critical
+    point, has none)."""
     quality = state.vapour_fraction
-    if quality is None and state.phase != "two-phase":
+    if quality is None and state.phase not in ("two-phase", "dense"):
         quality = 0.0 if state.phase == "liquid" else 1.0
     if (state.backend_version is not None and state.pressure is not None and state.temperature is not None
             and quality == state.vapour_fraction):

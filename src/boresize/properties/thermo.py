@@ -42,6 +42,7 @@ from boresize.properties.base import check_plausible, describe_conditions
 from boresize.properties.composition import Basis, Composition, basis_of, parse_composition
 from boresize.properties.coolprop import SATURATION_TOLERANCE, is_mixture
 from boresize.properties.thermo_evaluate import evaluate_mixture, evaluate_pure, gas_direct, liquid_direct, no_envelope
+from boresize.properties.saturation import refuse_quality
 
 __all__ = ["ThermoBackend", "EOS_ALIASES", "GAS_FLASHES_BEFORE_CHECK", "LIQUID_MARGIN", "LIQUID_VISCOSITY_MIN",
            "eos_id"]
@@ -135,6 +136,7 @@ class ThermoBackend:
         :raises PropertyError: a failed flash (naming the fluid, the EOS and the conditions), or a
             property outside the plausible range
         """
+        refuse_quality(line, self.id)  # a saturated state by quality: pure fluids of coolprop only
         for field, value in (("pressure", pressure), ("temperature", temperature)):
             if not (math.isfinite(value) and value > 0.0):
                 raise InputError(f"{value:g} is not above zero", field=field, value=value,

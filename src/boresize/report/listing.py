@@ -23,7 +23,7 @@ def render_criteria(host: PluginHost, config: SizingConfig) -> str:
     out.append(f"Criteria sets by service (set {config.version}; from {config.origin}):")
     for name in config.service_names():
         service = config.services[name]
-        phase = f" ({service.phase})" if service.phase else ""
+        phase = f" ({', '.join(service.accepts)})" if service.accepts else ""
         out.append(f"  {name}{phase}: {service.description}  [set {service.set_name} {service.version}]")
         for criterion, options in service.criteria:
             shown = ", ".join(f"{k}={_fmt(v)} SI" for k, v in options.items()) or "defaults"

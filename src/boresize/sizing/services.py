@@ -15,7 +15,7 @@ from __future__ import annotations
 
 import sys
 from collections.abc import Mapping
-from dataclasses import dataclass, field
+from dataclasses import dataclass, field, replace
 from importlib import resources
 from pathlib import Path
 from typing import Any
@@ -35,6 +35,9 @@ __all__ = ["Service", "SizingConfig", "load_config", "read_toml"]
 
 SERVICE_KEYS = ("description", "phase", "design_margin", "pipe_class", "version")
 TOP_KEYS = ("name", "version", "service", "pipe_class")
+#: The phases a service may accept: "dense" is a fluid above its critical point at a liquid-like density
+#: (:mod:`boresize.properties.coolprop`), judged only by services that name it.
+SERVICE_PHASES = ("liquid", "gas", "dense")
 #: The shipped criteria sets, one file per family, in ``boresize/criteria/sets/``.
 SHIPPED_SETS = ("liquid.toml", "gas.toml")
 
@@ -52,6 +55,15 @@ class Service:
     origin: str = "built-in"
     set_name: str = "built-in"
     version: str = ""
+    #: every phase the service accepts (``phase = ["liquid", "dense"]``), the first being ``phase``
+    phases: tuple[str, ...] = ()
+    #: (phase, names of the services in force that accept it), filled when the config is loaded
+    takers: tuple[tuple[str, tuple[str, ...]], ...] = field(default=(), compare=False, repr=False)
+
+    @property
+    def accepts(self) -> tuple[str, ...]:
+        """The phases whose lines this service judges; empty when it names none (any single phase)."""
+        return self.phases or ((self.phase,) if self.phase else ())
 
     @property
     def stamp(self) -> str:
@@ -130,10 +142,7 @@ def _service(name: str, table: Mapping[str, Any], host: PluginHost, origin: str,
             raise CriteriaFileError("criterion options must be a table", field=f"{where}.{key}", value=options,
                                     expected='an inline table such as { max = "3 m/s" }')
         criteria.append(resolve_criterion(host.criteria.get(key), options, f"{where}.{key}"))
-    phase = table.get("phase")
-    if phase not in (None, "liquid", "gas"):
-        raise CriteriaFileError(f"unknown phase {phase!r}", field=f"{where}.phase", value=phase,
-                                expected='"liquid" or "gas"')
+    phases = _phases(table.get("phase"), where)
     margin = parse_quantity(table.get("design_margin", 0.0), f"{where}.design_margin", "dimensionless")
     if not 0.0 <= margin < 1.0:  # a negative margin would shrink the sizing flow: a silently small size
         raise CriteriaFileError(f"{table['design_margin']!r} is outside 0 to 100 %", field=f"{where}.design_margin",
@@ -141,9 +150,22 @@ def _service(name: str, table: Mapping[str, Any], host: PluginHost, origin: str,
     set_name, version = set_label
     if "version" in table:
         version = _label(table, "version", version)
-    return Service(name=name, criteria=tuple(criteria), phase=phase, design_margin=margin,
+    return Service(name=name, criteria=tuple(criteria), phase=phases[0] if phases else None, phases=phases,
+                   design_margin=margin,
                    pipe_class=table.get("pipe_class"), description=str(table.get("description", "")), origin=origin,
                    set_name=set_name, version=version)
+
+
+def _phases(value: Any, where: str) -> tuple[str, ...]:
+    """A service's ``phase``: one of :data:`SERVICE_PHASES` or a list of them (``["liquid", "dense"]``)."""
+    if value is None:
+        return ()
+    given = [value] if isinstance(value, str) else value if isinstance(value, list) and value else [value]
+    for phase in given:
+        if phase not in SERVICE_PHASES:
+            raise CriteriaFileError(f"unknown phase {phase!r}", field=f"{where}.phase", value=phase,
+                                    expected='"liquid", "gas" or "dense", or a list of them')
+    return tuple(dict.fromkeys(given))
 
 
 def _merge(config: SizingConfig, document: Mapping[str, Any], host: PluginHost, origin: str,
@@ -198,4 +220,13 @@ def load_config(host: PluginHost, path: str | Path | None = None) -> SizingConfi
         config.origin = str(path)
         if "version" in document:
             config.version = f"{config.version} + {label[1]}"
+    return _with_takers(config)
+
+
+def _with_takers(config: SizingConfig) -> SizingConfig:
+    """Each service told which services of the config accept each phase (named when a line's phase does
+    not fit the service it asks for)."""
+    takers = tuple((phase, tuple(sorted(n for n, s in config.services.items() if phase in s.accepts)))
+                   for phase in SERVICE_PHASES)
+    config.services = {name: replace(s, takers=takers) for name, s in config.services.items()}
     return config
