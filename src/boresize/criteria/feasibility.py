@@ -68,6 +68,8 @@ class LineFeasibility(Criterion):
         h, line = context.hydraulics, context.line
         candidate = context.candidate
         credits = negative_losses(line, h, h.reynolds, candidate.inside_diameter, candidate.nps_value)
+        if h.outlet_pressure is None and not h.choked and not credits:
+            return _without_outlet(self, h, line)
         outlet = h.outlet_pressure if h.outlet_pressure is not None else line.pressure - h.total_drop
         shown = outlet / _BAR
         utilisation = max(1.0, h.total_drop / line.pressure)
@@ -85,6 +87,19 @@ class LineFeasibility(Criterion):
                            unit="bar abs", utilisation=utilisation)
         return verdict(self, "pass", f"the line can carry the flow: outlet pressure {shown:.4g} bar abs above zero "
                        f"absolute, not choked, no negative loss", value=shown, limit=0.0, unit="bar abs")
+
+
+def _without_outlet(criterion: LineFeasibility, h: Hydraulics, line: Line) -> Verdict:
+    """No outlet pressure from the line's method: a fail when even the drop it gives (a lower bound, e.g. the
+    simple method's on a gas line) leaves none at the outlet, else ``error`` (unjudged is never a pass)."""
+    bound = line.pressure - h.total_drop
+    if bound <= 0.0:
+        return verdict(criterion, "fail", f"outlet pressure at most {bound / _BAR:.4g} bar abs at the "
+                       f"{_outlet_place(line)}, at or below zero absolute: the line cannot carry the flow at this "
+                       f"size ({_parts(h)})", value=bound / _BAR, limit=0.0, unit="bar abs",
+                       utilisation=max(1.0, h.total_drop / line.pressure))
+    return verdict(criterion, "error", f"line feasibility not judged: the line's method gives no outlet pressure at "
+                   f"this size ({h.method})")
 
 
 def _choke_text(h: Hydraulics, line: Line) -> str:
