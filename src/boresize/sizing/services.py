@@ -135,7 +135,7 @@ def _service(name: str, table: Mapping[str, Any], host: PluginHost, origin: str,
             continue
         if key not in host.criteria:
             raise CriteriaFileError(f"unknown criterion {key!r}", field=f"{where}.{key}", value=key,
-                                    expected=f"a criterion id ({', '.join(host.criteria.ids())}) or one of "
+                                    expected=f"a criterion id ({', '.join(_named_ids(host))}) or one of "
                                              f"{', '.join(SERVICE_KEYS)}")
         if not isinstance(options, Mapping):
             raise CriteriaFileError("criterion options must be a table", field=f"{where}.{key}", value=options,
@@ -155,6 +155,11 @@ def _service(name: str, table: Mapping[str, Any], host: PluginHost, origin: str,
     return Service(name=name, criteria=tuple(criteria), phase=phase, design_margin=margin,
                    pipe_class=table.get("pipe_class"), description=str(table.get("description", "")), origin=origin,
                    set_name=set_name, version=version)
+
+
+def _named_ids(host: PluginHost) -> tuple[str, ...]:
+    """The criterion ids a file may choose from (not line-feasibility: every service has it anyway)."""
+    return tuple(ident for ident in host.criteria.ids() if ident != FEASIBILITY_ID)
 
 
 def _check_feasibility(options: Mapping[str, Any], where: str) -> None:
