@@ -374,3 +374,24 @@ def test_every_built_in_criterion_declares_which_way_its_fails_point(lab: Sizer)
 
     undeclared = [ident for ident in lab.host.criteria.ids() if declared_trend(lab.host.criteria.get(ident)) is None]
     assert undeclared == []
+
+
+@pytest.mark.parametrize(("names", "budget"), SERVICE_RUNS)
+def test_no_passing_line_cannot_flow_or_flashes(lab: Sizer, names: tuple[str, ...], budget: settings) -> None:
+    """A passing line has an outlet above zero absolute and is not choked (line-feasibility, in every service); a
+    passing liquid in a shipped service stays at or above its vapour pressure at the inlet and at the outlet after
+    every loss, allowances included (flashing, in every shipped liquid service)."""
+    @budget
+    @given(case=service_lines(lab, names), factor=st.floats(0.5, 2.0))
+    def check(case: tuple[Service, Line, float], factor: float) -> None:
+        service, line, flow = case
+        sized = lab.run(_with_flow(line, flow * factor))
+        assume(sized.status == "pass")
+        hyd = sized.selected.hydraulics  # type: ignore[union-attr]
+        assert hyd.outlet_pressure is not None and hyd.outlet_pressure > 0.0 and not hyd.choked
+        p_vap = sized.state.vapour_pressure if sized.state is not None else None
+        if "/" not in service.name and service.phase == "liquid":
+            assert p_vap is not None  # a shipped liquid service judges flashing: unknown P_vap is no pass
+            assert min(line.pressure, hyd.outlet_pressure) >= p_vap
+
+    check()

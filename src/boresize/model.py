@@ -225,6 +225,7 @@ class Hydraulics:
     outlet_velocity: float | None = None
     outlet_mach: float | None = None
     choked: bool = False
+    choke_length: float | None = None  # distance from the inlet at which the flow chokes [m], None when it does not
 
 
 @dataclass(frozen=True)

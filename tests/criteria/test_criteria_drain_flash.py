@@ -139,10 +139,14 @@ def test_bubble_pressure_of_a_mixture_wins_over_the_vapour_pressure():
     assert verdict.status == "fail" and verdict.limit == pytest.approx(1.95)
 
 
-def test_unknown_vapour_pressure_is_not_applicable():
+def test_unknown_vapour_pressure_is_an_error_that_says_how_to_supply_it():
+    # Unjudged is never a pass: a liquid whose backend gives no vapour or bubble pressure is not judged.
     verdict = Flashing().evaluate(make_context())
-    assert verdict.status == "not-applicable"
-    assert "vapour pressure of line T-1 is unknown (backend 'test' gives none)" in verdict.reason
+    assert verdict.status == "error"
+    assert verdict.reason == ("flashing not judged: the vapour or bubble pressure of line T-1 is unknown (backend "
+                              "'test' gives none); name the fluid so that a backend gives it (CoolProp for a pure "
+                              "fluid, thermo for a mixture) or judge the line in a service without flashing "
+                              "(criteria file)")
 
 
 def test_warn_only_must_be_true_or_false(tmp_path, host):

@@ -81,10 +81,12 @@ def test_mach_from_the_equation_of_state_speed_of_sound(sizer):
     assert tight.status == "fail" and "above the maximum 0.05 -" in tight.reason
 
 
-def test_mach_without_a_speed_of_sound_is_not_applicable():
+def test_mach_without_a_speed_of_sound_is_an_error_that_says_how_to_supply_it():
     verdict = MachLimit().evaluate(make_context(options={"max": 0.3}))
-    assert verdict.status == "not-applicable"
-    assert "speed of sound of line T-1 is unknown (backend 'test' gives none)" in verdict.reason
+    assert verdict.status == "error"
+    assert verdict.reason == ("Mach number not judged: the speed of sound of line T-1 is unknown (backend 'test' "
+                              "gives none); name the fluid so that a backend gives it (a line's own density and "
+                              "viscosity carry none) or judge the line in a service without mach (criteria file)")
 
 
 def test_mach_needs_a_limit():

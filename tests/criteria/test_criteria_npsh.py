@@ -111,18 +111,22 @@ def test_bubble_point_service_end_to_end(sizer):
     assert verdict.status == "pass"
 
 
-def test_missing_npsh_required_is_not_applicable_and_says_which_input():
+def test_missing_npsh_required_is_an_error_that_says_which_input():
     verdict = NpshMargin().evaluate(make_context(line={"source_pressure": 2e5, "liquid_level": 3.0},
                                                  state={"vapour_pressure": 3e3}))
-    assert verdict.status == "not-applicable"
-    assert verdict.reason == "NPSH not checked: no npsh_required given for line T-1"
+    assert verdict.status == "error"
+    assert verdict.reason == ("NPSH margin not judged for line T-1: no npsh_required given (line-list columns: give "
+                              "them); or size the line in a service without npsh-margin (criteria file)")
 
 
 def test_missing_vapour_pressure_is_named_with_the_backend():
     verdict = NpshMargin().evaluate(make_context(line={"source_pressure": 2e5, "liquid_level": 3.0,
                                                        "npsh_required": 2.0}))
-    assert verdict.status == "not-applicable"
-    assert "no vapour pressure (backend 'test' gives none" in verdict.reason
+    assert verdict.status == "error"
+    assert verdict.reason == ("NPSH margin not judged for line T-1: the vapour or bubble pressure is unknown (backend "
+                              "'test' gives none): name the fluid so that a backend gives it (CoolProp for a pure "
+                              "fluid, thermo for a mixture), or set at_bubble_point for a liquid drawn at its bubble "
+                              "point; or size the line in a service without npsh-margin (criteria file)")
 
 
 @pytest.mark.parametrize(("given", "message"), [

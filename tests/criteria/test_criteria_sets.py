@@ -39,7 +39,7 @@ def test_the_services_the_issue_asks_for_are_shipped(host):
         service = config.services[name]
         assert service.phase == phase and service.origin == "built-in"
         assert service.set_name in ("boresize-liquid", "boresize-gas") and re.fullmatch(r"\d{4}\.\d+", service.version)
-    assert config.version == "boresize-liquid 2026.1, boresize-gas 2026.1"
+    assert config.version == "boresize-liquid 2026.2, boresize-gas 2026.1"
 
 
 def _set_lines():
@@ -73,7 +73,7 @@ def test_a_service_shipped_twice_is_named(monkeypatch, host):
 
 def test_stamp_names_the_service_the_set_and_its_version(host, tmp_path: Path):
     config = load_config(host)
-    assert config.services["pump-suction"].stamp == "pump-suction (boresize-liquid 2026.1)"
+    assert config.services["pump-suction"].stamp == "pump-suction (boresize-liquid 2026.2)"
     path = tmp_path / "acme.toml"
     path.write_text(textwrap.dedent("""
         name = "ACME-PS-0001"
@@ -90,7 +90,7 @@ def test_stamp_names_the_service_the_set_and_its_version(host, tmp_path: Path):
     assert config.services["gas"].stamp == "gas (ACME-PS-0001 rev 3)"
     assert config.services["fuel-gas"].stamp == "fuel-gas (ACME-PS-0001 rev 4)"
     assert config.services["steam"].stamp == "steam (boresize-gas 2026.1)"
-    assert config.version == "boresize-liquid 2026.1, boresize-gas 2026.1 + rev 3"
+    assert config.version == "boresize-liquid 2026.2, boresize-gas 2026.1 + rev 3"
 
 
 def test_a_file_without_name_or_version_is_stamped_with_its_file_name(host, tmp_path: Path):
@@ -109,7 +109,7 @@ def test_version_must_be_text(host, tmp_path: Path):
 def test_every_result_is_stamped_with_its_set_and_version(sizer):
     row = {"tag": "W-1", "fluid": "water", "flow": "20 t/h", "pressure": "5 barg", "temperature": "20 degC",
            "service": "pump-discharge"}
-    assert sizer.run(line_from_row(row)).criteria_set == "pump-discharge (boresize-liquid 2026.1)"
+    assert sizer.run(line_from_row(row)).criteria_set == "pump-discharge (boresize-liquid 2026.2)"
 
 
 # --- bands ------------------------------------------------------------------------------------------------------
@@ -141,7 +141,8 @@ def test_bands_by_pressure_and_common_options(tmp_path: Path, host):
         [service.cw.velocity]
         min = "1 m/s"
     """))
-    (criterion, _), = load_config(host, path).services["cw"].criteria
+    (criterion, _), (feasibility, _) = load_config(host, path).services["cw"].criteria
+    assert feasibility.id == "line-feasibility"  # every service gets it, last
     first, second = criterion.bands
     assert first.up_to_pressure == pytest.approx(11.01325e5)
     assert first.options == {"max": 2.0, "min": 1.0} and second.options == {"max": 3.0, "min": 1.0}
@@ -179,7 +180,7 @@ def test_banded_sizing_end_to_end(sizer):
     # pump-suction limits NPS 2 and below to 0.9 m/s (common practice). 5 t/h of water: NPS 1-1/2 would run at
     # 1.1 m/s (bore 40.9 mm, ASME B36.10M) and NPS 2 at 0.66 m/s, so the set picks NPS 2.
     row = {"tag": "PS-1", "fluid": "water", "flow": "5 t/h", "pressure": "2 barg", "temperature": "20 degC",
-           "service": "pump-suction"}
+           "service": "pump-suction", "source_pressure": "2 barg", "liquid_level": "3 m", "npsh_required": "2 m"}
     result = sizer.run(line_from_row(row))
     velocity = next(v for v in result.selected.verdicts if v.criterion == "velocity")
     assert result.selected.candidate.nps == "2"
@@ -188,7 +189,7 @@ def test_banded_sizing_end_to_end(sizer):
 
 def test_the_listing_shows_bands_and_set_versions(host):
     text = render_criteria(host, load_config(host))
-    assert "pump-suction (liquid): pump suction, subcooled liquid  [set boresize-liquid 2026.1]" in text
+    assert "pump-suction (liquid): pump suction, subcooled liquid  [set boresize-liquid 2026.2]" in text
     assert "        NPS up to 2: max=0.9 SI" in text
     assert "        inlet pressure up to 80 bar abs: max=1.25e+04 SI" in text
 

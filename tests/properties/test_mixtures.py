@@ -202,10 +202,14 @@ def test_mixed_line_list_sizes_the_good_lines_and_records_each_source(batch: dic
     expected = {"P-1": "coolprop", "G-1": "thermo", "L-1": "thermo", "F-1": "table", "B-1": "coolprop-mixture",
                 "P-2": "coolprop"}
     table = render_table(list(batch.values()), sizer.config.origin, sizer.config.version)
+    unjudged = {"F-1", "B-1"}  # line-list values and CoolProp's brines give no vapour pressure: flashing says error
     for tag, source in expected.items():
         entry = result_to_dict(batch[tag])
-        assert entry["status"] in ("pass", "fail"), entry.get("error")
         assert entry["property_source"] == source and entry["property_model"]
+        if tag in unjudged:
+            assert entry["status"] == "error" and entry["error"].startswith(f"line {tag}: flashing not judged: ")
+            continue
+        assert entry["status"] in ("pass", "fail"), entry.get("error")
         row = next(line for line in table.splitlines() if line.startswith(tag + " "))
         assert row.rstrip().endswith(source)  # the table's Source column
 

@@ -20,6 +20,7 @@ import pytest
 
 from boresize.api import make_line
 from boresize.criteria.base import CriterionContext
+from boresize.criteria.feasibility import FEASIBILITY_ID
 from boresize.hookspecs import hookimpl
 from boresize.io.read import read_line_list
 from boresize.io.rows import line_from_row
@@ -46,8 +47,10 @@ class CompanyPlugin:
 
 
 def _builtins() -> list[Any]:
+    """The built-in rules a company may re-register; not line-feasibility, which every service gets whatever
+    its file says (sizing.services)."""
     host = PluginHost.load(load_entry_points=False)
-    return [host.criteria.get(ident) for ident in host.criteria.ids()]
+    return [host.criteria.get(ident) for ident in host.criteria.ids() if ident != FEASIBILITY_ID]
 
 
 def _subclassed() -> list[Any]:
@@ -144,7 +147,6 @@ def _demo_lines() -> list[list[Line]]:
 def _varied_lines() -> list[list[Line]]:
     """Gas lines (marched, banded by pressure, low-pressure vapour, steam) and liquid lines (pump suctions,
     a velocity minimum, a gravity drain, a checked size), one case each."""
-    water = {"density": "998 kg/m3", "viscosity": "1.0 mPa.s"}  # about 20 degC (IAPWS-95, 3 figures)
     made = [
         make_line("G-1", "methane", "20000 Sm3/h", "3 barg", "25 degC", service="gas", length="1500 m"),
         make_line("G-2", "methane", "60000 Sm3/h", "40 barg", "30 degC", service="gas-by-pressure", length="800 m"),
@@ -153,15 +155,15 @@ def _varied_lines() -> list[list[Line]]:
         make_line("G-5", "steam", "6 t/h", "10 barg", "200 degC", service="steam", length="250 m"),
         make_line("G-6", "nitrogen", "3000 Nm3/h", "1.5 barg", "20 degC", service="gas", length="2000 m"),
         make_line("L-1", "water", "60 m3/h", "1.5 barg", "30 degC", service="pump-suction", length="20 m",
-                  source_pressure="1.5 barg", liquid_level="3 m", npsh_required="3 m", **water),
+                  source_pressure="1.5 barg", liquid_level="3 m", npsh_required="3 m"),
         make_line("L-2", "water", "400 m3/h", "2 barg", "30 degC", service="pump-suction", length="40 m",
-                  source_pressure="2 barg", liquid_level="2 m", npsh_required="5 m", **water),
-        make_line("L-3", "water", "250 m3/h", "4 barg", "25 degC", service="cooling-water", length="300 m", **water),
+                  source_pressure="2 barg", liquid_level="2 m", npsh_required="5 m"),
+        make_line("L-3", "water", "250 m3/h", "4 barg", "25 degC", service="cooling-water", length="300 m"),
         make_line("L-4", "water", "40 m3/h", "1 barg", "40 degC", service="gravity-drain", length="30 m",
-                  elevation="-6 m", **water),
+                  elevation="-6 m"),
         make_line("L-5", "toluene", "25 t/h", "6 barg", "60 degC", service="liquid", length="120 m"),
-        make_line("L-6", "water", "30 m3/h", "5 barg", "20 degC", service="liquid", nps="3", **water),
-        make_line("L-7", "water", "15 m3/h", "9 barg", "20 degC", service="pump-discharge", length="180 m", **water),
+        make_line("L-6", "water", "30 m3/h", "5 barg", "20 degC", service="liquid", nps="3"),
+        make_line("L-7", "water", "15 m3/h", "9 barg", "20 degC", service="pump-discharge", length="180 m"),
     ]
     return [[line] for line in made]
 
@@ -195,7 +197,7 @@ def builtin_sizer() -> Sizer:
 def _company_sizer(criteria: Iterable[Any], folder: Path) -> Sizer:
     host = PluginHost.load(load_entry_points=False, extra=[CompanyPlugin(criteria)])
     sizer = Sizer(host, criteria_file=_company_criteria_file(folder))
-    used = {c.id for service in sizer.config.services.values() for c, _ in service.criteria}
+    used = {c.id for service in sizer.config.services.values() for c, _ in service.criteria} - {FEASIBILITY_ID}
     assert used and all(ident.startswith(PREFIX) for ident in used)  # no built-in id is left in any service
     return sizer
 
@@ -211,7 +213,9 @@ def test_built_ins_under_company_ids_select_the_same_sizes_rating_as_many(builti
     lines = LISTS[which]()
     expected = _run(builtin_sizer, lines)
     got = _run(_company_sizer(make(), tmp_path), lines)
-    assert sum(r.selected is not None for r in expected) >= len(lines) - 1  # the lists really size lines
+    # the lists really size lines (the demo's 140-P-001 gives no NPSH inputs and 140-FO-050 no vapour pressure:
+    # pump-suction's npsh-margin and liquid's flashing cannot judge them, and unjudged is an error)
+    assert sum(r.selected is not None for r in expected) >= len(lines) - (3 if which == "demo" else 1)
     if which == "varied":  # the march screen is exercised: some gas sizes are not marched
         assert any("not marched" in c.hydraulics.method for r in expected for c in r.candidates)
     assert [_outcome(r) for r in got] == [_outcome(r) for r in expected]

@@ -4,6 +4,7 @@ from __future__ import annotations
 
 from boresize.criteria.drop_per_length import DropPerLength
 from boresize.criteria.erosional import ErosionalVelocity
+from boresize.criteria.feasibility import LineFeasibility
 from boresize.criteria.flashing import Flashing
 from boresize.criteria.gas_noise import NoiseVelocity
 from boresize.criteria.gravity_drain import GravityDrain
@@ -28,3 +29,4 @@ def boresize_register_criteria(register: CriterionRegistry) -> None:
     register.add(NoiseVelocity())
     register.add(MachLimit())
     register.add(OutletPressure())
+    register.add(LineFeasibility())

@@ -34,8 +34,10 @@ class MachLimit(Criterion):
         inlet = context.hydraulics.mach
         outlet = getattr(context.hydraulics, "outlet_mach", None)  # set by a compressible rating
         if inlet is None and outlet is None:
-            return verdict(self, "not-applicable", f"Mach number not checked: the speed of sound of line "
-                           f"{context.line.tag} is unknown (backend {context.state.source!r} gives none)")
+            return verdict(self, "error", f"Mach number not judged: the speed of sound of line {context.line.tag} "
+                           f"is unknown (backend {context.state.source!r} gives none); name the fluid so that a "
+                           f"backend gives it (a line's own density and viscosity carry none) or judge the line "
+                           f"in a service without mach (criteria file)")
         where = "outlet" if outlet is not None and (inlet is None or outlet > inlet) else "inlet"
         mach = outlet if where == "outlet" else inlet
         return judge_range(self, mach, context.options, f"Mach number at the {where}", "-", 1.0)  # type: ignore[arg-type]

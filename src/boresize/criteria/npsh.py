@@ -105,7 +105,8 @@ class NpshMargin(Criterion):
         at_bubble = bool(opts.get("at_bubble_point", 0.0))
         missing = _missing_inputs(context, at_bubble)
         if missing:
-            return verdict(self, "not-applicable", f"NPSH not checked: no {missing} given for line {line.tag}")
+            return verdict(self, "error", f"NPSH margin not judged for line {line.tag}: {missing}; or size the line "
+                           f"in a service without npsh-margin (criteria file)")
         p_vap = source_vapour_pressure(context)
         p_source = line.source_pressure if line.source_pressure is not None else 0.0
         if at_bubble:
@@ -124,15 +125,17 @@ class NpshMargin(Criterion):
 
 
 def _missing_inputs(context: CriterionContext, at_bubble: bool) -> str:
+    """What NPSH available needs and the line lacks, with how to supply it; empty when nothing is missing."""
     line = context.line
     names = [name for name in ("npsh_required", "liquid_level") if getattr(line, name) is None]
-    if not at_bubble:
-        if line.source_pressure is None:
-            names.append("source_pressure")
-        if source_vapour_pressure(context) is None:
-            names.append(f"vapour pressure (backend {context.state.source!r} gives none; set at_bubble_point "
-                         f"for a liquid at its bubble point)")
-    return ", ".join(names)
+    if not at_bubble and line.source_pressure is None:
+        names.append("source_pressure")
+    parts = [f"no {', '.join(names)} given (line-list columns: give them)"] if names else []
+    if not at_bubble and source_vapour_pressure(context) is None:
+        parts.append(f"the vapour or bubble pressure is unknown (backend {context.state.source!r} gives none): name "
+                     f"the fluid so that a backend gives it (CoolProp for a pure fluid, thermo for a mixture), or "
+                     f"set at_bubble_point for a liquid drawn at its bubble point")
+    return "; ".join(parts)
 
 
 def _terms(context: CriterionContext, p_source: float, p_vap: float, losses: float, at_bubble: bool) -> str:

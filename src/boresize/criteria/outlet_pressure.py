@@ -47,8 +47,11 @@ class OutletPressure(Criterion):
         if h.choked and minimum is None and max_drop is None:
             return verdict(self, "fail", f"choked flow: the line reaches its sonic limit before its end at this "
                            f"size ({_parts(h)})", utilisation=1.0)
-        if h.outlet_pressure is None or (minimum is None and max_drop is None):
+        if minimum is None and max_drop is None:
             return self._not_applicable
+        if h.outlet_pressure is None:
+            return verdict(self, "error", f"outlet pressure not judged: the line's method gives no outlet pressure "
+                           f"at this size ({h.method})")
         judged = [v for v in (self._minimum(h, line.pressure, minimum), self._drop(h, max_drop)) if v is not None]
         failed = [v for v in judged if v.status == "fail"]
         return max(failed or judged, key=lambda v: v.utilisation if v.utilisation is not None else 0.0)

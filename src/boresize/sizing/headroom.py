@@ -81,6 +81,9 @@ def find_headroom(sizer: Sizer, line: Line, *, tolerance: float = TOLERANCE) -> 
     if base.selected is None:
         return Headroom(line.tag, None, None, (), base.error or "no size to rate")
     nps = base.selected.candidate.nps
+    unjudged = [v.reason for v in base.selected.verdicts if v.status == "error"]
+    if unjudged:  # an unjudged criterion fails at every flow: there is no boundary to find
+        return Headroom(line.tag, None, nps, (), f"no headroom at NPS {nps}: a criterion cannot judge it: {unjudged[0]}")
     run = _trial(sizer, line, nps)
     bracket = _bracket(lambda factor: run(factor).status == "pass")
     if bracket is None:

@@ -3,7 +3,9 @@
 A criteria file holds ``[service.NAME]`` tables whose keys are criterion ids with their options
 (plus ``phase``, ``design_margin``, ``pipe_class`` and ``description``), and ``[pipe_class.NAME]``
 tables. A service defined in the file replaces the shipped service of the same name whole, so what
-a company writes is exactly what runs.
+a company writes is exactly what runs, with one exception: every service gets the ``line-feasibility``
+criterion (:mod:`boresize.criteria.feasibility`) appended last. It has no options; a file may name it with an
+empty table (``line-feasibility = {}``) and no more, and cannot remove it.
 
 The shipped sets live in ``criteria/sets/*.toml``, one file per family of services, each with a ``name``
 and a ``version``; a service may carry its own ``version``. Every service knows the set and version it
@@ -21,6 +23,7 @@ from pathlib import Path
 from typing import Any
 
 from boresize.criteria.bands import resolve_criterion
+from boresize.criteria.feasibility import FEASIBILITY_ID, LineFeasibility
 from boresize.errors import CriteriaFileError, InputError
 from boresize.pipes import PipeClass, pipe_class_from_table
 from boresize.plugins import PluginHost
@@ -40,6 +43,9 @@ TOP_KEYS = ("name", "version", "service", "pipe_class")
 SERVICE_PHASES = ("liquid", "gas", "dense")
 #: The shipped criteria sets, one file per family, in ``boresize/criteria/sets/``.
 SHIPPED_SETS = ("liquid.toml", "gas.toml")
+
+
+_FEASIBILITY = LineFeasibility()
 
 
 @dataclass(frozen=True)
@@ -64,6 +70,11 @@ class Service:
     def accepts(self) -> tuple[str, ...]:
         """The phases whose lines this service judges; empty when it names none (any single phase)."""
         return self.phases or ((self.phase,) if self.phase else ())
+
+    def __post_init__(self) -> None:
+        """Every service judges ``line-feasibility``, last, however it was built (file, shipped set or code)."""
+        if not any(getattr(criterion, "id", None) == FEASIBILITY_ID for criterion, _ in self.criteria):
+            object.__setattr__(self, "criteria", (*self.criteria, (_FEASIBILITY, {})))
 
     @property
     def stamp(self) -> str:
@@ -134,9 +145,12 @@ def _service(name: str, table: Mapping[str, Any], host: PluginHost, origin: str,
     for key, options in table.items():
         if key in SERVICE_KEYS:
             continue
+        if key == FEASIBILITY_ID:
+            _check_feasibility(options, f"{where}.{key}")
+            continue
         if key not in host.criteria:
             raise CriteriaFileError(f"unknown criterion {key!r}", field=f"{where}.{key}", value=key,
-                                    expected=f"a criterion id ({', '.join(host.criteria.ids())}) or one of "
+                                    expected=f"a criterion id ({', '.join(_named_ids(host))}) or one of "
                                              f"{', '.join(SERVICE_KEYS)}")
         if not isinstance(options, Mapping):
             raise CriteriaFileError("criterion options must be a table", field=f"{where}.{key}", value=options,
@@ -166,6 +180,20 @@ def _phases(value: Any, where: str) -> tuple[str, ...]:
             raise CriteriaFileError(f"unknown phase {phase!r}", field=f"{where}.phase", value=phase,
                                     expected='"liquid", "gas" or "dense", or a list of them')
     return tuple(dict.fromkeys(given))
+
+
+def _named_ids(host: PluginHost) -> tuple[str, ...]:
+    """The criterion ids a file may choose from (not line-feasibility: every service has it anyway)."""
+    return tuple(ident for ident in host.criteria.ids() if ident != FEASIBILITY_ID)
+
+
+def _check_feasibility(options: Mapping[str, Any], where: str) -> None:
+    """``line-feasibility`` in a file: an empty table at most (every service gets it; nothing may weaken it)."""
+    if not isinstance(options, Mapping) or options:
+        shown = next(iter(options)) if isinstance(options, Mapping) else options
+        raise CriteriaFileError(f"{FEASIBILITY_ID} cannot be removed, weakened or banded: it has no options and "
+                                f"every service gets it", field=where, value=shown,
+                                expected=f"{FEASIBILITY_ID} = {{}} or nothing (it is always applied)")
 
 
 def _merge(config: SizingConfig, document: Mapping[str, Any], host: PluginHost, origin: str,
