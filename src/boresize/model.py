@@ -284,3 +284,6 @@ class LineResult:
     raw: dict[str, str] = field(default_factory=dict)
     cases: tuple[LineResult, ...] = ()
     governing: tuple[tuple[str, str], ...] = ()
+    #: a failing check (given NPS): the smallest size of its pipe class that passes (None: none does, or not a
+    #: failing check)
+    smallest_passing_nps: str | None = None

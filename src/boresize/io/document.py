@@ -66,6 +66,7 @@ def result_to_dict(result: LineResult) -> dict[str, Any]:
         "verdicts": [verdict_to_dict(v) for v in sel.verdicts] if sel else [],
         "case": _case(result),
         "governing": dict(result.governing),
+        "smallest_passing_nps": result.smallest_passing_nps,
     }
     if result.error:
         entry["error"] = result.error
