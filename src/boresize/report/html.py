@@ -41,6 +41,16 @@ def _given(case: LineResult, headers: Mapping[str, str], units: Mapping[str, str
     return [(headers.get(name, name), value, units.get(name) or "") for name, value in raw.items() if value != ""]
 
 
+def _margin(case: LineResult) -> str:
+    """The design margin applied, and whose it is (the line's own or its service's)."""
+    line = case.line
+    own = line is not None and line.design_margin is not None
+    applied = case.design_margin if case.design_margin is not None else line.design_margin if line else None
+    if applied is None:
+        return "the service's"
+    return f"{applied * 100:.3g} % ({'the line' if own else 'the service'}'s)"
+
+
 def _used(case: LineResult) -> list[tuple[str, str, str]]:
     line, state, sel = case.line, case.state, case.selected
     if line is None:
@@ -48,7 +58,7 @@ def _used(case: LineResult) -> list[tuple[str, str, str]]:
     rows = [("fluid", line.fluid + (f" ({state.fluid_name})" if state and state.fluid_name else ""), ""),
             ("flow", _num(line.flow.value * 3600, 6), _FLOW_UNITS[line.flow.basis] + (
                 f" at {line.flow.reference_name}" if line.flow.reference_name else "")),
-            ("design margin", _pct(line.design_margin) if line.design_margin is not None else "the service's", ""),
+            ("design margin", _margin(case), ""),
             ("sizing mass flow", _num(case.sizing_flow * 3600 if case.sizing_flow else None, 6), "kg/h"),
             ("inlet pressure", _num(line.pressure / 1e5, 6), "bar abs"),
             ("temperature", _num(line.temperature - 273.15, 5), "degC"), ("length", _num(line.length), "m"),

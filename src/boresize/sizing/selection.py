@@ -108,7 +108,7 @@ def build_result(line: Line, state: FluidState, service: Service, rated: tuple[C
         tag=line.tag, status="pass" if passed else "fail", mode=mode, line=line, state=state,
         selected=shown, candidates=rated, controlling=controlling,
         notes=tuple(notes), service=service.name, criteria_set=version, sizing_flow=mass_flow,
-        first_guess_diameter=first_guess,
+        first_guess_diameter=first_guess, design_margin=margin,
     )
 
 
