@@ -14,8 +14,8 @@ every criterion passes.
   1/1024 of the design flow.
 
 A line that fails at its design flow is searched for the nearest passing flow, alternately below and
-above, in steps of a factor of the square root of two; a window narrower than a step can be missed (the
-note then says no flow passed). The search brackets each boundary by doubling (or halving) the flow, then
+above, in steps of a factor of the square root of two; between two steps that fail different limits (a
+maximum above, a minimum below) the flow is bisected, so that a window narrower than a step is found too. The search brackets each boundary by doubling (or halving) the flow, then
 bisects. Every trial is an
 ordinary :meth:`boresize.sizing.engine.Sizer.run` of the line checked at the fixed size, so every installed
 criterion, the fittings, static head and the compressible method all take part.
@@ -68,17 +68,52 @@ def _trial(sizer: Sizer, line: Line, nps: str) -> Callable[[float], LineResult]:
     return run
 
 
-def _passing_factor(passes: Callable[[float], bool]) -> float | None:
+def _passing_factor(trial: Callable[[float], LineResult]) -> float | None:
     """A flow factor at which the line passes: 1 when the design flow does, else the nearest on a grid of
-    :data:`_STEP` between :data:`_DOWN` and :data:`_UP` (below first on a tie), or None."""
-    if passes(1.0):
+    :data:`_STEP` between :data:`_DOWN` and :data:`_UP` (below first on a tie), else one found between two grid
+    flows that fail different limits (a maximum above, a minimum below: the window can be narrower than a step);
+    None when none is found."""
+    if trial(1.0).status == "pass":
         return 1.0
+    tried = [1.0]
     factor = _STEP
     while factor <= _UP:
-        for trial in (1.0 / factor, factor):
-            if passes(trial):
-                return trial
+        for each in (1.0 / factor, factor):
+            if trial(each).status == "pass":
+                return each
+            tried.append(each)
         factor *= _STEP
+    tried.sort()
+    for low, high in zip(tried, tried[1:]):
+        found = _between(trial, low, high)
+        if found is not None:
+            return found
+    return None
+
+
+def _fails(result: LineResult) -> set[tuple[str, bool]]:
+    """What fails: (criterion, whether its value is below its limit) for each failing verdict."""
+    verdicts = result.selected.verdicts if result.selected else ()
+    return {(v.criterion, v.value is not None and v.limit is not None and v.value < v.limit)
+            for v in verdicts if v.status not in PASSING_STATUSES}
+
+
+def _between(trial: Callable[[float], LineResult], low: float, high: float) -> float | None:
+    """A passing factor between ``low`` and ``high`` when they fail different limits, narrowed by bisection while
+    the middle fails only the limits of one side; None otherwise."""
+    below, above = _fails(trial(low)), _fails(trial(high))
+    while below and above and not below & above and high / low - 1.0 > TOLERANCE:
+        middle = (low * high) ** 0.5
+        result = trial(middle)
+        if result.status == "pass":
+            return middle
+        fails = _fails(result)
+        if fails and fails <= below:
+            low = middle
+        elif fails and fails <= above:
+            high = middle
+        else:
+            return None
     return None
 
 
@@ -116,31 +151,41 @@ def find_headroom(sizer: Sizer, line: Line, *, tolerance: float = TOLERANCE) -> 
         return Headroom(line.tag, None, None, (), base.error or "no size to rate")
     nps = base.selected.candidate.nps
     run = _trial(sizer, line, nps)
-    seen: dict[float, bool] = {}
+    seen: dict[float, LineResult] = {}
 
-    def passes(factor: float) -> bool:
+    def trial(factor: float) -> LineResult:
         if factor not in seen:
-            seen[factor] = run(factor).status == "pass"
+            seen[factor] = run(factor)
         return seen[factor]
 
-    inside = _passing_factor(passes)
+    def passes(factor: float) -> bool:
+        return trial(factor).status == "pass"
+
+    inside = _passing_factor(trial)
     if inside is None:
-        return Headroom(line.tag, None, nps, _failing(run, 1.0), f"at NPS {nps} no flow between {_DOWN:g} and "
+        return Headroom(line.tag, None, nps, _failing(trial, 1.0), f"at NPS {nps} no flow between {_DOWN:g} and "
                         f"{_UP:g} times the design flow passes every criterion")
     high, low = _edge(passes, inside, 2.0, tolerance), _edge(passes, inside, 0.5, tolerance)
-    up, down = _failing(run, high), _failing(run, low)
+    up, down = _failing(trial, high), _failing(trial, low)
     return Headroom(line.tag, None if high is None else (high - 1.0) * 100.0, nps, up, _note(nps, high, low, up, down),
                     None if low is None else (1.0 - low) * 100.0, down)
 
 
 def _note(nps: str, high: float | None, low: float | None, up: tuple[str, ...], down: tuple[str, ...]) -> str:
     """The window in plain words (percentages of the design flow, design margin not applied)."""
-    start = f"{low * 100.0:.4g} %" if low is not None else f"{_DOWN * 100.0:.4g} % (or less)"
-    end = f"{high * 100.0:.4g} %" if high is not None else f"{_UP * 100.0:.4g} % (or more)"
-    below = f"below, {', '.join(down) or 'a criterion'} fails" if low is not None else "no criterion fails below"
-    above = f"above, {', '.join(up) or 'a criterion'} fails" if high is not None else "no criterion fails above"
-    return (f"at NPS {nps} every criterion passes from {start} to {end} of the design flow (design margin not "
-            f"applied): {below}; {above}")
+    where = f"at NPS {nps} every criterion passes"
+    flow = "of the design flow (design margin not applied)"
+    above = f"above, {', '.join(up) or 'a criterion'} fails"
+    below = f"below, {', '.join(down) or 'a criterion'} fails"
+    if high is not None and low is not None:
+        return f"{where} from {low * 100.0:.4g} % to {high * 100.0:.4g} % {flow}: {below}; {above}"
+    if high is not None:
+        return (f"{where} up to {high * 100.0:.4g} % {flow}: {above}; no criterion fails below, down to "
+                f"{_DOWN:g} times the design flow")
+    if low is not None:
+        return (f"{where} from {low * 100.0:.4g} % {flow}: {below}; no criterion fails above, up to {_UP:g} times "
+                f"the design flow")
+    return f"{where} from {_DOWN:g} to {_UP:g} times the design flow (design margin not applied)"
 
 
 def headroom(sizer: Sizer, line: Line) -> float | None:
