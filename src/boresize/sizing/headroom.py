@@ -23,6 +23,7 @@ criterion, the fittings, static head and the compressible method all take part.
 
 from __future__ import annotations
 
+import math
 from collections.abc import Callable
 from dataclasses import dataclass, replace
 from typing import Any
@@ -103,7 +104,7 @@ def _between(trial: Callable[[float], LineResult], low: float, high: float) -> f
     the middle fails only the limits of one side; None otherwise."""
     below, above = _fails(trial(low)), _fails(trial(high))
     while below and above and not below & above and high / low - 1.0 > TOLERANCE:
-        middle = (low * high) ** 0.5
+        middle = math.sqrt(low * high)
         result = trial(middle)
         if result.status == "pass":
             return middle
