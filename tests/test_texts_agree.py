@@ -300,6 +300,16 @@ def test_record_and_html_state_the_reported_values(results):
     assert {float(m) for m, _ in margins} == {float(format(m * 100, ".3g")) for m in expected}
     own = [m for m, whose in margins if whose == "line"]
     assert own == ["12.5"]
+    summary = re.findall(r'<tr><td><a href="#line-\d+">([^<]+)</a>.*?<td class="num">[^<]*</td><td>([^<]*)</td>'
+                         r'<td class="num">([^<]*)</td>', page, flags=re.S)
+    assert len(summary) == len(results)
+    for tag, controlling, utilisation in summary:
+        result = results[tag]
+        if result.controlling is None:
+            assert controlling.startswith(("none (the smallest size", "-")) and utilisation == "-", (tag, controlling)
+            continue
+        assert controlling == result.controlling
+        assert utilisation == format(controlling_utilisation(result)[0], ".0%"), (tag, utilisation)
 
 
 def test_a_failing_check_names_the_smallest_passing_size_as_sizing_selects(results, sizer):

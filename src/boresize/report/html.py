@@ -18,6 +18,7 @@ from boresize.io.document import CAUTION
 from boresize.io.sheet_rows import case_name, case_rows
 from boresize.io.rows import parse_header
 from boresize.model import CandidateResult, LineResult
+from boresize.sizing.selection import controlling_utilisation
 
 __all__ = ["MAX_PLOTS", "render_html", "write_html"]
 
@@ -109,16 +110,22 @@ def _line_view(result: LineResult, headers: Mapping[str, str], units: Mapping[st
     cases = [{"name": case_name(c) or "", "status": c.status, "error": c.error if result.cases else None,
               "given": _given(c, headers, units), "used": _used(c), "candidates": _window(c.candidates, chosen),
               "verdicts": _verdicts(c)} for c in case_rows(result)]
-    worst = sel.worst if sel else None
     return {"tag": result.tag, "status": result.status, "mode": result.mode, "service": result.service or "-",
             "case_count": len(result.cases) or 1, "nps": sel.candidate.nps if sel else "",
             "schedule": sel.candidate.schedule if sel else "",
             "velocity": _num(sel.hydraulics.velocity if sel else None),
             "drop": _num(sel.hydraulics.drop_per_length / 10.0 if sel else None),
-            "controlling": result.controlling or "-", "utilisation": _pct(worst.utilisation if worst else None),
+            "controlling": _controlling(result), "utilisation": _pct(controlling_utilisation(result)[0]),
             "case": case_name(result) if result.cases else "", "governing": list(result.governing),
             "error": result.error, "notes": list(result.notes), "cases": cases,
             "plot": line_plot_svg(result) if plot else None}
+
+
+def _controlling(result: LineResult) -> str:
+    """The controlling criterion, or why there is none (the smallest size selected)."""
+    if result.controlling is None and result.status == "pass" and result.mode == "size":
+        return "none (the smallest size the pipe class allows)"
+    return result.controlling or "-"
 
 
 def _trace_rows(trace: Mapping[str, Any]) -> list[tuple[str, str]]:
