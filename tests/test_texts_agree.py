@@ -332,3 +332,18 @@ def test_headroom_note_states_the_window(results, sizer):
     assert _agree(window["hi"], 100.0 + room.percent, ".4g") and _agree(window["lo"], 100.0 - room.decrease_percent, ".4g")
     assert float(window["hi"]) == pytest.approx(100.0 + entry["headroom_percent"], rel=1e-3)
     assert float(window["lo"]) == pytest.approx(100.0 - entry["headroom_decrease_percent"], rel=1e-3)
+
+
+def test_diff_states_the_controlling_criterion_with_its_own_utilisation(results):
+    from boresize.report.diff import compare
+
+    for name in ("liquid", "two-cases"):
+        result = results[name]
+        new = result_to_dict(result)
+        old = {**new, "nps": "1"}  # a revision where the line was one size smaller
+        change = next(c for c in compare({"lines": [old]}, {"lines": [new]}).changes if c.kind == "size")
+        utilisation, case = controlling_utilisation(result)
+        stated = re.search(rf"now controlled by (?P<c>\S+) (?P<u>{N})%(?: in case (?P<case>.+))?$", change.reason)
+        assert stated is not None, change.reason
+        assert stated["c"] == result.controlling and _agree(stated["u"], utilisation * 100, ".0f"), change.reason
+        assert stated["case"] == case
