@@ -4,7 +4,8 @@ A line is often given for several operating cases (normal, maximum, minimum, sta
 with its own flow, pressure and temperature. They are one line: the size chosen is the smallest that
 passes every case, and for each criterion the case with the highest utilisation at that size governs
 it. The line's controlling criterion is the one that fails on the next smaller size in any case (the worst
-such fail); every case carries the line's. These helpers group rows into lines and combine per-case results; the engine does the rating.
+such fail); every case carries the line's. These helpers group rows into lines and combine per-case results;
+the engine does the rating.
 
 A row without a ``case`` value is a line of its own, exactly as before cases existed (two such rows
 with the same tag stay two lines, and the second is refused as a duplicate tag).

@@ -70,6 +70,9 @@ class Sizer:
         self.config = config or load_config(self.host, criteria_file)
         self.check_roughness = check_roughness
         self.every_size = every_size
+        #: a failing check names the smallest passing size of its pipe class (rates the class: headroom's trials
+        #: turn it off)
+        self.name_passing_size = True
         #: (pipe class, NPS, schedule) -> its candidates, keyed by content
         self._candidates: dict[tuple[PipeClass, str | None, str | None], tuple[Candidate, ...]] = {}
 
@@ -90,7 +93,7 @@ class Sizer:
     def _passing_size(self, result: LineResult, ready: Sequence[_Prepared]) -> LineResult:
         """A failing check names the smallest size of its pipe class that passes every case, sized as sizing
         sizes (the same properties, service, roughness and design margin; the class's schedules)."""
-        if result.mode != "check" or result.status != "fail":
+        if result.mode != "check" or result.status != "fail" or not self.name_passing_size:
             return result
         sized = [p._replace(line=replace(p.line, nps=None, schedule=None), mode="size") for p in ready]
         name = ready[0].pipe_class.name

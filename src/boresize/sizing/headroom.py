@@ -23,6 +23,7 @@ criterion, the fittings, static head and the compressible method all take part.
 
 from __future__ import annotations
 
+import copy
 import math
 from collections.abc import Callable
 from dataclasses import dataclass, replace
@@ -62,7 +63,11 @@ class Headroom:
 
 
 def _trial(sizer: Sizer, line: Line, nps: str) -> Callable[[float], LineResult]:
-    """A function running ``line`` at size ``nps`` with its flow times a factor, without design margin."""
+    """A function running ``line`` at size ``nps`` with its flow times a factor, without design margin (a failing
+    trial does not look for the smallest passing size)."""
+    sizer = copy.copy(sizer)
+    sizer.name_passing_size = False
+
     def run(factor: float) -> LineResult:
         flow = replace(line.flow, value=line.flow.value * factor)
         return sizer.run(replace(line, flow=flow, nps=nps, design_margin=0.0))
