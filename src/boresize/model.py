@@ -296,3 +296,8 @@ class LineResult:
     raw: dict[str, str] = field(default_factory=dict)
     cases: tuple[LineResult, ...] = ()
     governing: tuple[tuple[str, str], ...] = ()
+    #: a failing check (given NPS): the smallest size of its pipe class that passes (None: none does, or not a
+    #: failing check)
+    smallest_passing_nps: str | None = None
+    #: the design margin applied to the flow [-] (the line's own, else its service's); None when not rated
+    design_margin: float | None = None

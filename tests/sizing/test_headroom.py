@@ -73,7 +73,80 @@ def test_headroom_of_a_gas_line_against_its_outlet_pressure(host, tmp_path):
 def test_headroom_json_keys_and_an_unratable_line(sizer):
     line = line_from_row(WATER)
     entry = headroom_to_dict(find_headroom(sizer, line))
-    assert set(entry) == {"headroom_percent", "headroom_nps", "headroom_limited_by", "headroom_note"}
-    assert entry["headroom_note"].startswith(f"at NPS {entry['headroom_nps']} the flow can rise to ")
+    assert set(entry) == {"headroom_percent", "headroom_nps", "headroom_limited_by", "headroom_decrease_percent",
+                          "headroom_low_limited_by", "headroom_note"}
+    assert entry["headroom_note"] == (f"at NPS {entry['headroom_nps']} every criterion passes up to "
+                                      f"{100 + entry['headroom_percent']:.4g} % of the design flow (design margin not "
+                                      f"applied): above, {', '.join(entry['headroom_limited_by'])} fails; no criterion "
+                                      f"fails below, down to 0.000976562 times the design flow")
     bad = find_headroom(sizer, line_from_row({**WATER, "fittings": "elbow-91"}))
     assert bad.percent is None and bad.note.startswith("line HR-1: fittings: unknown fitting 'elbow-91'")
+
+
+def _velocity_window(host, tmp_path, nps: str):
+    """A line checked at ``nps`` under a minimum and a maximum velocity only (1 and 3 m/s, common practice for
+    cooling water), and the window of flow factors where 1 <= v <= 3 m/s by hand: continuity v = 4 Q / (pi D^2)
+    with Q = m / rho, rho from CoolProp (IAPWS-95) at 20 degC and 6.01325 bar abs, D the Sch 40 ID from the
+    fluids library's ASME B36.10M table."""
+    criteria = tmp_path / "window.toml"
+    criteria.write_text('[service.liquid]\nphase = "liquid"\nvelocity = { max = "3 m/s", min = "1 m/s" }\n',
+                        encoding="utf-8")
+    sizer = Sizer(host, criteria_file=criteria)
+    line = line_from_row({**WATER, "nps": nps})
+    rho = PropsSI("D", "T", 293.15, "P", 601_325.0, "Water")
+    di = nearest_pipe(NPS=float(nps), schedule="40")[1]
+    design_velocity = 4.0 * (60_000 / 3600 / rho) / (math.pi * di**2)
+    return find_headroom(sizer, line), 1.0 / design_velocity, 3.0 / design_velocity
+
+
+@pytest.mark.parametrize("nps", ["4", "8", "3"])
+def test_headroom_finds_the_window_between_a_minimum_and_a_maximum_velocity(host, tmp_path, nps):
+    # NPS 4 runs about 2 m/s (inside the window), NPS 8 about 0.5 m/s (below the minimum: the window lies above
+    # the design flow), NPS 3 about 3.6 m/s (above the maximum: the window lies below it).
+    result, low, high = _velocity_window(host, tmp_path, nps)
+    assert result.percent == pytest.approx(100.0 * (high - 1.0), abs=100.0 * high * 2 * TOLERANCE)
+    assert result.decrease_percent == pytest.approx(100.0 * (1.0 - low), abs=100.0 * low * 2 * TOLERANCE)
+    assert result.limited_by == ("velocity",) and result.low_limited_by == ("velocity",)
+    assert result.note == (f"at NPS {nps} every criterion passes from {low * 100:.4g} % to {high * 100:.4g} % of the "
+                           f"design flow (design margin not applied): below, velocity fails; above, velocity fails")
+
+
+def test_headroom_with_no_minimum_reports_no_lower_boundary(host, tmp_path):
+    criteria = tmp_path / "velocity-only.toml"
+    criteria.write_text('[service.liquid]\nphase = "liquid"\nvelocity = { max = "3 m/s" }\n', encoding="utf-8")
+    result = find_headroom(Sizer(host, criteria_file=criteria), line_from_row({**WATER, "nps": "4"}))
+    assert result.decrease_percent is None and result.low_limited_by == ()
+    assert result.note.endswith("above, velocity fails; no criterion fails below, down to 0.000976562 times the "
+                                "design flow")
+
+
+def test_headroom_finds_a_window_narrower_than_the_search_step(host, tmp_path):
+    # NPS 2 at 60 t/h runs about 7.7 m/s. Under a 1 m/s minimum velocity and a 35 kPa/100 m maximum drop (common
+    # practice for cooling water) it passes only between v = 1 m/s and the flow whose drop is 35 kPa/100 m, a window
+    # narrower than a factor of 1.41. By hand: continuity for the minimum; Darcy-Weisbach with the fluids library's
+    # Colebrook friction factor for the maximum (IAPWS-95 density and viscosity from CoolProp, Sch 40 ID from fluids).
+    from fluids.friction import Colebrook
+
+    criteria = tmp_path / "cw.toml"
+    criteria.write_text('[service.liquid]\nphase = "liquid"\nvelocity = { max = "3 m/s", min = "1 m/s" }\n'
+                        'drop-per-length = { max = "35 kPa/100 m" }\n', encoding="utf-8")
+    sizer = Sizer(host, criteria_file=criteria)
+    line = line_from_row({**WATER, "nps": "2"})
+    rho = PropsSI("D", "T", 293.15, "P", 601_325.0, "Water")
+    mu = PropsSI("V", "T", 293.15, "P", 601_325.0, "Water")
+    di = nearest_pipe(NPS=2, schedule="40")[1]
+    roughness = sizer.run(line).selected.candidate.roughness
+    design_v = 4.0 * (60_000 / 3600 / rho) / (math.pi * di**2)
+
+    def drop(v: float) -> float:  # kPa/100 m
+        return Colebrook(rho * v * di / mu, roughness / di) * rho * v**2 / (2.0 * di) / 10.0
+
+    low, high = 1.0, 3.0  # the velocity at which the drop reaches 35 kPa/100 m, by bisection
+    for _ in range(60):
+        low, high = ((low + high) / 2, high) if drop((low + high) / 2) < 35.0 else (low, (low + high) / 2)
+    upper, lower = low / design_v, 1.0 / design_v
+    assert 1.0 < upper / lower < 2.0 ** 0.5
+    result = find_headroom(sizer, line)
+    assert result.percent == pytest.approx(100.0 * (upper - 1.0), abs=100.0 * upper * 2 * TOLERANCE)
+    assert result.decrease_percent == pytest.approx(100.0 * (1.0 - lower), abs=100.0 * lower * 2 * TOLERANCE)
+    assert result.limited_by == ("drop-per-length",) and result.low_limited_by == ("velocity",)

@@ -66,6 +66,7 @@ def result_to_dict(result: LineResult) -> dict[str, Any]:
         "verdicts": [verdict_to_dict(v) for v in sel.verdicts] if sel else [],
         "case": _case(result),
         "governing": dict(result.governing),
+        "smallest_passing_nps": result.smallest_passing_nps,
     }
     if result.error:
         entry["error"] = result.error
@@ -99,7 +100,7 @@ def _record(result: LineResult) -> dict[str, Any]:
         record.update({
             "fluid": line.fluid, "pressure_bar_abs": _r(line.pressure / 1e5), "temperature_c": _r(line.temperature - 273.15),
             "length_m": _r(line.length), "pipe_class": sel.candidate.pipe_class if sel else line.pipe_class,
-            "design_margin": line.design_margin,
+            "design_margin": result.design_margin if result.design_margin is not None else line.design_margin,
             "roughness_mm": _r(roughness * 1e3) if roughness is not None else None,
         })
     if state is not None:

@@ -92,9 +92,19 @@ def _why_size(old: Entry, new: Entry) -> str:
         because = f"NPS {was} still passes; a smaller size now passes too"
     else:
         because = f"NPS {was} not rated in the new revision"
-    case = f" in case {new['case']}" if new.get("case") else ""
-    util = f" {new['utilisation']:.0%}" if isinstance(new.get("utilisation"), (int, float)) else ""
-    return f"{because}; now controlled by {new.get('controlling')}{util}{case}"
+    return f"{because}; now controlled by {_controlling(new)}"
+
+
+def _controlling(entry: Entry) -> str:
+    """The controlling criterion with its own utilisation at the size (the highest over the cases, and the case
+    that has it), or why none controls."""
+    name = entry.get("controlling")
+    if not name:
+        return "no criterion (the smallest size)" if entry.get("status") == "pass" else "(none)"
+    shown = [v.get("utilisation") for e in (entry.get("cases") or [entry]) for v in e.get("verdicts") or ()
+             if v.get("criterion") == name and isinstance(v.get("utilisation"), (int, float))]
+    case = (entry.get("governing") or {}).get(name) or entry.get("case")
+    return f"{name}{f' {max(shown):.0%}' if shown else ''}{f' in case {case}' if case else ''}"
 
 
 def _verdicts(entry: Entry) -> dict[str, str]:

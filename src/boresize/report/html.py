@@ -18,6 +18,7 @@ from boresize.io.document import CAUTION
 from boresize.io.sheet_rows import case_name, case_rows
 from boresize.io.rows import parse_header
 from boresize.model import CandidateResult, LineResult
+from boresize.sizing.selection import controlling_utilisation
 
 __all__ = ["MAX_PLOTS", "render_html", "write_html"]
 
@@ -41,6 +42,16 @@ def _given(case: LineResult, headers: Mapping[str, str], units: Mapping[str, str
     return [(headers.get(name, name), value, units.get(name) or "") for name, value in raw.items() if value != ""]
 
 
+def _margin(case: LineResult) -> str:
+    """The design margin applied, and whose it is (the line's own or its service's)."""
+    line = case.line
+    own = line is not None and line.design_margin is not None
+    applied = case.design_margin if case.design_margin is not None else line.design_margin if line else None
+    if applied is None:
+        return "the service's"
+    return f"{applied * 100:.3g} % ({'the line' if own else 'the service'}'s)"
+
+
 def _used(case: LineResult) -> list[tuple[str, str, str]]:
     line, state, sel = case.line, case.state, case.selected
     if line is None:
@@ -48,7 +59,7 @@ def _used(case: LineResult) -> list[tuple[str, str, str]]:
     rows = [("fluid", line.fluid + (f" ({state.fluid_name})" if state and state.fluid_name else ""), ""),
             ("flow", _num(line.flow.value * 3600, 6), _FLOW_UNITS[line.flow.basis] + (
                 f" at {line.flow.reference_name}" if line.flow.reference_name else "")),
-            ("design margin", _pct(line.design_margin) if line.design_margin is not None else "the service's", ""),
+            ("design margin", _margin(case), ""),
             ("sizing mass flow", _num(case.sizing_flow * 3600 if case.sizing_flow else None, 6), "kg/h"),
             ("inlet pressure", _num(line.pressure / 1e5, 6), "bar abs"),
             ("temperature", _num(line.temperature - 273.15, 5), "degC"), ("length", _num(line.length), "m"),
@@ -99,16 +110,22 @@ def _line_view(result: LineResult, headers: Mapping[str, str], units: Mapping[st
     cases = [{"name": case_name(c) or "", "status": c.status, "error": c.error if result.cases else None,
               "given": _given(c, headers, units), "used": _used(c), "candidates": _window(c.candidates, chosen),
               "verdicts": _verdicts(c)} for c in case_rows(result)]
-    worst = sel.worst if sel else None
     return {"tag": result.tag, "status": result.status, "mode": result.mode, "service": result.service or "-",
             "case_count": len(result.cases) or 1, "nps": sel.candidate.nps if sel else "",
             "schedule": sel.candidate.schedule if sel else "",
             "velocity": _num(sel.hydraulics.velocity if sel else None),
             "drop": _num(sel.hydraulics.drop_per_length / 10.0 if sel else None),
-            "controlling": result.controlling or "-", "utilisation": _pct(worst.utilisation if worst else None),
+            "controlling": _controlling(result), "utilisation": _pct(controlling_utilisation(result)[0]),
             "case": case_name(result) if result.cases else "", "governing": list(result.governing),
             "error": result.error, "notes": list(result.notes), "cases": cases,
             "plot": line_plot_svg(result) if plot else None}
+
+
+def _controlling(result: LineResult) -> str:
+    """The controlling criterion, or why there is none (the smallest size selected)."""
+    if result.controlling is None and result.status == "pass" and result.mode == "size":
+        return "none (the smallest size the pipe class allows)"
+    return result.controlling or "-"
 
 
 def _trace_rows(trace: Mapping[str, Any]) -> list[tuple[str, str]]:

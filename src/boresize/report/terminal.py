@@ -6,6 +6,7 @@ from collections.abc import Sequence
 
 from boresize.io.document import CAUTION
 from boresize.model import LineResult
+from boresize.sizing.selection import controlling_utilisation
 
 __all__ = ["render_table"]
 
@@ -17,14 +18,22 @@ def _row(r: LineResult) -> tuple[str, ...]:
     sel, state = r.selected, r.state
     if sel is None or state is None:
         return (r.tag, r.service or "-", r.status.upper(), "-", "-", "-", "-", "-", "-", "-", "-", "-")
-    h, worst = sel.hydraulics, sel.worst
-    controlling = f"{worst.criterion} {worst.utilisation:.0%}" if worst and worst.utilisation is not None else "-"
-    if r.cases and r.line is not None and r.line.case:
-        controlling += f" ({r.line.case})"  # the governing case of a line with several
+    h = sel.hydraulics
+    controlling = _controlling(r)
     status = r.status.upper() + (" (check)" if r.mode == "check" else "")
     return (r.tag, r.service or "-", status, sel.candidate.nps, sel.candidate.schedule,
             f"{sel.candidate.inside_diameter * 1e3:.1f}", f"{h.velocity:.2f}", f"{h.drop_per_length / 10:.1f}",
             f"{state.density:.4g}", f"{state.viscosity * 1e3:.3g}", controlling, state.source)
+
+
+def _controlling(r: LineResult) -> str:
+    """The controlling criterion with its utilisation at the size shown (and, for a line with several cases,
+    the case where that utilisation is highest); "smallest size" when the smallest size was selected."""
+    if r.controlling is None:
+        return "smallest size" if r.status == "pass" and r.mode == "size" else "-"
+    utilisation, case = controlling_utilisation(r)
+    shown = r.controlling + (f" {utilisation:.0%}" if utilisation is not None else "")
+    return shown + (f" ({case})" if case else "")
 
 
 def render_table(results: Sequence[LineResult], criteria_source: str, criteria_set: str) -> str:

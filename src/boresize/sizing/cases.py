@@ -3,8 +3,9 @@
 A line is often given for several operating cases (normal, maximum, minimum, start-up ...), each
 with its own flow, pressure and temperature. They are one line: the size chosen is the smallest that
 passes every case, and for each criterion the case with the highest utilisation at that size governs
-it. These helpers check and combine per-case results; the engine does the rating
-(the readers group rows into lines: :mod:`boresize.io.line_items`).
+it. The line's controlling criterion is the one that fails on the next smaller size in any case (the worst
+such fail); every case carries the line's. These helpers check and combine per-case results; the engine does
+the rating (the readers group rows into lines: :mod:`boresize.io.line_items`).
 
 A row without a ``case`` value is a line of its own, exactly as before cases existed (two such rows
 with the same tag stay two lines, and the second is refused as a duplicate tag).
@@ -17,6 +18,7 @@ from dataclasses import replace
 
 from boresize.errors import InputError
 from boresize.model import CandidateResult, Line, LineResult, Mode
+from boresize.sizing.selection import SMALLEST_NOTE, controlling_below
 
 __all__ = ["check_cases", "name_cases", "common_index", "combine", "case_error", "cases_error"]
 
@@ -99,10 +101,25 @@ def combine(cases: Sequence[LineResult], passed: bool, mode: Mode) -> LineResult
     notes = []
     if not passed and mode == "size" and main.selected is not None:
         notes.append(f"no size the pipe class allows passes every case; closest is NPS {main.selected.candidate.nps}")
+    controlling = main.controlling
+    if passed and mode == "size" and main.selected is not None:
+        controlling = _controlling(cases, main.selected)
+        if controlling is None and cases[0].candidates and cases[0].candidates[0] is cases[0].selected:
+            notes.append(SMALLEST_NOTE.format(nps=main.selected.candidate.nps))
     notes += [f"case {c.line.case if c.line else '?'}: {note}" for c in cases for note in c.notes]
     governing = tuple((criterion, case) for criterion, (_, case) in _governing(cases).items())
-    return replace(main, status="pass" if passed else "fail", notes=tuple(notes), cases=tuple(cases),
-                   governing=governing, raw={})
+    each = tuple(replace(c, controlling=controlling) for c in cases)
+    return replace(main, status="pass" if passed else "fail", notes=tuple(notes), cases=each,
+                   governing=governing, raw={}, controlling=controlling)
+
+
+def _controlling(cases: Sequence[LineResult], selected: CandidateResult) -> str | None:
+    """The criterion that fails on the size below the selected one in any case (the worst such fail)."""
+    index = next((i for i, c in enumerate(cases[0].candidates) if c.candidate == selected.candidate), None)
+    if index is None:
+        return None
+    below = controlling_below([c.candidates for c in cases], index)
+    return below[0] if below else None
 
 
 def case_error(result: LineResult, case: str) -> LineResult:

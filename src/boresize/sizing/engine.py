@@ -70,6 +70,9 @@ class Sizer:
         self.config = config or load_config(self.host, criteria_file)
         self.check_roughness = check_roughness
         self.every_size = every_size
+        #: a failing check names the smallest passing size of its pipe class (rates the class: headroom's trials
+        #: turn it off)
+        self.name_passing_size = True
         #: (pipe class, NPS, schedule) -> its candidates, keyed by content
         self._candidates: dict[tuple[PipeClass, str | None, str | None], tuple[Candidate, ...]] = {}
 
@@ -84,7 +87,25 @@ class Sizer:
     def _run(self, line: Line) -> LineResult:
         prepared = self._prepare(line)
         rated = self._rate_all(prepared)
-        return self._finish(prepared, rated, select(rated) if prepared.mode == "size" else rated[0])
+        result = self._finish(prepared, rated, select(rated) if prepared.mode == "size" else rated[0])
+        return self._passing_size(result, [prepared])
+
+    def _passing_size(self, result: LineResult, ready: Sequence[_Prepared]) -> LineResult:
+        """A failing check names the smallest size of its pipe class that passes every case, sized as sizing
+        sizes (the same properties, service, roughness and design margin; the class's schedules)."""
+        if result.mode != "check" or result.status != "fail" or not self.name_passing_size:
+            return result
+        sized = [p._replace(line=replace(p.line, nps=None, schedule=None), mode="size") for p in ready]
+        name = ready[0].pipe_class.name
+        try:
+            rated = self._rate_cases(sized)
+        except BoresizeError as exc:
+            return replace(result, notes=result.notes + (f"the sizes of pipe class {name} could not be rated: {exc}",))
+        index, passed = _cases.common_index(rated, "size")
+        nps = rated[0][index].candidate.nps if passed and index is not None else None
+        note = (f"the smallest size of pipe class {name} that passes is NPS {nps}" if nps is not None
+                else f"no size of pipe class {name} passes")
+        return replace(result, smallest_passing_nps=nps, notes=result.notes + (note,))
 
     def _prepare(self, line: Line) -> _Prepared:
         mode: Mode = "check" if line.nps else "size"
@@ -249,7 +270,7 @@ class Sizer:
             return _cases.cases_error(lines[0].tag, each, mode, f"line {lines[0].tag}: no candidate size could "
                                       f"be rated in every case", "criteria")
         each = [self._finish(p, r, r[index], closest_note=False) for p, r in zip(ready, rated)]
-        return _cases.combine(each, passed, mode)
+        return self._passing_size(_cases.combine(each, passed, mode), ready)
 
     def run_safely(self, line: Line) -> LineResult:
         """:meth:`run`, but an unexpected fault (a bug) is also an ``error`` result, never lost."""

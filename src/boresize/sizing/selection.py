@@ -2,6 +2,12 @@
 
 Sizing selects the smallest candidate that passes every criterion; when none does, the record shows
 the closest (lowest worst utilisation). Faults become ``error`` results carrying the field at fault.
+
+The *controlling* criterion of a sized line is the one that forced the selection up: the criterion that fails
+on the next smaller size (the worst failing one there). When the selected size is the smallest the pipe class
+allows, no criterion controls (``controlling`` is None and a note says so). When no size passes, and for a
+checked line (a given NPS), it is the criterion with the highest utilisation at the size shown: the one
+furthest past its limit, or, on a passing check, the one nearest to it.
 """
 
 from __future__ import annotations
@@ -10,11 +16,16 @@ import math
 from collections.abc import Sequence
 from typing import get_args
 
-from boresize.sizing.services import Service
 from boresize.errors import InputError, PropertyError
+from boresize.hydraulics.friction import LAMINAR_LIMIT, TURBULENT_LIMIT
 from boresize.model import CandidateResult, FluidState, Line, LineResult, Mode, Verdict, VerdictStatus
+from boresize.sizing.services import Service
 
-__all__ = ["build_result", "closest", "error_result", "error_verdict", "internal_error", "select", "verdict_fault"]
+__all__ = ["SMALLEST_NOTE", "build_result", "closest", "controlling_below", "controlling_utilisation", "error_result",
+           "error_verdict", "internal_error", "select", "verdict_fault"]
+
+#: The note of a line sized to the smallest size its pipe class allows (``{nps}``: that size).
+SMALLEST_NOTE = "NPS {nps} is the smallest size the pipe class allows: no criterion controls the size"
 
 
 def internal_error(line: Line, exc: Exception) -> LineResult:
@@ -68,6 +79,8 @@ def closest(rated: Sequence[CandidateResult]) -> CandidateResult | None:
 def build_result(line: Line, state: FluidState, service: Service, rated: tuple[CandidateResult, ...],
             selected: CandidateResult | None, mode: Mode, mass_flow: float, margin: float, version: str,
             first_guess: float | None, closest_note: bool = True) -> LineResult:
+    """The result of one line (or one case of a line: ``closest_note`` False leaves the line-wide notes to
+    :func:`boresize.sizing.cases.combine`)."""
     notes = []
     shown = selected if selected is not None else closest(rated)
     if shown is None:
@@ -78,17 +91,62 @@ def build_result(line: Line, state: FluidState, service: Service, rated: tuple[C
     passed = shown.passed and selected is not None
     if not passed and mode == "size" and closest_note:
         notes.append(f"no size the pipe class allows passes every criterion; closest is NPS {shown.candidate.nps}")
+    if passed and mode == "size" and closest_note and rated and rated[0] is shown:
+        notes.append(SMALLEST_NOTE.format(nps=shown.candidate.nps))
     if any(v.status == "error" for v in shown.verdicts):
         notes.append("a criterion could not judge this size (error verdict)")
     if shown.hydraulics.regime == "transition":
-        notes.append("Reynolds number in the transition zone (2100-4000): turbulent (Colebrook) friction used")
-    worst = shown.worst
+        notes.append(f"Reynolds number in the transition zone ({LAMINAR_LIMIT:g}-{TURBULENT_LIMIT:g}): "
+                     f"turbulent (Colebrook) friction used")
+    if passed and mode == "size":
+        below = controlling_below([rated], rated.index(shown))
+        controlling = below[0] if below else None
+    else:
+        worst = shown.worst
+        controlling = worst.criterion if worst else None
     return LineResult(
         tag=line.tag, status="pass" if passed else "fail", mode=mode, line=line, state=state,
-        selected=shown, candidates=rated, controlling=worst.criterion if worst else None,
+        selected=shown, candidates=rated, controlling=controlling,
         notes=tuple(notes), service=service.name, criteria_set=version, sizing_flow=mass_flow,
-        first_guess_diameter=first_guess,
+        first_guess_diameter=first_guess, design_margin=margin,
     )
+
+
+def controlling_below(rated: Sequence[Sequence[CandidateResult]], index: int) -> tuple[str, int] | None:
+    """The criterion that fails on the size below ``index`` (the next smaller size) in any of a line's cases
+    (``rated``: per case, the candidates rated, in the same order), with the case's place: of the failing
+    verdicts there, the one with the highest utilisation (a fail without one before an error verdict).
+    None when ``index`` is the first size rated (the smallest the pipe class allows: the scan always rates the
+    size below the one it selects) or nothing fails there.
+    """
+    if index <= 0:
+        return None
+    found: list[tuple[int, float, str, int]] = []
+    for k, case in enumerate(rated):
+        for verdict in case[index - 1].verdicts:
+            if verdict.status in ("fail", "error"):
+                rank = 1 if verdict.status == "fail" else 0
+                found.append((rank, verdict.utilisation if verdict.utilisation is not None else math.inf,
+                              verdict.criterion, k))
+    if not found:
+        return None
+    best = max(found, key=lambda item: (item[0], item[1]))
+    return best[2], best[3]
+
+
+def controlling_utilisation(result: LineResult) -> tuple[float | None, str | None]:
+    """The controlling criterion's utilisation at the size shown (the highest over a line's cases) and the case
+    it comes from (None for a line without cases); (None, None) when no criterion controls."""
+    if result.controlling is None:
+        return None, None
+    shown = [(c.selected, c.line.case if c.line else None) for c in result.cases] or [(result.selected, None)]
+    best: tuple[float | None, str | None] = (None, None)
+    for selected, case in shown:
+        for verdict in selected.verdicts if selected else ():
+            if verdict.criterion == result.controlling and verdict.utilisation is not None \
+                    and (best[0] is None or verdict.utilisation > best[0]):
+                best = (verdict.utilisation, case)
+    return best
 
 
 def error_result(tag: str, exc: BaseException, *, line: Line | None = None, mode: Mode = "size") -> LineResult:
