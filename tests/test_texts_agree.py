@@ -258,7 +258,7 @@ def test_notes_state_the_reported_values(results, sizer):
 
 
 def test_terminal_table_states_the_reported_values(results, sizer):
-    table = render_table(list(results.values()), sizer.config)
+    table = render_table(list(results.values()), sizer.config.origin, sizer.config.version)
     lines = table.splitlines()
     starts = [lines[0].index(column) for column in COLUMNS]
     rows = {}
