@@ -43,6 +43,8 @@ def test_a_long_nitrogen_line_reaches_the_outlet_of_an_independent_march(sizer):
     simple = friction_factor(Re=flux * BORE / mu, eD=ROUGHNESS / BORE) * 5000.0 / BORE * flux**2 / (2 * rho)
     stated = re.search(r"the incompressible drop is ([\d.]+)% of inlet pressure, above the 10% limit", h.method)
     assert stated is not None and float(stated.group(1)) == pytest.approx(100 * simple / 30e5, abs=0.06)
+    marched = re.search(r"; the marched drop is ([\d.]+)% of inlet pressure", h.method)
+    assert marched is not None and float(marched.group(1)) == pytest.approx(100 * (1 - h.outlet_pressure / 30e5), abs=0.06)
 
 
 def test_a_choking_nitrogen_line_says_where_it_chokes(sizer):

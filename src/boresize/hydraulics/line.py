@@ -105,7 +105,7 @@ def _compressible(line: Line, state: FluidState, hyd: Hydraulics, loss: Fittings
         return min(line.length, x * line.length / marched)
 
     return replace(
-        hyd, drop=pipe_drop, drop_per_length=pipe_drop / line.length if line.length > 0 else hyd.drop_per_length,
+        hyd, drop=pipe_drop, drop_per_length=_mean_gradient(gas, marched, hyd.drop_per_length),
         fittings_drop=gas.friction_drop - pipe_drop, static_drop=gas.static_drop,
         acceleration_drop=gas.acceleration_drop, fixed_drop=line.fixed_drop, total_drop=line.pressure - outlet,
         outlet_pressure=outlet, outlet_velocity=gas.outlet_velocity, outlet_mach=gas.outlet_mach,
@@ -113,6 +113,13 @@ def _compressible(line: Line, state: FluidState, hyd: Hydraulics, loss: Fittings
         peak_velocity=gas.peak_velocity, peak_density=gas.peak_density, peak_position=scale(gas.peak_length),
         peak_mach=gas.peak_mach, peak_mach_position=scale(gas.peak_mach_length) if gas.peak_mach else None,
         method=_compressible_text(gas, state, scaled, fraction, (marched, line.length), loss))
+
+
+def _mean_gradient(gas: GasLine, marched: float, at_inlet: float) -> float:
+    """The friction drop per metre [Pa/m], the mean over the length the flow passes (all of it unless it chokes);
+    ``at_inlet`` (the inlet's gradient) for a line choked at its inlet."""
+    passed = gas.reached_length if gas.choked else marched
+    return gas.friction_drop / passed if passed > 0.0 else at_inlet
 
 
 def _compressible_text(gas: GasLine, state: FluidState, scaled: bool, fraction: float,
@@ -124,9 +131,12 @@ def _compressible_text(gas: GasLine, state: FluidState, scaled: bool, fraction: 
     text = (f"{gas.model} compressible flow in {gas.segments} segments with acceleration, properties from "
             f"{source}: the incompressible drop is {fraction:.1%} of inlet pressure, above the "
             f"{SIMPLE_LIMIT:.0%} limit of Crane TP-410; fittings as equivalent length L = K D/f ({loss.method}); "
-            f"friction factor Colebrook, drop per length the mean over the line; velocity, momentum and Mach number "
+            f"friction factor Colebrook, drop per length the mean over the length passed; velocity, momentum and Mach number "
             f"the inlet's, the velocity-type criteria judging the worst point along the line")
-    if gas.choked:
+    marched_drop = gas.friction_drop + gas.static_drop + gas.acceleration_drop  # the balance closes on p_in - p_end
+    if not gas.choked:
+        text += f"; the marched drop is {marched_drop / (gas.outlet_pressure + marched_drop):.1%} of inlet pressure"
+    else:
         text += (f"; CHOKED {gas.reached_length * pipe / marched:,.0f} m from the inlet, of {pipe:,.0f} m of "
                  f"pipe ({gas.reached_length:.4g} m of {marched:.4g} m marched, the fittings' equivalent length "
                  f"spread along the pipe): {gas.stop_reason}")
