@@ -76,3 +76,20 @@ def test_every_gas_size_beyond_the_simple_limit_is_marched(sizer):
         else:
             assert "within the 10% limit" in h.method and h.peak_velocity is None
     assert 0 < marched < len(result.candidates)  # both methods were met
+
+
+def test_a_gas_line_with_nothing_to_march_says_its_drop_is_above_the_limit():
+    # No length and no fittings, but a 1,000 m rise: the static head rho g dz of air at 1.2 bar abs (ideal gas,
+    # rho = p M / (R T) with M = 28.96 g/mol) is about 12 % of the inlet pressure, and there is nothing to march.
+    from boresize.hydraulics.line import rate_line
+    from boresize.model import Candidate, Flow, FluidState, Line
+
+    rho = 1.2e5 * 0.02896 / (8.314462618 * 293.15)
+    line = Line(tag="A-1", fluid="air", flow=Flow("mass", 0.1), pressure=1.2e5, temperature=293.15, length=0.0,
+                elevation=1000.0)
+    state = FluidState(density=rho, viscosity=1.8e-5, phase="gas", source="table", model="given")
+    h = rate_line(line, state, Candidate("4", 4.0, "40", 0.1143, 0.00602, BORE, ROUGHNESS), 0.1)
+    assert h.static_drop == pytest.approx(rho * 9.80665 * 1000.0, rel=1e-12)
+    assert h.method.startswith(f"incompressible Darcy-Weisbach, Colebrook friction factor, inlet density: drop "
+                               f"{h.static_drop / 1.2e5:.1%} of inlet pressure, above the 10% limit of Crane TP-410, "
+                               f"not marched: the line has no length or fittings to march along")
