@@ -86,7 +86,6 @@ def test_a_criterion_of_the_base_class_without_source_is_refused():
     ({"size_trend": "up"}, "size_trend 'up' is not one of 'larger-passes', 'falls-with-size' or None"),
     ({"size_trend": "larger_passes"},
      "size_trend 'larger_passes' is not one of 'larger-passes', 'falls-with-size' or None"),
-    ({"march_only_worsens": "yes"}, "march_only_worsens 'yes' is not True or False"),
     ({"proposes_first_guess": 1}, "proposes_first_guess 1 is not True or False"),
     ({"proposes_first_guess": True}, "proposes_first_guess is True but diameter_at_limit is missing"),
     ({"diameter_at_limit": 0.1}, "diameter_at_limit is not callable"),
@@ -97,7 +96,7 @@ def test_each_missing_or_wrong_part_is_named(changes: dict[str, Any], fault: str
 
 def test_declared_traits_with_their_right_values_are_accepted():
     registry = CriterionRegistry().bound_to("acme-rules")
-    registry.add(_criterion(id="acme-traits", size_trend="falls-with-size", march_only_worsens=True,
+    registry.add(_criterion(id="acme-traits", size_trend="falls-with-size",
                             proposes_first_guess=True, diameter_at_limit=lambda *args: 0.1))
     registry.add(_criterion(id="acme-unknown-trend", size_trend=None))
     assert registry.ids() == ("acme-traits", "acme-unknown-trend")

@@ -201,6 +201,11 @@ class Hydraulics:
     :param outlet_velocity: [m/s] and :param outlet_mach: [-] at the line end (compressible method), or None
     :param choked: True when the flow cannot pass the whole line at this size (sonic limit reached, or no
         state from the property backend on the way; ``method`` says which)
+    :param peak_velocity: the highest velocity along a marched gas line, where its density is lowest [m/s],
+        with ``peak_density`` [kg/m3] and ``peak_position`` (distance from the inlet [m]) there; None for a
+        line rated with one density (liquids, and gas lines within the simple method's limit), whose
+        ``velocity`` holds all along. The velocity-type criteria judge this point.
+    :param peak_mach: the highest Mach number along a marched gas line [-], at ``peak_mach_position`` [m]
     """
 
     mass_flow: float
@@ -226,6 +231,11 @@ class Hydraulics:
     outlet_mach: float | None = None
     choked: bool = False
     choke_length: float | None = None  # distance from the inlet at which the flow chokes [m], None when it does not
+    peak_velocity: float | None = None  # highest velocity along a marched line [m/s], None: ``velocity`` holds all along
+    peak_density: float | None = None  # the density where the velocity peaks [kg/m3] (a marched line)
+    peak_position: float | None = None  # that point's distance from the inlet [m] (a marched line)
+    peak_mach: float | None = None  # highest Mach number along a marched line [-], None when not marched or no c
+    peak_mach_position: float | None = None  # that point's distance from the inlet [m]
 
 
 @dataclass(frozen=True)

@@ -142,7 +142,7 @@ def _callable_fault(item: object, name: str) -> str | None:
 
 
 #: The optional traits the sizing core reads (see :class:`boresize.criteria.base.Criterion`): flags must be bools.
-_TRAIT_FLAGS = ("march_only_worsens", "proposes_first_guess")
+_TRAIT_FLAGS = ("proposes_first_guess",)
 _SIZE_TRENDS = (None, "larger-passes", "falls-with-size")
 
 

@@ -98,11 +98,10 @@ def test_mach_is_judged_where_it_is_highest():
     # A gas expands along the line, so v/c rises towards the outlet: the higher of the two is judged.
     from dataclasses import replace
 
-    context = make_context(mach=0.20, options={"max": 0.3})
-    if not hasattr(context.hydraulics, "outlet_mach"):
-        pytest.skip("this Hydraulics has no outlet_mach (compressible rating not present)")
-    outlet = replace(context, hydraulics=replace(context.hydraulics, outlet_mach=0.35))
-    verdict = MachLimit().evaluate(outlet)
+    context = make_context(mach=0.20, options={"max": 0.3}, line={"length": 1200.0})
+    marched = replace(context.hydraulics, outlet_mach=0.35, peak_mach=0.35, peak_mach_position=1200.0)
+    verdict = MachLimit().evaluate(replace(context, hydraulics=marched))
     assert (verdict.status, verdict.value) == ("fail", 0.35)
-    assert "Mach number at the outlet" in verdict.reason
-    assert "at the inlet" in MachLimit().evaluate(context).reason
+    assert verdict.reason == ("Mach number 0.35 - above the maximum 0.3 - at the outlet, 1,200 m from the inlet "
+                              "(inlet 0.2)")
+    assert MachLimit().evaluate(context).reason == "Mach number at the inlet 0.2 - is at most 0.3 -"

@@ -114,7 +114,9 @@ def test_long_methane_line_agrees_with_the_isothermal_equation(sizer, flow):
     assert isothermal_gas(rho=rho, fd=f, P1=20e5, P2=h.outlet_pressure, L=10_000.0, D=di) == pytest.approx(m, rel=0.02)
     assert h.method.startswith("isothermal compressible flow in ") and "above the 10% limit of Crane" in h.method
     assert h.outlet_velocity > h.velocity and h.outlet_mach is not None and not h.choked
-    assert h.mach == h.outlet_mach  # the Mach number judged is the outlet's, the highest on the line
+    # Velocity and Mach number stay the inlet's; the worst point met along this expanding line is its outlet.
+    assert h.mach == pytest.approx(h.velocity / PropsSI("A", "T", 293.15, "P", 20e5, "Methane"), rel=1e-9)
+    assert (h.peak_mach, h.peak_velocity, h.peak_position) == (h.outlet_mach, h.outlet_velocity, 10_000.0)
     # The simple (incompressible, inlet density) drop falls short by more than 15 %: the reason to march.
     simple = f * 10_000.0 / di * rho * v**2 / 2
     marched = 20e5 - h.outlet_pressure

@@ -78,8 +78,6 @@ def test_only_named_shipped_services_accept_dense():
     assert sorted(n for n, s in config.services.items() if "dense" in s.accepts) == ["liquid", "pump-discharge"]
 
 
-@pytest.mark.xfail(strict=True, reason="hydraulics/line.py is_gas does not count 'dense' yet (another branch owns "
-                   "hydraulics/): a dense fluid's density follows the pressure, so a long line must be marched")
 def test_a_dense_line_whose_drop_exceeds_ten_percent_of_its_pressure_is_marched():
     from boresize.hydraulics.line import rate_line
     from boresize.model import Candidate

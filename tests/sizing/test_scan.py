@@ -133,7 +133,7 @@ def test_a_roughness_beyond_the_smallest_bore_is_refused_whichever_sizes_are_rat
 def test_a_banded_criterion_carries_the_traits_of_the_one_it_wraps(host: Any) -> None:
     velocity = host.criteria.get("velocity")
     banded, _ = resolve_criterion(velocity, {"bands": [{"up_to_nps": "2", "max": "1 m/s"}, {"max": "2 m/s"}]}, "t")
-    assert (banded.size_trend, banded.march_only_worsens) == ("falls-with-size", True)
+    assert banded.size_trend == "falls-with-size"
     assert banded.proposes_first_guess is False  # a limit that depends on the size gives the record no first guess
     state = FluidState(density=998.0, viscosity=1e-3, phase="liquid", source="given", model="given")
     # 0.01 m3/s at the largest sizes' 2 m/s: D = sqrt(4 Q / (pi v)) = 0.0797885 m (continuity)

@@ -75,7 +75,7 @@ class BandedCriterion:
 
     It carries the wrapped criterion's id, title, phases, source and options, so that the engine, the
     listings and error verdicts see the criterion itself, and its traits (see
-    :class:`boresize.criteria.Criterion`): ``size_trend`` and ``march_only_worsens`` as declared (the guided
+    :class:`boresize.criteria.Criterion`): ``size_trend`` as declared (the guided
     scan then checks that the bands keep the trend over the sizes it rates), ``diameter_at_limit`` with the
     options of the band for the largest sizes at the line's pressure. A banded limit depends on the size, so it
     proposes no first guess for the record (``proposes_first_guess`` is False).
@@ -90,7 +90,6 @@ class BandedCriterion:
         self.id, self.title, self.phases = inner.id, inner.title, inner.phases
         self.source, self.options = inner.source, inner.options
         self.size_trend: SizeTrend | None = getattr(inner, "size_trend", None)
-        self.march_only_worsens: bool = getattr(inner, "march_only_worsens", False)
 
     def band_for(self, nps: float, pressure: float) -> Band | None:
         """The first band that covers NPS ``nps`` [-] at inlet pressure ``pressure`` [Pa abs], or None."""

@@ -106,8 +106,6 @@ class Criterion:
       bore, an NPSH-like margin). ``"falls-with-size"``: the verdict's ``value`` falls as the size grows (at a
       fixed mass flow), so a value above its ``limit`` is cured by a larger size and one below it (a minimum)
       by a smaller one. None: unknown, a fail sends the scan back to every size.
-    - ``march_only_worsens``: True when marching a gas line (the compressible method) can only raise the value
-      judged, so that a candidate that already fails above the maximum with the simple method is not marched.
     - ``diameter_at_limit(options, line, state, mass_flow, roughness)``: the inside diameter [m] at which the
       criterion's limit (from ``options``, SI) is just met at ``mass_flow`` [kg/s] with ``roughness`` [m], or
       None. The guided scan starts from the largest proposal; it is only a starting point.
@@ -123,7 +121,6 @@ class Criterion:
     source: str = ""
     options: tuple[OptionSpec, ...] = ()
     size_trend: SizeTrend | None = None
-    march_only_worsens: bool = False
     proposes_first_guess: bool = False
 
     def evaluate(self, context: CriterionContext) -> Verdict:  # pragma: no cover - abstract

@@ -18,7 +18,6 @@ PA_PER_M_PER_KPA_100M = 10.0
 class DropPerLength(Criterion):
     id = "drop-per-length"
     size_trend = "falls-with-size"  # Darcy-Weisbach: dp/L ~ D^-5 at a fixed mass flow
-    march_only_worsens = True  # the mean drop per length grows as the gas expands along the line
     proposes_first_guess = True  # the record's first guess is the Swamee-Jain diameter of the maximum drop
     title = "Pressure drop per length (Darcy-Weisbach, Colebrook)"
     source = "company practice (the shipped values are common practice); drop by Darcy-Weisbach with Colebrook (1939)"

@@ -1,9 +1,14 @@
-"""``erosional``: velocity below the API RP 14E erosional velocity v_e = C / sqrt(rho_m)."""
+"""``erosional``: velocity below the API RP 14E erosional velocity v_e = C / sqrt(rho_m).
+
+On a marched gas line it is judged where v*sqrt(rho) is highest, the point of lowest density, with the density
+there (:mod:`boresize.criteria.along`); the reason says where.
+"""
 
 from __future__ import annotations
 
 from collections.abc import Mapping
 
+from boresize.criteria.along import worst_point
 from boresize.criteria.base import CriterionContext, Criterion, OptionSpec, verdict
 from boresize.errors import CriteriaFileError
 from boresize.hydraulics.erosional import C_US_TO_SI, erosional_velocity
@@ -15,7 +20,6 @@ __all__ = ["C_US_TO_SI", "ErosionalVelocity", "erosional_velocity"]  # the kerne
 class ErosionalVelocity(Criterion):
     id = "erosional"
     size_trend = "larger-passes"  # v = Q/A falls as the bore grows; the limit C/sqrt(rho) does not change
-    march_only_worsens = True  # marching keeps the inlet velocity judged here: a fail above the maximum stays
     title = "Erosional velocity (API RP 14E)"
     source = "API RP 14E, 5th ed. (1991), eq. 2.14: v_e = C/sqrt(rho); C = 100 (US units) for continuous service"
     options = (
@@ -41,11 +45,12 @@ class ErosionalVelocity(Criterion):
 
     def evaluate(self, context: CriterionContext) -> Verdict:
         c_si = self.c_si(context.options)
-        limit = erosional_velocity(context.state.density, c_si)
-        v = context.hydraulics.velocity
+        point = worst_point(context)
+        limit = erosional_velocity(point.density, c_si)
+        v = point.velocity
         ok = v <= limit
         reason = (
             f"velocity {v:.3g} m/s {'within' if ok else 'above'} the erosional velocity "
-            f"{limit:.3g} m/s (C = {c_si / C_US_TO_SI:.4g} US units, rho = {context.state.density:.4g} kg/m3)"
+            f"{limit:.3g} m/s (C = {c_si / C_US_TO_SI:.4g} US units, rho = {point.density:.4g} kg/m3){point.where}"
         )
         return verdict(self, "pass" if ok else "fail", reason, value=v, limit=limit, unit="m/s", utilisation=v / limit)

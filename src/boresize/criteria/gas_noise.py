@@ -4,12 +4,15 @@ Company practice for gas lines, to keep flow noise and vibration down: the light
 it may flow, up to a cap. The power-law form is that of the Rhone-Poulenc curves. The shipped constants,
 a = 175 and b = 0.43 (v in m/s, rho in kg/m3) with a 60 m/s cap, are from memory of offshore
 process-design practice (NORSOK P-001, gas lines, as recalled): verify them against your company standard.
+On a marched gas line it is judged where v*rho^b is highest, the point of lowest density, with the density
+there (:mod:`boresize.criteria.along`); the reason says where.
 """
 
 from __future__ import annotations
 
 from collections.abc import Mapping
 
+from boresize.criteria.along import worst_point
 from boresize.criteria.base import Criterion, CriterionContext, OptionSpec, verdict
 from boresize.errors import CriteriaFileError
 from boresize.model import Verdict
@@ -37,7 +40,6 @@ def noise_velocity_limit(density: float, a: float, b: float, cap: float) -> floa
 class NoiseVelocity(Criterion):
     id = "noise-velocity"
     size_trend = "larger-passes"  # v falls as the bore grows; the limit a*rho^-b does not change
-    march_only_worsens = True  # marching keeps the inlet velocity judged here: a fail above the maximum stays
     title = "Gas velocity limit against noise: v = a*rho^-b, capped"
     phases = frozenset({"gas"})
     source = "company practice: v_max = a*rho^-b with a cap (shipped a = 175, b = 0.43, cap 60 m/s from memory)"
@@ -57,12 +59,12 @@ class NoiseVelocity(Criterion):
                                     expected="an exponent between 0 and 1, e.g. 0.43")
 
     def evaluate(self, context: CriterionContext) -> Verdict:
-        opts, rho = context.options, context.state.density
+        opts, point = context.options, worst_point(context)
+        rho, v = point.density, point.velocity
         limit = noise_velocity_limit(rho, opts.get("a", 175.0), opts.get("b", 0.43), opts.get("cap", 60.0))
-        v = context.hydraulics.velocity
         formula = f"{opts.get('a', 175.0):g} x rho^-{opts.get('b', 0.43):g}"
         governs = "the cap" if limit == opts.get("cap", 60.0) else formula
         reason = (f"velocity {v:.3g} m/s {'within' if v <= limit else 'above'} the noise limit {limit:.3g} m/s "
-                  f"({governs} at rho = {rho:.4g} kg/m3)")
+                  f"({governs} at rho = {rho:.4g} kg/m3){point.where}")
         return verdict(self, "pass" if v <= limit else "fail", reason, value=v, limit=limit, unit="m/s",
                        utilisation=v / limit)

@@ -29,11 +29,12 @@ def check_range(values: Mapping[str, float], where: str, unit: str, scale: float
 
 
 def judge_range(criterion: object, value_si: float, options: Mapping[str, float], noun: str, unit: str,
-                scale: float) -> Verdict:
+                scale: float, where: str = "") -> Verdict:
     """Verdict for ``value_si`` against ``options['max']`` and ``options['min']`` (SI).
 
     Utilisation is value/max for the maximum and min/value for the minimum, the larger of the two,
-    so that 1.0 is the limit either way. Values are shown in ``unit`` (value_si / scale).
+    so that 1.0 is the limit either way. Values are shown in ``unit`` (value_si / scale). ``where`` ends
+    the reason: the point judged (" at the outlet, 1,200 m from the inlet ...", see :mod:`.along`).
     """
     shown = value_si / scale
     high, low = options.get("max"), options.get("min")
@@ -41,13 +42,13 @@ def judge_range(criterion: object, value_si: float, options: Mapping[str, float]
     util_low = low / value_si if low and value_si > 0 else (float("inf") if low else 0.0)
     above, below, within = _texts(unit, scale, high, low)
     if high is not None and value_si > high:
-        return verdict(criterion, "fail", f"{noun} {shown:.3g}{above}", value=shown, limit=high / scale, unit=unit,
-                       utilisation=util_high)
+        return verdict(criterion, "fail", f"{noun} {shown:.3g}{above}{where}", value=shown, limit=high / scale,
+                       unit=unit, utilisation=util_high)
     if low is not None and value_si < low:
-        return verdict(criterion, "fail", f"{noun} {shown:.3g}{below}", value=shown, limit=low / scale, unit=unit,
-                       utilisation=util_low)
+        return verdict(criterion, "fail", f"{noun} {shown:.3g}{below}{where}", value=shown, limit=low / scale,
+                       unit=unit, utilisation=util_low)
     binding = high if util_high >= util_low else low
-    return verdict(criterion, "pass", f"{noun} {shown:.3g}{within}", value=shown, limit=(binding or 0.0) / scale,
+    return verdict(criterion, "pass", f"{noun} {shown:.3g}{within}{where}", value=shown, limit=(binding or 0.0) / scale,
                    unit=unit, utilisation=max(util_high, util_low))
 
 

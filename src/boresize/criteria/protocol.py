@@ -41,7 +41,7 @@ class CriterionProtocol(Protocol):
     - ``check_options(values, where)``: validate the parsed options, raise ``CriteriaFileError``
     - the traits the sizing core reads, declared with their defaults on :class:`~boresize.criteria.base.Criterion`
       and checked at registration when present: ``size_trend`` (``"larger-passes"``, ``"falls-with-size"`` or
-      None), ``march_only_worsens`` and ``proposes_first_guess`` (bools), ``diameter_at_limit(...)`` (callable)
+      None), ``proposes_first_guess`` (a bool), ``diameter_at_limit(...)`` (callable)
     """
 
     @property

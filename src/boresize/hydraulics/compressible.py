@@ -61,6 +61,11 @@ class GasLine:
     segments: int
     model: str
     stop_reason: str | None = None
+    peak_velocity: float = 0.0  # the highest velocity met at a segment end (inlet included) [m/s]
+    peak_density: float = 0.0  # the density there [kg/m3]
+    peak_length: float = 0.0  # its distance from the inlet along the marched length [m]
+    peak_mach: float | None = None  # the highest Mach number met at a segment end [-], None without c
+    peak_mach_length: float = 0.0  # its distance from the inlet along the marched length [m]
 
 
 @dataclass(frozen=True)
@@ -238,6 +243,7 @@ def march_gas_line(p_in: float, t_in: float, mass_flow: float, diameter: float, 
                  _heat_capacity(inlet, p_in, t_in, model), max(0.02 * p_in, 1000.0))
     a = start = _Point(p_in, t_in, 1.0 / inlet.density, _friction(pipe, inlet), inlet.speed_of_sound)
     sums, reached, dx, dz = [0.0, 0.0, 0.0], 0.0, length / segments, elevation / segments
+    peaks = _Peaks(pipe.flux, start)
     for _ in range(segments):
         pipe.failures.clear()
         b, covered, ok = _advance(pipe, a, dx, dz)
@@ -245,13 +251,28 @@ def march_gas_line(p_in: float, t_in: float, mass_flow: float, diameter: float, 
         for i, term in enumerate(_terms(pipe, a, b, covered, share)):
             sums[i] += term
         a, reached = b, reached + covered
+        peaks.meet(b, reached)
         if not ok:
             break
-    return _result(pipe, start, a, sums, reached, length, segments)
+    return _result(pipe, start, a, sums, reached, length, segments, peaks)
 
+
+class _Peaks:
+    """The worst points met along the march: highest velocity (lowest density) and highest Mach number."""
+
+    def __init__(self, flux: float, inlet: _Point) -> None:
+        self.flux, self.nu, self.at = flux, inlet.nu, 0.0
+        self.mach, self.mach_at = (flux * inlet.nu / inlet.c if inlet.c else None), 0.0
+
+    def meet(self, point: _Point, x: float) -> None:
+        """Take ``point``, at ``x`` [m] from the inlet, where it is worse than the worst so far."""
+        if point.nu > self.nu:
+            self.nu, self.at = point.nu, x
+        if point.c and self.mach is not None and self.flux * point.nu / point.c > self.mach:
+            self.mach, self.mach_at = self.flux * point.nu / point.c, x
 
 def _result(pipe: _Pipe, start: _Point, end: _Point, sums: list[float], reached: float, length: float,
-            segments: int) -> GasLine:
+            segments: int, peaks: _Peaks) -> GasLine:
     velocity = pipe.flux * end.nu
     choked = reached < length * (1.0 - 1e-9)
     reason = None
@@ -263,4 +284,6 @@ def _result(pipe: _Pipe, start: _Point, end: _Point, sums: list[float], reached:
     return GasLine(outlet_pressure=end.p, outlet_temperature=end.t, outlet_density=1.0 / end.nu,
                    outlet_velocity=velocity, outlet_mach=velocity / end.c if end.c else None,
                    friction_drop=friction, acceleration_drop=sums[1], static_drop=sums[2], choked=choked,
-                   reached_length=reached, segments=segments, model=pipe.model, stop_reason=reason)
+                   reached_length=reached, segments=segments, model=pipe.model, stop_reason=reason,
+                   peak_velocity=pipe.flux * peaks.nu, peak_density=1.0 / peaks.nu, peak_length=peaks.at,
+                   peak_mach=peaks.mach, peak_mach_length=peaks.mach_at)

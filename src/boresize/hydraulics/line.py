@@ -28,18 +28,19 @@ from boresize.hydraulics.fittings import FittingsLoss, fittings_loss
 from boresize.hydraulics.friction import Regime, along_text, regime_text
 from boresize.model import Candidate, FluidState, Hydraulics, Line
 
-__all__ = ["G", "rate_line", "is_gas", "needs_march"]
+__all__ = ["G", "rate_line", "is_gas"]
 
 G = 9.80665  # standard acceleration of gravity [m/s2] (CGPM 1901, exact)
 
 
 def is_gas(state: FluidState) -> bool:
-    """True for a gas, vapour or supercritical fluid: the states whose density follows the pressure."""
-    return state.phase in ("gas", "supercritical")
+    """True for a gas, vapour, supercritical or dense fluid: the states whose density follows the pressure (a dense
+    fluid is above its critical point: no saturation curve, so a long line is marched like a gas)."""
+    return state.phase in ("gas", "supercritical", "dense")
 
 
 def rate_line(line: Line, state: FluidState, candidate: Candidate, mass_flow: float,
-              properties: Properties | None = None, *, march: bool = True) -> Hydraulics:
+              properties: Properties | None = None) -> Hydraulics:
     """Hydraulics of ``candidate`` carrying ``mass_flow`` [kg/s] along ``line`` (SI throughout).
 
     :param line: length [m], elevation [m, rise positive], fittings, fixed_drop [Pa], inlet pressure
@@ -47,8 +48,6 @@ def rate_line(line: Line, state: FluidState, candidate: Candidate, mass_flow: fl
     :param state: properties at the inlet
     :param properties: (p [Pa abs], T [K]) -> FluidState, the equation of state along a gas line; None
         (or line-list values) scales the inlet density as an ideal gas
-    :param march: False to rate a gas line with the simple method whatever its drop (a screen: see
-        :func:`needs_march`)
     :returns: Hydraulics with every drop [Pa], the outlet pressure [Pa abs] and the method text
     :raises InputError: an unknown fitting or method (field "fittings", "fittings_method", "compressible")
     """
@@ -62,7 +61,7 @@ def rate_line(line: Line, state: FluidState, candidate: Candidate, mass_flow: fl
     fittings = loss.drop(f, density, v, diameter)
     static = density * G * line.elevation
     fraction = (drop + fittings + static) / line.pressure
-    if march and is_gas(state) and fraction > SIMPLE_LIMIT and line.length + loss.equivalent_length + loss.k_total > 0.0:
+    if is_gas(state) and fraction > SIMPLE_LIMIT and line.length + loss.equivalent_length + loss.k_total > 0.0:
         hyd = Hydraulics(mass_flow=mass_flow, volume_flow=mass_flow / density, velocity=v, reynolds=re,
                          friction_factor=f, regime=regime, drop_per_length=dpl, drop=drop, momentum=density * v * v,
                          mach=mach, fittings_k=loss.k_total, fittings_method=loss.method)
@@ -77,16 +76,13 @@ def rate_line(line: Line, state: FluidState, candidate: Candidate, mass_flow: fl
                       choked=False)
 
 
-def needs_march(line: Line, state: FluidState, hyd: Hydraulics) -> bool:
-    """True when ``hyd`` (rated with ``march=False``) is a gas line whose drop exceeds the simple method's limit."""
-    return is_gas(state) and (hyd.drop + hyd.fittings_drop + hyd.static_drop) / line.pressure > SIMPLE_LIMIT
-
-
 def _simple_text(state: FluidState, fraction: float, loss: FittingsLoss, regime: Regime) -> str:
     text = f"incompressible Darcy-Weisbach, {regime_text(regime)}"
     if is_gas(state):
-        text += (f", inlet density: drop {fraction:.1%} of inlet pressure, within the {SIMPLE_LIMIT:.0%} "
-                 f"limit of Crane TP-410")
+        within = fraction <= SIMPLE_LIMIT
+        text += (f", inlet density: drop {fraction:.1%} of inlet pressure, "
+                 f"{'within' if within else 'above'} the {SIMPLE_LIMIT:.0%} limit of Crane TP-410"
+                 f"{'' if within else ', not marched: the line has no length or fittings to march along'}")
     return f"{text}; {loss.method}"
 
 
@@ -107,25 +103,44 @@ def _compressible(line: Line, state: FluidState, hyd: Hydraulics, loss: Fittings
                          segments=segment_count(fraction))
     pipe_drop = gas.friction_drop * line.length / marched
     outlet = gas.outlet_pressure - line.fixed_drop
+    def scale(x: float) -> float:  # a marched length to a distance along the pipe (fittings spread evenly)
+        return min(line.length, x * line.length / marched)
+
     return replace(
-        hyd, drop=pipe_drop, drop_per_length=pipe_drop / line.length if line.length > 0 else hyd.drop_per_length,
+        hyd, drop=pipe_drop, drop_per_length=_mean_gradient(gas, marched, hyd.drop_per_length),
         fittings_drop=gas.friction_drop - pipe_drop, static_drop=gas.static_drop,
         acceleration_drop=gas.acceleration_drop, fixed_drop=line.fixed_drop, total_drop=line.pressure - outlet,
         outlet_pressure=outlet, outlet_velocity=gas.outlet_velocity, outlet_mach=gas.outlet_mach,
-        mach=gas.outlet_mach if gas.outlet_mach is not None else hyd.mach,
-        choked=gas.choked, method=_compressible_text(gas, state, scaled, fraction, marched, loss))
+        choked=gas.choked, choke_length=scale(gas.reached_length) if gas.choked else None,
+        peak_velocity=gas.peak_velocity, peak_density=gas.peak_density, peak_position=scale(gas.peak_length),
+        peak_mach=gas.peak_mach, peak_mach_position=scale(gas.peak_mach_length) if gas.peak_mach else None,
+        method=_compressible_text(gas, state, scaled, fraction, (marched, line.length), loss))
 
 
-def _compressible_text(gas: GasLine, state: FluidState, scaled: bool, fraction: float, marched: float,
-                       loss: FittingsLoss) -> str:
+def _mean_gradient(gas: GasLine, marched: float, at_inlet: float) -> float:
+    """The friction drop per metre [Pa/m], the mean over the length the flow passes (all of it unless it chokes);
+    ``at_inlet`` (the inlet's gradient) for a line choked at its inlet."""
+    passed = gas.reached_length if gas.choked else marched
+    return gas.friction_drop / passed if passed > 0.0 else at_inlet
+
+
+def _compressible_text(gas: GasLine, state: FluidState, scaled: bool, fraction: float,
+                       lengths: tuple[float, float], loss: FittingsLoss) -> str:
+    """The method text; ``lengths``: (marched length, pipe length) [m]."""
+    marched, pipe = lengths
     source = ("inlet values scaled as an ideal gas (Z and viscosity held)" if scaled
               else f"{state.source} ({state.model}) re-evaluated along the line")
     text = (f"{gas.model} compressible flow in {gas.segments} segments with acceleration, properties from "
             f"{source}: the incompressible drop is {fraction:.1%} of inlet pressure, above the "
             f"{SIMPLE_LIMIT:.0%} limit of Crane TP-410; fittings as equivalent length L = K D/f ({loss.method}); "
             f"friction factor re-evaluated along the line ({along_text()}), drop per length the mean over the "
-            f"line, Mach number the outlet's")
-    if gas.choked:
-        text += (f"; CHOKED at {gas.reached_length:.4g} m of {marched:.4g} m (pipe plus fittings' equivalent "
-                 f"length): {gas.stop_reason}")
+            f"length passed; velocity, momentum and Mach number the inlet's, the velocity-type criteria judging the "
+            f"worst point along the line")
+    marched_drop = gas.friction_drop + gas.static_drop + gas.acceleration_drop  # the balance closes on p_in - p_end
+    if not gas.choked:
+        text += f"; the marched drop is {marched_drop / (gas.outlet_pressure + marched_drop):.1%} of inlet pressure"
+    else:
+        text += (f"; CHOKED {gas.reached_length * pipe / marched:,.0f} m from the inlet, of {pipe:,.0f} m of "
+                 f"pipe ({gas.reached_length:.4g} m of {marched:.4g} m marched, the fittings' equivalent length "
+                 f"spread along the pipe): {gas.stop_reason}")
     return text

@@ -19,7 +19,7 @@ from boresize.sizing.services import Service, SizingConfig, load_config
 from boresize.criteria.base import CriterionContext
 from boresize.errors import BoresizeError, InputError
 from boresize.hydraulics.darcy import require_roughness
-from boresize.hydraulics.line import is_gas, needs_march, rate_line
+from boresize.hydraulics.line import rate_line
 from boresize.model import Candidate, CandidateResult, FluidState, Hydraulics, Line, LineResult, Mode, Verdict
 from boresize.pipes import PipeClass
 from boresize.plugins import PluginHost
@@ -175,28 +175,14 @@ class Sizer:
         return service
 
     def _rate(self, p: _Prepared, candidate: Candidate) -> CandidateResult:
-        """Rate one candidate. A gas candidate that needs marching is first screened with the simple
-        method: if it already fails a criterion that marching can only make worse, the march is skipped."""
-        line, state = p.line, p.state
-        if is_gas(state):
-            simple = self._hydraulics(line, state, candidate, p.mass_flow, march=False)
-            if needs_march(line, state, simple):
-                verdicts = self._verdicts(p, candidate, simple)
-                fails = [v.criterion for (c, _), v in zip(p.judges, verdicts) if _fails_beyond_march(c, v)]
-                if fails:
-                    note = (f"; not marched: fails {', '.join(fails)} already with the simple method, which "
-                            f"understates a gas line's drop and outlet velocity")
-                    hyd = replace(simple, method=simple.method + note)
-                    return CandidateResult(candidate, hyd, self._verdicts(p, candidate, hyd))
-            else:
-                return CandidateResult(candidate, simple, self._verdicts(p, candidate, simple))
-        hyd = self._hydraulics(line, state, candidate, p.mass_flow, march=True)
+        """Rate one candidate: a gas line whose drop exceeds the simple method's limit is marched, whatever its
+        verdicts, so that every number it reports comes from the method its verdicts used."""
+        hyd = self._hydraulics(p.line, p.state, candidate, p.mass_flow)
         return CandidateResult(candidate, hyd, self._verdicts(p, candidate, hyd))
 
-    def _hydraulics(self, line: Line, state: FluidState, candidate: Candidate, mass_flow: float,
-                    march: bool) -> Hydraulics:
+    def _hydraulics(self, line: Line, state: FluidState, candidate: Candidate, mass_flow: float) -> Hydraulics:
         try:
-            hyd = rate_line(line, state, candidate, mass_flow, march=march,
+            hyd = rate_line(line, state, candidate, mass_flow,
                             properties=lambda p, t: choose_backend(self.host, line).state(line, p, t))
         except (OverflowError, ZeroDivisionError) as exc:
             raise _beyond_range(mass_flow, f"in NPS {candidate.nps}") from exc
@@ -324,8 +310,3 @@ def _first_guess(p: _Prepared) -> float | None:
                 return float(guess)
     return None
 
-
-def _fails_beyond_march(criterion: Any, verdict: Verdict) -> bool:
-    """A fail above a maximum, by a criterion that says marching cannot turn it into a pass."""
-    return (bool(getattr(criterion, "march_only_worsens", False)) and verdict.status == "fail"
-            and verdict.value is not None and verdict.limit is not None and verdict.value > verdict.limit)
