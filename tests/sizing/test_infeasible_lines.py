@@ -67,12 +67,22 @@ def test_sizing_a_line_no_size_can_lift_fails_on_feasibility(sizer: Sizer):
 
 def test_a_negative_loss_fails_at_every_size(sizer: Sizer):
     row = {"tag": "NEG-1", "fluid": "water", "flow": "30 t/h", "pressure": "6 barg", "temperature": "20 degC",
-           "length": "100 m", "fittings": "Leq=-40 m", "fixed_drop": "-0.5 bar", "service": "pump-discharge"}
+           "length": "100 m", "fixed_drop": "-0.5 bar", "service": "pump-discharge"}
     result = sizer.run(line_from_row(row))
     assert result.status == "fail" and result.controlling == "line-feasibility"
     assert {v.reason for c in result.candidates for v in c.verdicts if v.criterion == "line-feasibility"} == {
-        "a loss credits the line: fitting 'leq=-40 m' (count 1, K 0, equivalent length -40 m); allowance (fixed_drop) "
-        "-0.5 bar; losses must be 0 or more (a pressure gain is not a loss)"}
+        "a loss credits the line: allowance (fixed_drop) -0.5 bar; losses must be 0 or more (a pressure gain is "
+        "not a loss)"}
+
+
+def test_a_fitting_that_would_credit_the_line_is_refused_on_reading(sizer: Sizer):
+    # The fittings reader refuses it before any size is rated: the line is an error naming the fitting.
+    row = {"tag": "NEG-2", "fluid": "water", "flow": "30 t/h", "pressure": "6 barg", "temperature": "20 degC",
+           "length": "100 m", "fittings": "Leq=-40 m", "service": "pump-discharge"}
+    result = sizer.run(line_from_row(row))
+    assert result.status == "error" and result.error == (
+        "line NEG-2: fittings: Leq '-40 m' in 'leq=-40 m' is not above zero: a fitting adds to the drop and cannot "
+        "credit the line; expected an equivalent length above zero with its unit, e.g. 'Leq=12 m'")
 
 
 @pytest.mark.parametrize("service", LIQUID_SERVICES)
