@@ -33,7 +33,7 @@ from boresize.criteria.base import parse_options
 from boresize.sizing.engine import Sizer
 from boresize.hydraulics.darcy import rate_pipe
 from boresize.io.rows import line_from_row
-from boresize.model import Flow, Line, LineResult
+from boresize.model import Flow, Hydraulics, Line, LineResult, Verdict
 from boresize.pipes import pipe_class_from_table
 
 QUICK = settings(max_examples=40, deadline=None, derandomize=True, suppress_health_check=list(HealthCheck))
@@ -393,5 +393,29 @@ def test_no_passing_line_cannot_flow_or_flashes(lab: Sizer, names: tuple[str, ..
         if "/" not in service.name and service.phase == "liquid":
             assert p_vap is not None  # a shipped liquid service judges flashing: unknown P_vap is no pass
             assert min(line.pressure, hyd.outlet_pressure) >= p_vap
+        for rated in sized.candidates:  # every size judged, the rejected ones too
+            _judged_on_its_own_method(sized, line, rated.hydraulics, rated.verdicts)
 
     check()
+
+
+def _judged_on_its_own_method(sized: LineResult, line: Line, hyd: Hydraulics, verdicts: tuple[Verdict, ...]) -> None:
+    """No verdict judged on numbers the line's method did not compute: a gas size past the simple method's limit
+    is marched (its outlet from the march, never the incompressible formula), a simple-method size reports the
+    outlet that method gives, and the velocity-type verdicts of a marched size judge its worst point."""
+    from boresize.hydraulics.compressible import SIMPLE_LIMIT
+    from boresize.hydraulics.line import is_gas
+
+    assert sized.state is not None
+    simple = hyd.method.startswith("incompressible")
+    fraction = (hyd.drop + hyd.fittings_drop + hyd.static_drop) / line.pressure
+    if simple:
+        assert hyd.outlet_pressure == pytest.approx(line.pressure - hyd.total_drop, rel=1e-12)
+        has_length = line.length > 0.0 or bool(line.fittings)
+        assert not (is_gas(sized.state) and fraction > SIMPLE_LIMIT and has_length), hyd.method
+        assert ("within" in hyd.method) == (is_gas(sized.state) and fraction <= SIMPLE_LIMIT), hyd.method
+    elif hyd.peak_velocity is not None:  # marched: velocity-type criteria at the worst point met on the march
+        for v in verdicts:
+            if v.criterion == "velocity" and v.status in ("pass", "fail") and v.unit == "m/s" and v.value is not None \
+                    and "above the maximum" in v.reason:
+                assert v.value == pytest.approx(hyd.peak_velocity, rel=1e-9), v.reason
