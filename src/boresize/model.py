@@ -74,6 +74,8 @@ class Line:
     :param source_pressure: pressure in the vessel a pump suction draws from [Pa abs]
     :param liquid_level: liquid level above the pump datum (suction static head) [m]
     :param npsh_required: NPSH required by the pump at the sizing flow [m]
+    :param vapour_pressure: vapour (or bubble) pressure of the liquid at line temperature [Pa abs], given with the
+        line's own density and viscosity (the ``table`` backend), whose values carry none
     :param roughness: absolute roughness that replaces the pipe class's (corroded pipe) [m]
     :param case: operating case name ("normal", "maximum", ...) or None
     :param schedule: the schedule of an existing line checked at ``nps`` (replaces the pipe class's), or None
@@ -107,6 +109,7 @@ class Line:
     liquid_level: float | None = None
     npsh_required: float | None = None
     roughness: float | None = None
+    vapour_pressure: float | None = None
     case: str | None = None
     extra: tuple[tuple[str, str], ...] = ()
     schedule: str | None = None

@@ -334,3 +334,39 @@ def test_table_refuses_other_conditions() -> None:
     with pytest.raises(InputError, match=message) as info:
         TableBackend().state(line, ATM, T0 + 15.0)
     assert info.value.field == "flow"
+
+
+# -- the line's own vapour pressure (with its own density and viscosity) ----------------------------------------
+FUEL_OIL = {"tag": "FO-1", "fluid": "fuel oil", "flow": "20 t/h", "pressure": "6 barg", "temperature": "60 degC",
+            "length": "100 m", "density": "950 kg/m3", "viscosity": "120 cP", "service": "liquid"}
+
+
+def test_a_given_vapour_pressure_lets_flashing_judge_a_line_of_its_own_values(sizer):
+    from boresize.io.rows import line_from_row
+
+    unjudged = sizer.run(line_from_row(FUEL_OIL))
+    assert unjudged.status == "error" and "flashing not judged" in (unjudged.error or "")
+    judged = sizer.run(line_from_row({**FUEL_OIL, "vapour_pressure": "0.05 bar"}))
+    assert judged.status == "pass" and judged.state is not None and judged.state.vapour_pressure == 5000.0
+    flashing = next(v for v in judged.selected.verdicts if v.criterion == "flashing")  # type: ignore[union-attr]
+    assert flashing.status == "pass" and "vapour/bubble pressure 0.05 bar abs" in flashing.reason
+
+
+@pytest.mark.parametrize(("row", "message"), [
+    ({**FUEL_OIL, "vapour_pressure": "8 bar"},
+     "line FO-1: vapour_pressure: vapour pressure 8 bar abs is above the inlet pressure 7.013 bar abs: the liquid "
+     "would boil at the inlet; expected a vapour pressure at or below the inlet pressure (absolute)"),
+    ({"tag": "W-1", "fluid": "water", "flow": "20 t/h", "pressure": "6 barg", "temperature": "60 degC",
+      "vapour_pressure": "0.2 bar"},
+     "line W-1: vapour_pressure: a vapour pressure is given, but backend 'coolprop' computes its own; expected "
+     "vapour_pressure only with the line's own density and viscosity (their values carry none); leave it blank "
+     "otherwise"),
+    ({**FUEL_OIL, "density": "20 kg/m3", "viscosity": "0.012 cP", "service": "gas", "vapour_pressure": "0.2 bar"},
+     "line FO-1: vapour_pressure: a vapour pressure is given for a gas; expected vapour_pressure only for a liquid "
+     "line (leave it blank for a gas)"),
+])
+def test_a_vapour_pressure_that_cannot_hold_is_refused_naming_the_field(sizer, row, message):
+    from boresize.io.rows import line_from_row
+
+    result = sizer.run(line_from_row(row))
+    assert (result.status, result.error) == ("error", message)

@@ -43,7 +43,7 @@ PROCESS_THRESHOLD = 200
 SI_UNITS: dict[str, str] = {
     "flow": "kg/s", "pressure": "Pa", "temperature": "K", "length": "m", "density": "kg/m3", "viscosity": "Pa*s",
     "elevation": "m", "fixed_drop": "Pa", "min_outlet_pressure": "Pa", "source_pressure": "Pa",
-    "liquid_level": "m", "npsh_required": "m", "roughness": "m",
+    "liquid_level": "m", "npsh_required": "m", "roughness": "m", "vapour_pressure": "Pa",
 }
 Value = Union[str, float, int, "pint.Quantity[float]", None]
 Item = Union[Line, Sequence[Line]]
@@ -60,7 +60,8 @@ def make_line(tag: str, fluid: str | Mapping[str, float], flow: Value, pressure:
               fixed_drop: Value = None, min_outlet_pressure: Value = None, source_pressure: Value = None,
               liquid_level: Value = None, npsh_required: Value = None, roughness: Value = None,
               case: str | None = None, fittings_method: str | None = None, compressible: str | None = None,
-              extra: Mapping[str, str] | None = None, quality: Value = None) -> Line:
+              extra: Mapping[str, str] | None = None, quality: Value = None,
+              vapour_pressure: Value = None) -> Line:
     """A validated :class:`~boresize.model.Line` (SI inside) from text, pint Quantities or numbers.
 
     The fields are the line-list columns of the README (``fluid`` may also be a mapping component ->

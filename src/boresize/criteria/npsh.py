@@ -133,8 +133,9 @@ def _missing_inputs(context: CriterionContext, at_bubble: bool) -> str:
     parts = [f"no {', '.join(names)} given (line-list columns: give them)"] if names else []
     if not at_bubble and source_vapour_pressure(context) is None:
         parts.append(f"the vapour or bubble pressure is unknown (backend {context.state.source!r} gives none): name "
-                     f"the fluid so that a backend gives it (CoolProp for a pure fluid, thermo for a mixture), or "
-                     f"set at_bubble_point for a liquid drawn at its bubble point")
+                     f"the fluid so that a backend gives it (CoolProp for a pure fluid, thermo for a mixture), give "
+                     f"the line's vapour_pressure with its own density and viscosity, or set at_bubble_point for a "
+                     f"liquid drawn at its bubble point")
     return "; ".join(parts)
 
 

@@ -23,7 +23,7 @@ COLUMNS = (
     "tag", "fluid", "flow", "pressure", "temperature", "length", "service", "pipe_class", "nps",
     "density", "viscosity", "design_margin", "phase", "backend", "eos", "elevation", "fittings", "fixed_drop",
     "min_outlet_pressure", "source_pressure", "liquid_level", "npsh_required", "roughness", "case", "schedule",
-    "fittings_method", "compressible", "quality",
+    "fittings_method", "compressible", "quality", "vapour_pressure",
 )
 # Optional quantities: column -> (quantity kind, must be above zero, example for messages)
 OPTIONAL_QUANTITIES: dict[str, tuple[QuantityKind, bool, str]] = {
@@ -34,6 +34,8 @@ OPTIONAL_QUANTITIES: dict[str, tuple[QuantityKind, bool, str]] = {
     "liquid_level": ("length", False, "liquid level above the pump datum, e.g. '4 m'"),
     "npsh_required": ("length", True, "NPSH required by the pump, e.g. '3.5 m'"),
     "roughness": ("length", True, "absolute roughness replacing the pipe class's, e.g. '0.5 mm'"),
+    "vapour_pressure": ("pressure", True, "vapour or bubble pressure at line temperature, with the line's own "
+                                          "density and viscosity, e.g. '0.05 bar'"),
 }
 _COLUMN_SET = frozenset(COLUMNS)
 REQUIRED = ("tag", "fluid", "flow", "pressure", "temperature")

@@ -53,8 +53,17 @@ def choose_backend(host: PluginHost, line: Line) -> Any:
 
 
 def fluid_state(host: PluginHost, line: Line) -> FluidState:
-    """Properties at the line's inlet pressure and temperature."""
-    return _state_of(host, choose_backend(host, line), line, line.pressure, line.temperature)
+    """Properties at the line's inlet pressure and temperature.
+
+    :raises InputError: a ``vapour_pressure`` given to a line whose backend computes its own (field named)
+    """
+    backend = choose_backend(host, line)
+    if line.vapour_pressure is not None and backend.id != "table":
+        raise InputError(f"a vapour pressure is given, but backend {backend.id!r} computes its own",
+                         field="vapour_pressure", value=line.vapour_pressure,
+                         expected="vapour_pressure only with the line's own density and viscosity (their values "
+                                  "carry none); leave it blank otherwise", tag=line.tag)
+    return _state_of(host, backend, line, line.pressure, line.temperature)
 
 
 def _state_of(host: PluginHost, backend: Any, line: Line, pressure: float, temperature: float) -> FluidState:
