@@ -74,8 +74,8 @@ class Line:
     :param source_pressure: pressure in the vessel a pump suction draws from [Pa abs]
     :param liquid_level: liquid level above the pump datum (suction static head) [m]
     :param npsh_required: NPSH required by the pump at the sizing flow [m]
-    :param vapour_pressure: vapour (or bubble) pressure of the liquid at line temperature [Pa abs], given with the
-        line's own density and viscosity (the ``table`` backend), whose values carry none
+    :param vapour_pressure: vapour (or bubble) pressure of the liquid at line temperature [Pa abs], for a backend
+        that gives none (the line's own density and viscosity, CoolProp's incompressible liquids and brines)
     :param roughness: absolute roughness that replaces the pipe class's (corroded pipe) [m]
     :param case: operating case name ("normal", "maximum", ...) or None
     :param schedule: the schedule of an existing line checked at ``nps`` (replaces the pipe class's), or None

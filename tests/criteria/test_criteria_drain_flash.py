@@ -145,8 +145,8 @@ def test_unknown_vapour_pressure_is_an_error_that_says_how_to_supply_it():
     assert verdict.status == "error"
     assert verdict.reason == ("flashing not judged: the vapour or bubble pressure of line T-1 is unknown (backend "
                               "'test' gives none); name the fluid so that a backend gives it (CoolProp for a pure "
-                              "fluid, thermo for a mixture), give the line's vapour_pressure with its own density "
-                              "and viscosity, or judge the line in a service without flashing (criteria file)")
+                              "fluid, thermo for a mixture), give the line's vapour_pressure, or judge the line in "
+                              "a service without flashing (criteria file)")
 
 
 def test_warn_only_must_be_true_or_false(tmp_path, host):

@@ -125,9 +125,9 @@ def test_missing_vapour_pressure_is_named_with_the_backend():
     assert verdict.status == "error"
     assert verdict.reason == ("NPSH margin not judged for line T-1: the vapour or bubble pressure is unknown (backend "
                               "'test' gives none): name the fluid so that a backend gives it (CoolProp for a pure "
-                              "fluid, thermo for a mixture), give the line's vapour_pressure with its own density and "
-                              "viscosity, or set at_bubble_point for a liquid drawn at its bubble point; or size the "
-                              "line in a service without npsh-margin (criteria file)")
+                              "fluid, thermo for a mixture), give the line's vapour_pressure, or set at_bubble_point "
+                              "for a liquid drawn at its bubble point; or size the line in a service without "
+                              "npsh-margin (criteria file)")
 
 
 @pytest.mark.parametrize(("given", "message"), [

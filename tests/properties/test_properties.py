@@ -352,18 +352,27 @@ def test_a_given_vapour_pressure_lets_flashing_judge_a_line_of_its_own_values(si
     assert flashing.status == "pass" and "vapour/bubble pressure 0.05 bar abs" in flashing.reason
 
 
+def test_a_brine_takes_its_vapour_pressure_from_the_line(sizer):
+    from boresize.io.rows import line_from_row
+
+    brine = {"tag": "B-1", "fluid": "MEG 30%", "flow": "20 t/h", "pressure": "3 barg", "temperature": "20 degC"}
+    assert sizer.run(line_from_row(brine)).status == "error"  # CoolProp's brines carry no vapour pressure
+    judged = sizer.run(line_from_row({**brine, "vapour_pressure": "0.02 bar"}))
+    assert judged.status == "pass" and judged.state is not None and judged.state.vapour_pressure == 2000.0
+
+
 @pytest.mark.parametrize(("row", "message"), [
     ({**FUEL_OIL, "vapour_pressure": "8 bar"},
      "line FO-1: vapour_pressure: vapour pressure 8 bar abs is above the inlet pressure 7.013 bar abs: the liquid "
      "would boil at the inlet; expected a vapour pressure at or below the inlet pressure (absolute)"),
     ({"tag": "W-1", "fluid": "water", "flow": "20 t/h", "pressure": "6 barg", "temperature": "60 degC",
       "vapour_pressure": "0.2 bar"},
-     "line W-1: vapour_pressure: a vapour pressure is given, but backend 'coolprop' computes its own; expected "
-     "vapour_pressure only with the line's own density and viscosity (their values carry none); leave it blank "
-     "otherwise"),
+     "line W-1: vapour_pressure: a vapour pressure is given, but backend 'coolprop' computes its own (0.1995 bar abs); "
+     "expected vapour_pressure only where the backend gives none (the line's own density and viscosity, brines); "
+     "leave it blank otherwise"),
     ({**FUEL_OIL, "density": "20 kg/m3", "viscosity": "0.012 cP", "service": "gas", "vapour_pressure": "0.2 bar"},
-     "line FO-1: vapour_pressure: a vapour pressure is given for a gas; expected vapour_pressure only for a liquid "
-     "line (leave it blank for a gas)"),
+     "line FO-1: vapour_pressure: a vapour pressure is given for a gas line; expected vapour_pressure only for a "
+     "liquid line (leave it blank otherwise)"),
 ])
 def test_a_vapour_pressure_that_cannot_hold_is_refused_naming_the_field(sizer, row, message):
     from boresize.io.rows import line_from_row

@@ -122,8 +122,8 @@ MIXTURE = {"tag": "MX-1", "fluid": "n-hexane:0.5, n-heptane:0.5", "backend": "co
            "pressure": "3 barg", "temperature": "25 degC", "length": "15 m", "service": "pump-suction",
            "source_pressure": "3 barg", "liquid_level": "3 m", "npsh_required": "3 m"}
 NO_BUBBLE = ("the vapour or bubble pressure is unknown (backend 'coolprop-mixture' gives none): name the fluid so that "
-             "a backend gives it (CoolProp for a pure fluid, thermo for a mixture), give the line's vapour_pressure "
-             "with its own density and viscosity, or set at_bubble_point for a liquid drawn at its bubble point")
+             "a backend gives it (CoolProp for a pure fluid, thermo for a mixture), give the line's vapour_pressure, "
+             "or set at_bubble_point for a liquid drawn at its bubble point")
 
 
 def test_a_mixture_pump_suction_the_backend_cannot_judge_is_an_error_not_a_pass(sizer: Sizer):

@@ -71,8 +71,8 @@ class Flashing(Criterion):
             return verdict(self, "error", f"flashing not judged: the vapour or bubble pressure of line "
                            f"{context.line.tag} is unknown (backend {context.state.source!r} gives none); name the "
                            f"fluid so that a backend gives it (CoolProp for a pure fluid, thermo for a mixture), "
-                           f"give the line's vapour_pressure with its own density and viscosity, or judge the line "
-                           f"in a service without flashing (criteria file)")
+                           f"give the line's vapour_pressure, or judge the line in a service without flashing "
+                           f"(criteria file)")
         hyd, line = context.hydraulics, context.line
         lowest, where = lowest_pressure(line.pressure, hyd.drop, hyd.fittings_drop, hyd.static_drop, hyd.fixed_drop)
         margin = context.options.get("margin", 0.0)

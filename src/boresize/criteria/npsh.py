@@ -134,8 +134,7 @@ def _missing_inputs(context: CriterionContext, at_bubble: bool) -> str:
     if not at_bubble and source_vapour_pressure(context) is None:
         parts.append(f"the vapour or bubble pressure is unknown (backend {context.state.source!r} gives none): name "
                      f"the fluid so that a backend gives it (CoolProp for a pure fluid, thermo for a mixture), give "
-                     f"the line's vapour_pressure with its own density and viscosity, or set at_bubble_point for a "
-                     f"liquid drawn at its bubble point")
+                     f"the line's vapour_pressure, or set at_bubble_point for a liquid drawn at its bubble point")
     return "; ".join(parts)
 
 

@@ -65,31 +65,10 @@ class TableBackend:
             model=f"line list values ({rule})",
             fluid_name=line.fluid or None,
             vapour_fraction=None if phase == "two-phase" else 0.0 if phase == "liquid" else 1.0,
-            vapour_pressure=_vapour_pressure(line, phase),
             backend_version=_boresize_version(),
             pressure=pressure,
             temperature=temperature,
         )
-
-
-def _vapour_pressure(line: Line, phase: Phase) -> float | None:
-    """The line's own vapour pressure [Pa abs] for a liquid: at most its inlet pressure (a liquid above its vapour
-    pressure would already be boiling at the inlet).
-
-    :raises InputError: (field "vapour_pressure") one above the inlet pressure, or given for a gas
-    """
-    given = line.vapour_pressure
-    if given is None:
-        return None
-    if phase != "liquid":
-        raise InputError(f"a vapour pressure is given for a {phase}", field="vapour_pressure", value=given,
-                         expected="vapour_pressure only for a liquid line (leave it blank for a gas)", tag=line.tag)
-    if given > line.pressure:
-        raise InputError(f"vapour pressure {given / 1e5:.4g} bar abs is above the inlet pressure "
-                         f"{line.pressure / 1e5:.4g} bar abs: the liquid would boil at the inlet",
-                         field="vapour_pressure", value=given,
-                         expected="a vapour pressure at or below the inlet pressure (absolute)", tag=line.tag)
-    return given
 
 
 @functools.cache

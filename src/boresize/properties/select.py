@@ -53,17 +53,33 @@ def choose_backend(host: PluginHost, line: Line) -> Any:
 
 
 def fluid_state(host: PluginHost, line: Line) -> FluidState:
-    """Properties at the line's inlet pressure and temperature.
+    """Properties at the line's inlet pressure and temperature, with the line's own ``vapour_pressure`` where the
+    backend gives none (the line's own density and viscosity, CoolProp's incompressible liquids and brines).
 
-    :raises InputError: a ``vapour_pressure`` given to a line whose backend computes its own (field named)
+    :raises InputError: (field "vapour_pressure") one given where the backend computes its own, for a fluid that is
+        not a liquid, or above the inlet pressure
     """
-    backend = choose_backend(host, line)
-    if line.vapour_pressure is not None and backend.id != "table":
-        raise InputError(f"a vapour pressure is given, but backend {backend.id!r} computes its own",
-                         field="vapour_pressure", value=line.vapour_pressure,
-                         expected="vapour_pressure only with the line's own density and viscosity (their values "
-                                  "carry none); leave it blank otherwise", tag=line.tag)
-    return _state_of(host, backend, line, line.pressure, line.temperature)
+    state = _state_of(host, choose_backend(host, line), line, line.pressure, line.temperature)
+    given = line.vapour_pressure
+    if given is None:
+        return state
+
+    def refuse(message: str, expected: str) -> InputError:
+        return InputError(message, field="vapour_pressure", value=given, expected=expected, tag=line.tag)
+
+    if state.vapour_pressure is not None:
+        raise refuse(f"a vapour pressure is given, but backend {state.source!r} computes its own "
+                     f"({state.vapour_pressure / 1e5:.4g} bar abs)",
+                     "vapour_pressure only where the backend gives none (the line's own density and viscosity, "
+                     "brines); leave it blank otherwise")
+    if state.phase != "liquid":
+        raise refuse(f"a vapour pressure is given for a {state.phase} line",
+                     "vapour_pressure only for a liquid line (leave it blank otherwise)")
+    if given > line.pressure:
+        raise refuse(f"vapour pressure {given / 1e5:.4g} bar abs is above the inlet pressure {line.pressure / 1e5:.4g} "
+                     f"bar abs: the liquid would boil at the inlet",
+                     "a vapour pressure at or below the inlet pressure (absolute)")
+    return replace(state, vapour_pressure=given)
 
 
 def _state_of(host: PluginHost, backend: Any, line: Line, pressure: float, temperature: float) -> FluidState:
