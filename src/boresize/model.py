@@ -83,7 +83,7 @@ class Line:
     :param compressible: gas lines above a 10 % drop: "isothermal" (default) or "adiabatic", or None
     :param quality: vapour mass fraction at the inlet [-] of a saturated pure fluid (1 saturated vapour,
         0 saturated liquid), or None; with it the pressure alone fixes the state and ``temperature`` is the
-        saturation temperature at ``pressure`` (:func:`boresize.properties.saturation.saturated_line`)
+        saturation temperature at ``pressure`` (:func:`boresize.properties.saturated_line.saturated_line`)
     """
 
     tag: str

@@ -171,7 +171,7 @@ def line_from_row(row: Mapping[str, object], units: Mapping[str, str | None] | N
         )
         if quality is None:
             return line
-        from boresize.properties.saturation import saturated_line  # lazy: the properties load CoolProp
+        from boresize.properties.saturated_line import saturated_line  # lazy: the properties load CoolProp
 
         return saturated_line(line)
     except InputError as exc:

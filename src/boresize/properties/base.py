@@ -20,6 +20,7 @@ __all__ = [
     "ZERO_CELSIUS",
     "describe_conditions",
     "check_plausible",
+    "is_mixture",
 ]
 
 #: Plausible density [kg/m3]: a plausibility guard (common practice), not a physical law.
@@ -95,3 +96,8 @@ def check_plausible(
                 f"{backend}: {name} {value:.6g} {unit} for {where} is outside the plausible range "
                 f"{low:g} to {high:g} {unit}"
             )
+
+
+def is_mixture(fluid: str) -> bool:
+    """True for a mixture written as "a:0.5, b:0.5", "a[0.5]&b[0.5]" or "a&b"."""
+    return any(mark in fluid for mark in (":", "&", "[", ","))

@@ -37,7 +37,7 @@ from typing import Any, Literal
 
 from boresize.errors import InputError, PropertyError
 from boresize.model import FluidState, Line, Phase
-from boresize.properties.base import check_plausible, describe_conditions
+from boresize.properties.base import is_mixture, check_plausible, describe_conditions
 from boresize.properties.coolprop_range import Limits as _Limits
 from boresize.properties.coolprop_range import check_range as _check_range
 from boresize.properties.saturation import check_quality, saturation_near
@@ -84,11 +84,6 @@ _SPELLINGS_KEPT = 1024
 def _normalise(name: str) -> str:
     """Key for name matching: case-folded, without spaces, hyphens and underscores."""
     return re.sub(r"[\s_\-]+", "", name.casefold())
-
-
-def is_mixture(fluid: str) -> bool:
-    """True for a mixture written as "a:0.5, b:0.5", "a[0.5]&b[0.5]" or "a&b"."""
-    return any(mark in fluid for mark in (":", "&", "[", ","))
 
 
 class CoolPropBackend:

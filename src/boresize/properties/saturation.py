@@ -24,14 +24,13 @@ on; the same half degree lets a rounded saturation temperature stand beside a qu
 from __future__ import annotations
 
 import math
-from dataclasses import replace
 from typing import Any
 
 from boresize.errors import InputError
 from boresize.model import FluidState, Line
-from boresize.properties.base import ZERO_CELSIUS
+from boresize.properties.base import ZERO_CELSIUS, is_mixture
 
-__all__ = ["SATURATION_MARGIN", "saturated_line", "check_quality", "saturation_near", "near_saturation_error", "refuse_quality",
+__all__ = ["SATURATION_MARGIN", "check_quality", "saturation_near", "near_saturation_error", "refuse_quality",
            "celsius_text"]
 
 #: Distance from the saturation temperature within which a (p, T) state is too close to size without a
@@ -56,35 +55,6 @@ def refuse_quality(line: Line, backend: str) -> None:
                          expected="a temperature instead of a quality (saturated mixtures are not supported yet)")
 
 
-def saturated_line(line: Line) -> Line:
-    """``line`` (which gives a quality) with its temperature set to the saturation temperature at its pressure.
-
-    :raises InputError: a quality outside 0 to 1 or between them (two-phase), a mixture, another backend,
-        given density or viscosity, a pressure outside the saturation curve, a temperature or a phase that
-        disagrees with the quality (field named in each)
-    """
-    quality = line.quality
-    if quality is None:
-        return line
-    check_quality(line, quality)
-    from boresize.properties.coolprop import coolprop_saturation
-
-    name, t_sat = coolprop_saturation(line.fluid, line.pressure)
-    if math.isfinite(line.temperature) and abs(line.temperature - t_sat) > SATURATION_MARGIN:
-        raise InputError(
-            f"temperature {celsius_text(line.temperature)} disagrees with the saturation temperature "
-            f"{celsius_text(t_sat)} of {name} at {line.pressure / 1e5:.6g} bar abs (quality {quality:g})",
-            field="temperature", value=line.temperature,
-            expected=f"the temperature left blank or 'saturated', or within {SATURATION_MARGIN:g} K of "
-                     f"{celsius_text(t_sat)}")
-    side = _SIDES[quality]
-    if line.phase is not None and line.phase != side:
-        raise InputError(f"phase {line.phase} disagrees with quality {quality:g} (saturated "
-                         f"{'vapour' if side == 'gas' else 'liquid'})", field="phase",
-                         value=line.phase, expected=f"phase {side} or none with quality {quality:g}")
-    return replace(line, temperature=t_sat)
-
-
 def check_quality(line: Line, quality: float) -> None:
     """InputError unless the quality is 0 or 1 of a pure fluid whose properties the coolprop backend computes."""
     if not (math.isfinite(quality) and 0.0 <= quality <= 1.0):
@@ -93,8 +63,6 @@ def check_quality(line: Line, quality: float) -> None:
     if quality not in _SIDES:
         raise InputError(f"quality {quality:g} is two-phase: two-phase lines are not sized yet", field="quality",
                          value=quality, expected="1 (saturated vapour) or 0 (saturated liquid)")
-    from boresize.properties.coolprop import is_mixture
-
     if is_mixture(line.fluid):
         raise InputError(f"quality {quality:g} is given for the mixture {line.fluid!r}: a saturated state by "
                          f"quality is available for pure fluids only", field="quality", value=quality,
