@@ -90,8 +90,7 @@ def test_choked_line_names_where_it_chokes():
 @pytest.mark.parametrize(("hydraulics", "line", "named"), [
     ({"fixed_drop": -0.3e5}, {"fixed_drop": -0.3e5}, "allowance (fixed_drop) -0.3 bar"),
     ({"drop": -0.2e5}, {"length": -50.0}, "friction drop -0.2 bar (length -50 m)"),
-    ({}, {"fittings": (("K=2", -1.0),)}, "fitting 'K=2' (count -1, K 2, equivalent length 0 m)"),
-    ({}, {"fittings": (("leq=-30 m", 1.0),)}, "fitting 'leq=-30 m' (count 1, K 0, equivalent length -30 m)"),
+    ({"fittings_drop": -0.1e5, "fittings_k": -2.0}, {}, "fittings drop -0.1 bar (sum of K -2)"),
 ])
 def test_a_loss_that_credits_the_line_fails(hydraulics, line, named):
     context = make_context(drop=0.1e5, line=line)

@@ -24,7 +24,6 @@ from __future__ import annotations
 from typing import get_args
 
 from boresize.criteria.base import Criterion, CriterionContext, verdict
-from boresize.hydraulics.fittings import fittings_loss
 from boresize.model import Hydraulics, Line, Phase, Verdict
 
 __all__ = ["FEASIBILITY_ID", "LineFeasibility", "negative_losses"]
@@ -33,22 +32,14 @@ FEASIBILITY_ID = "line-feasibility"
 _BAR = 1e5  # Pa per bar
 
 
-def negative_losses(line: Line, h: Hydraulics, reynolds: float, inside_diameter: float, nps: float) -> list[str]:
-    """Each loss of the line that is below zero, as a phrase for the reason (empty when none is).
-
-    :param reynolds: [-], :param inside_diameter: [m], :param nps: nominal size [in]: those the fittings were rated at
-    """
+def negative_losses(line: Line, h: Hydraulics) -> list[str]:
+    """Each loss of the line that is below zero, as a phrase for the reason (empty when none is)."""
     found = []
     if line.length < 0 or h.drop < 0:
         found.append(f"friction drop {h.drop / _BAR:.4g} bar (length {line.length:g} m)")
-    if line.fittings:
-        loss = fittings_loss(line.fittings, line.fittings_method, reynolds=reynolds, inside_diameter=inside_diameter,
-                             nps=nps)
-        for item in loss.items:
-            if item.count < 0 or item.k < 0 or item.equivalent_length < 0:
-                found.append(f"fitting {item.spec!r} (count {item.count:g}, K {item.k:.4g}, equivalent length "
-                             f"{item.equivalent_length:.4g} m)")
-    if h.fittings_drop < 0 and not any(text.startswith("fitting ") for text in found):
+    # A fitting's negative count, K or equivalent length is refused when the fittings are read
+    # (hydraulics.fittings); what reaches here is the sum, from a plugin's or a hand-built Hydraulics.
+    if h.fittings_drop < 0:
         found.append(f"fittings drop {h.fittings_drop / _BAR:.4g} bar (sum of K {h.fittings_k:.4g})")
     if h.fixed_drop < 0 or line.fixed_drop < 0:
         found.append(f"allowance (fixed_drop) {line.fixed_drop / _BAR:.4g} bar")
@@ -66,8 +57,7 @@ class LineFeasibility(Criterion):
 
     def evaluate(self, context: CriterionContext) -> Verdict:
         h, line = context.hydraulics, context.line
-        candidate = context.candidate
-        credits = negative_losses(line, h, h.reynolds, candidate.inside_diameter, candidate.nps_value)
+        credits = negative_losses(line, h)
         if h.outlet_pressure is None and not h.choked and not credits:
             return _without_outlet(self, h, line)
         outlet = h.outlet_pressure if h.outlet_pressure is not None else line.pressure - h.total_drop
