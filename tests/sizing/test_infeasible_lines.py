@@ -144,3 +144,19 @@ def test_the_same_mixture_checked_at_a_size_fails_and_says_why(sizer: Sizer):
     assert result.status == "fail"
     assert "a criterion could not judge this size (error verdict)" in result.notes
     assert _verdict(result, "npsh-margin").status == "error"
+
+
+def test_a_marched_gas_line_without_fittings_has_no_fittings_drop_to_fail_on(sizer: Sizer):
+    # Found by the invariant "more flow never selects a smaller size": the march split its friction between pipe
+    # and fittings by difference, leaving -2e-15 Pa of "fittings drop", which line-feasibility read as a credit.
+    import math
+
+    from boresize import make_line
+
+    line = make_line("N2-1", "nitrogen", 1.0, math.exp(15.875), 410.0, length=math.exp(1.61328125), si=True,
+                     service="gas", nps="1/2")  # the values the invariant drew
+    result = sizer.run(line)
+    hyd = result.selected.hydraulics  # type: ignore[union-attr]
+    assert "compressible flow" in hyd.method and hyd.fittings_drop == 0.0
+    feasibility = next(v for v in result.selected.verdicts if v.criterion == "line-feasibility")  # type: ignore[union-attr]
+    assert "credits" not in feasibility.reason

@@ -102,13 +102,15 @@ def _compressible(line: Line, state: FluidState, hyd: Hydraulics, loss: Fittings
                          along, model=line.compressible or "isothermal", elevation=line.elevation,
                          segments=segment_count(fraction))
     pipe_drop = gas.friction_drop * line.length / marched
+    fittings_drop = gas.friction_drop * fittings_length / marched  # 0 exactly without fittings: no -1e-15 remainder
     outlet = gas.outlet_pressure - line.fixed_drop
+
     def scale(x: float) -> float:  # a marched length to a distance along the pipe (fittings spread evenly)
         return min(line.length, x * line.length / marched)
 
     return replace(
         hyd, drop=pipe_drop, drop_per_length=_mean_gradient(gas, marched, hyd.drop_per_length),
-        fittings_drop=gas.friction_drop - pipe_drop, static_drop=gas.static_drop,
+        fittings_drop=fittings_drop, static_drop=gas.static_drop,
         acceleration_drop=gas.acceleration_drop, fixed_drop=line.fixed_drop, total_drop=line.pressure - outlet,
         outlet_pressure=outlet, outlet_velocity=gas.outlet_velocity, outlet_mach=gas.outlet_mach,
         choked=gas.choked, choke_length=scale(gas.reached_length) if gas.choked else None,
