@@ -11,7 +11,9 @@ trick taken out can be measured again:
 * ``unit-conversions``: :mod:`boresize.units.quantities` keeps the conversion of each unit text that parsed
   (``_CONVERSIONS``), so that the next number in that unit is a multiply and an add;
 * ``unit-lru``: its ``lru_cache`` on the pint parse of a unit expression, the linear map to SI, the offset
-  units and the dimension of an SI unit (``unit-both``: this and ``unit-conversions`` together);
+  units and the dimension of an SI unit (``unit-both``: this and ``unit-conversions`` together); on the
+  ``rows-errors`` case, all four (``unit-lru-errors``) and each (``unit-parse``: the parse and the offset
+  units, ``unit-linear``, ``unit-dimension``);
 * ``nps-texts``: :mod:`boresize.pipes.catalogue` keeps the NPS and schedule spellings read
   (``_LABEL_BY_TEXT``, ``_SCHEDULE_BY_TEXT``);
 * ``coolprop-names``: the CoolProp backend keeps each fluid spelling's canonical name (``_known``);
@@ -21,12 +23,14 @@ trick taken out can be measured again:
 * ``heos-names``: the CoolProp mixture backend's ``lru_cache`` of parsed compositions (``_heos_key``);
 * ``limit-texts``: :mod:`boresize.criteria.limits` keeps the reasons' endings per unit and limits (``_TEXTS``);
 * ``bands-context`` / ``bands-verdict``: a banded criterion builds the engine's ``CriterionContext`` and the
-  ``Verdict`` directly instead of through ``dataclasses.replace``;
+  ``Verdict`` directly instead of through ``dataclasses.replace`` (``bands-both``: the two together);
+* ``band-reason``: a band's note for the reasons is a ``cached_property`` (off: a property);
 * ``fittings-plans``: :mod:`boresize.hydraulics.fittings` keeps each line's parsed fittings and every K
   that does not depend on Re (``_PLANS``).
 
 Cases: ``rows`` reads the 2,000-line list of ``bench_batch.py`` into Lines (``line_from_row``); ``rows-nps``
-is the same list with an NPS and a schedule on every row, in assorted spellings; ``demo`` sizes it;
+is the same list with an NPS and a schedule on every row, in assorted spellings; ``rows-errors`` the same
+list with a length of the wrong dimension on every row (each row's message path); ``demo`` sizes it;
 ``banded`` sizes 400 lines on the shipped services with banded limits (``bench_rating.py``); ``mixtures``
 sizes 200 lines of gas mixtures (thermo and CoolProp HEOS) and a component only the chemicals database
 serves; ``fittings`` sizes 400 of the demo lines with a fittings list on each.
@@ -61,6 +65,7 @@ import boresize.units.quantities as quantities  # noqa: E402
 from boresize.api import make_line  # noqa: E402
 from boresize.criteria.bands import Band, BandedCriterion  # noqa: E402
 from boresize.criteria.base import CriterionContext  # noqa: E402
+from boresize.errors import InputError  # noqa: E402
 from boresize.io.read import read_line_list  # noqa: E402
 from boresize.io.rows import line_from_row  # noqa: E402
 from boresize.model import Line, Verdict  # noqa: E402
@@ -98,6 +103,18 @@ def unit_conversions(on: bool) -> Any:
 def unit_lru(on: bool) -> Any:
     q = quantities
     return _attributes(on, q, _uncached(q._unit_of, q._to_si, q._offset_unit, q._dimension))
+
+
+def unit_parse(on: bool) -> Any:
+    return _attributes(on, quantities, _uncached(quantities._unit_of, quantities._offset_unit))
+
+
+def unit_linear(on: bool) -> Any:
+    return _attributes(on, quantities, _uncached(quantities._to_si))
+
+
+def unit_dimension(on: bool) -> Any:
+    return _attributes(on, quantities, _uncached(quantities._dimension))
 
 
 @contextmanager
@@ -170,6 +187,10 @@ def bands_verdict(on: bool) -> Any:
     return _attributes(on, BandedCriterion, {"evaluate": _banded_evaluate(True, False)})
 
 
+def bands_both(on: bool) -> Any:
+    return _attributes(on, BandedCriterion, {"evaluate": _banded_evaluate(False, False)})
+
+
 def _fittings_loss_plain(items: Any, method: str | None, *, reynolds: float, inside_diameter: float,
                          nps: float) -> Any:
     chosen = fittings.normalise_method(method)
@@ -200,6 +221,10 @@ TRICKS: dict[str, tuple[Callable[[bool], Any], str]] = {
     "unit-conversions": (unit_conversions, "rows"),
     "unit-lru": (unit_lru, "rows"),
     "unit-both": (unit_both, "rows"),
+    "unit-lru-errors": (unit_lru, "rows-errors"),
+    "unit-parse": (unit_parse, "rows-errors"),
+    "unit-linear": (unit_linear, "rows-errors"),
+    "unit-dimension": (unit_dimension, "rows-errors"),
     "nps-texts": (nps_texts, "rows-nps"),
     "coolprop-names": (coolprop_names, "demo"),
     "thermo-names": (thermo_names, "mixtures"),
@@ -208,6 +233,7 @@ TRICKS: dict[str, tuple[Callable[[bool], Any], str]] = {
     "limit-texts": (limit_texts, "demo"),
     "bands-context": (bands_context, "banded"),
     "bands-verdict": (bands_verdict, "banded"),
+    "bands-both": (bands_both, "banded"),
     "band-reason": (band_reason, "banded"),
     "fittings-plans": (fittings_plans, "fittings"),
 }
@@ -252,10 +278,18 @@ def fittings_lines(rows: Sequence[Row], count: int) -> list[list[Line]]:
     return [[line_from_row({**row, "fittings": items}, units, position)] for row, units, position in rows[:count]]
 
 
+def rows_with_errors(rows: Sequence[Row]) -> list[Row]:
+    """The list with a length of the wrong dimension on every row (a column filled in the wrong unit)."""
+    return [({**row, "length": f"{i % 90 + 10} kg"}, units, position) for i, (row, units, position) in enumerate(rows)]
+
+
 def read_rows(rows: Sequence[Row]) -> float:
     start = time.process_time()
     for row, units, position in rows:
-        line_from_row(row, units, position)
+        try:
+            line_from_row(row, units, position)
+        except InputError:
+            pass
     return time.process_time() - start
 
 
@@ -302,7 +336,8 @@ def main(argv: Sequence[str] | None = None) -> None:
              "mixtures": lambda: mixture_lines(max(args.lines // 10, 9)),
              "fittings": lambda: fittings_lines(rows, max(args.lines // 5, 10))}
     cases: dict[str, tuple[Sequence[Any], Callable[[Sequence[Any]], float], int]] = {
-        "rows": (rows, read_rows, 200), "rows-nps": (rows_with_nps(rows), read_rows, 200)}
+        "rows": (rows, read_rows, 200), "rows-nps": (rows_with_nps(rows), read_rows, 200),
+        "rows-errors": (rows_with_errors(rows), read_rows, 200)}
     for case in needed & sized.keys():
         cases[case] = (sized[case](), lambda part: size_all(sizer, part), 50)
     for work, run, _ in (cases[case] for case in needed):
