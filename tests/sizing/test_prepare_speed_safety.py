@@ -1,4 +1,4 @@
-"""The per-line shortcuts before rating (NPS and schedule texts read once, fluid names resolved once, the
+"""The per-line shortcuts before rating (NPS and schedule texts read once, fluid names by any spelling, the
 plausibility message built only when needed, states recorded whole by the backend) change no answer.
 
 Every check compares with a reference outside boresize: CoolProp's own ``PropsSI`` and version, the

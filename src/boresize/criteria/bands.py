@@ -23,7 +23,6 @@ from __future__ import annotations
 import math
 from collections.abc import Mapping, Sequence
 from dataclasses import dataclass, replace
-from functools import cached_property
 from typing import Any
 
 from boresize.criteria.base import CriterionContext, SizeTrend, parse_options
@@ -55,7 +54,7 @@ class Band:
         return ((self.up_to_nps is None or nps <= self.up_to_nps)
                 and (self.up_to_pressure is None or pressure <= self.up_to_pressure))
 
-    @cached_property
+    @property
     def reason(self) -> str:
         """The note a banded verdict's reasons end with: ``(band: <label>)``."""
         return f"(band: {self.label})"
@@ -115,14 +114,7 @@ class BandedCriterion:
             return Verdict(criterion=self.id, status="error", source=self.source, reasons=(
                 f"no band of {self.where} covers NPS {cand.nps} at {line.pressure / 1e5:.4g} bar abs; "
                 f"end the bands with one without bounds",))
-        if type(context) is CriterionContext:  # the engine's: build it directly (replace is slow on a hot path)
-            banded = CriterionContext(line, context.state, cand, context.hydraulics, band.options, context.service)
-        else:
-            banded = replace(context, options=band.options)
-        result = self.inner.evaluate(banded)
-        if type(result) is Verdict:
-            return Verdict(result.criterion, result.status, (*result.reasons, band.reason), result.source,
-                           result.value, result.limit, result.unit, result.utilisation)
+        result = self.inner.evaluate(replace(context, options=band.options))
         if not isinstance(result, Verdict):
             return result  # type: ignore[no-any-return]  # the engine reports the wrong type, naming the plugin
         return replace(result, reasons=(*result.reasons, band.reason))

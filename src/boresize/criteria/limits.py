@@ -40,7 +40,7 @@ def judge_range(criterion: object, value_si: float, options: Mapping[str, float]
     high, low = options.get("max"), options.get("min")
     util_high = value_si / high if high else 0.0
     util_low = low / value_si if low and value_si > 0 else (float("inf") if low else 0.0)
-    above, below, within = _texts(unit, scale, high, low)
+    above, below, within = _limit_texts(unit, scale, high, low)
     if high is not None and value_si > high:
         return verdict(criterion, "fail", f"{noun} {shown:.3g}{above}{where}", value=shown, limit=high / scale,
                        unit=unit, utilisation=util_high)
@@ -50,24 +50,6 @@ def judge_range(criterion: object, value_si: float, options: Mapping[str, float]
     binding = high if util_high >= util_low else low
     return verdict(criterion, "pass", f"{noun} {shown:.3g}{within}{where}", value=shown, limit=(binding or 0.0) / scale,
                    unit=unit, utilisation=max(util_high, util_low))
-
-
-#: (unit, scale, max, min) -> the reasons' endings (_limit_texts), for limits above zero (checked options)
-_TEXTS: dict[tuple[str, float, float | None, float | None], tuple[str, str, str]] = {}
-_TEXTS_MAX = 1024
-
-
-def _texts(unit: str, scale: float, high: float | None, low: float | None) -> tuple[str, str, str]:
-    """:func:`_limit_texts`, worked out once per unit and limits (limits come from the criteria file)."""
-    if not ((high is None or type(high) is float and high > 0.0) and (low is None or type(low) is float and low > 0.0)):
-        return _limit_texts(unit, scale, high, low)  # not a checked option (a plugin's own): no caching
-    key = (unit, scale, high, low)
-    texts = _TEXTS.get(key)
-    if texts is None:
-        if len(_TEXTS) >= _TEXTS_MAX:
-            _TEXTS.clear()
-        texts = _TEXTS[key] = _limit_texts(unit, scale, high, low)
-    return texts
 
 
 def _limit_texts(unit: str, scale: float, high: float | None, low: float | None) -> tuple[str, str, str]:

@@ -13,7 +13,6 @@ identifier database), https://github.com/CalebBell/chemicals.
 from __future__ import annotations
 
 import difflib
-import functools
 import re
 from dataclasses import dataclass
 from typing import Any
@@ -63,7 +62,6 @@ class Component:
     molar_mass: float
 
 
-@functools.lru_cache(maxsize=1024)
 def resolve_component(given: str) -> Component:
     """The chemical identity of ``given`` (name, formula, CAS number or shorthand).
 
@@ -86,7 +84,6 @@ def is_known_component(given: str) -> bool:
     return " ".join(given.casefold().split()) not in BLENDS and _search(given.strip()) is not None
 
 
-@functools.lru_cache(maxsize=1024)
 def _search(key: str) -> Any:
     """chemicals' metadata of a name, formula, CAS number or shorthand, or None."""
     from chemicals.identifiers import search_chemical

@@ -78,7 +78,6 @@ _PHASE_BY_INDEX: dict[int, Phase] = {
 _MODEL = "HEOS (reference EOS)"
 #: The phase a line says it carries (Line.phase): at saturation it picks the side of the curve.
 PhaseHint = Literal["liquid", "gas"] | None
-_SPELLINGS_KEPT = 1024
 
 
 def _normalise(name: str) -> str:
@@ -97,7 +96,6 @@ class CoolPropBackend:
 
     def __init__(self, cache_size: int = 4096) -> None:
         self._names: dict[str, str] | None = None
-        self._known: dict[str, str | None] = {}  # fluid as written -> canonical name, None if not served
         self._states: dict[str, Any] = {}
         self._limits: dict[str, _Limits] = {}
         self._lock = threading.RLock()
@@ -186,15 +184,8 @@ class CoolPropBackend:
     # --- internals -----------------------------------------------------------------------------
 
     def _known_name(self, fluid: str) -> str | None:
-        """The canonical name of a pure fluid CoolProp knows, else None; read once per spelling (a line
-        list repeats a few; the bound only guards against an endless stream of new ones)."""
-        if fluid in self._known:
-            return self._known[fluid]
-        known = None if is_mixture(fluid) else self._name_map().get(_normalise(fluid))
-        if len(self._known) >= _SPELLINGS_KEPT:
-            self._known.clear()
-        self._known[fluid] = known
-        return known
+        """The canonical name of a pure fluid CoolProp knows, else None."""
+        return None if is_mixture(fluid) else self._name_map().get(_normalise(fluid))
 
     def _name_map(self) -> dict[str, str]:
         """Normalised name -> canonical name, built once from CoolProp's fluid list."""

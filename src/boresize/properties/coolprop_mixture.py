@@ -135,9 +135,8 @@ class CoolPropMixtureBackend:
         return self._cached("HEOS", self._heos_key(line.fluid, basis_of(line.extra)), float(pressure),
                             float(temperature))
 
-    @functools.lru_cache(maxsize=256)  # noqa: B019 - one backend per process; keys are small
     def _heos_key(self, fluid: str, basis: Basis | None) -> _HeosKey:
-        """("HEOS", CoolProp names, fractions, basis, note) of a composition, parsed and resolved once."""
+        """("HEOS", CoolProp names, fractions, basis, note) of a composition, parsed and resolved."""
         composition = parse_composition(fluid, basis=basis)
         names = tuple(self._pure.resolve(name) for name in composition.components)
         return ("HEOS", names, composition.fractions, composition.basis, composition.note)
