@@ -105,7 +105,8 @@ class SizingResult(LineResult):
     viscosity_mpa_s = _Float(lambda r: r.state.viscosity * 1e3 if r.state else None,
                              "dynamic viscosity at the inlet [mPa s]")
     utilisation = _Float(_sel(lambda c: c.worst.utilisation if c.worst else None),
-                         "the controlling criterion's value over its limit [-] (1 is the limit)")
+                         "the highest value over its limit of any criterion at the size [-] (1 is the limit; "
+                         "the controlling criterion is the one that fails on the next smaller size)")
 
     inside_diameter = _Quantity("inside_diameter_mm", "mm", "inside diameter (Quantity)")
     velocity = _Quantity("velocity_m_s", "m/s", "mean velocity (Quantity)")
