@@ -194,3 +194,20 @@ def test_a_line_list_on_standard_input_is_read_as_csv(capsys, monkeypatch):
     assert code == 0 and doc["lines_source"] == "<stdin>" and [line["tag"] for line in doc["lines"]] == ["W-1"]
     assert doc["lines"][0]["input"] == {"tag": "W-1", "fluid": "water", "flow": "20 t/h", "pressure": "3 barg",
                                         "temperature": "25 degC"}
+
+
+def test_one_saturated_line_by_quality_and_one_with_its_vapour_pressure(capsys):
+    import json
+
+    from CoolProp.CoolProp import PropsSI
+
+    code, out, _ = _run(capsys, "--fluid", "water", "--flow", "8 t/h", "--pressure", "10 bar", "--quality", "1",
+                        "--json")
+    entry = json.loads(out)["lines"][0]
+    # saturated steam at 10 bar abs (CoolProp, Q = 1), to the 6 significant figures of the record
+    assert code == 0 and entry["density_kg_m3"] == pytest.approx(PropsSI("D", "P", 1e6, "Q", 1, "Water"), rel=1e-5)
+    code, out, _ = _run(capsys, "--fluid", "fuel oil", "--density", "950 kg/m3", "--viscosity", "120 cP",
+                        "--flow", "10 t/h", "--pressure", "4 barg", "--temperature", "60 degC",
+                        "--vapour-pressure", "0.02 bar", "--json")
+    entry = json.loads(out)["lines"][0]
+    assert code == 0 and entry["vapour_pressure_bar_abs"] == pytest.approx(0.02)

@@ -18,6 +18,10 @@ SINGLE_LINE_FIELDS = (
     ("viscosity", "given viscosity: '1.2 cP'"), ("design-margin", "margin on flow: '10 %%'"),
     ("phase", "liquid or gas: what the line must carry"), ("backend", "property backend id"),
     ("schedule", "schedule of the NPS to check (default: the pipe class's)"),
+    ("quality", "vapour mass fraction of a saturated pure fluid: 1 saturated vapour, 0 saturated liquid "
+                "(temperature then blank or 'saturated')"),
+    ("vapour-pressure", "vapour pressure for a liquid whose backend gives none (given density and viscosity, "
+                        "brines): '0.05 bar'"),
 )
 
 
