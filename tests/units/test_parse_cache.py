@@ -38,6 +38,8 @@ SI = {"mass_flow": "kg/s", "volume_flow": "m**3/s", "standard": "m**3/s", "press
       "pressure_difference": "Pa", "temperature": "K", "temperature_difference": "K", "length": "m",
       "density": "kg/m**3", "viscosity": "Pa*s", "velocity": "m/s", "drop_per_length": "Pa/m",
       "dimensionless": "dimensionless"}
+POUND = 0.45359237  # kg, exact (NIST SP 811 B.9, pound avoirdupois)
+BARREL = 42 * 231 * 0.0254**3  # m3, exact (NIST SP 811 B.9, barrel for petroleum = 42 US gal of 231 in3)
 Reference = Callable[[float], float]
 
 
@@ -101,11 +103,24 @@ SPELLINGS: list[tuple[str, str, Reference]] = [
     ("kg/s", "mass_flow", plain("kilogram/second", "mass_flow")),
     *[(u, "mass_flow", plain("pound/hour", "mass_flow")) for u in ("lb/h", "lbs/h", "lbm/h")],
     *[(u, "mass_flow", plain("kilopound/hour", "mass_flow")) for u in ("klb/h", "klbs/h")],
+    # the trade's tonne (mt, MT), thousand (k, K, M) and million (MM) pounds: NIST SP 811 B.9, pound 0.45359237 kg
+    *[(u, "mass_flow", plain("metric_ton/hour", "mass_flow")) for u in ("mt/h", "MT/h", "mtph", "MTPH")],
+    *[(u, "mass_flow", plain("metric_ton/day", "mass_flow")) for u in ("mtpd", "MTPD")],
+    *[(u, "mass_flow", lambda x: x * POUND / HOUR) for u in ("LB/h", "LBS/h", "LBM/h")],
+    *[(f"{p}{u}/h", "mass_flow", lambda x, f=f: x * f * POUND / HOUR)
+      for p, f in (("k", 1e3), ("K", 1e3), ("M", 1e3), ("MM", 1e6)) for u in ("lb", "lbs", "lbm", "LB", "LBS", "LBM")],
     # actual volume flows
     *[(u, "volume_flow", plain("meter**3/hour", "volume_flow")) for u in ("m3/h", "m³/h", "M3/h", "m3/hr")],
     *[(u, "volume_flow", plain("gallon/minute", "volume_flow")) for u in ("gpm", "GPM", "USgpm", "USGPM", "usgpm")],
     *[(u, "volume_flow", plain("liter/minute", "volume_flow")) for u in ("lpm", "LPM", "l/min", "L/min")],
     *[(u, "volume_flow", plain("oil_barrel/day", "volume_flow")) for u in ("bbl/d", "BBL/d", "bpd", "BPD")],
+    # the oil barrel, 42 US gal of 231 in3 (NIST SP 811 B.9), with the trade's thousand and million
+    *[(u, "volume_flow", lambda x: x * BARREL / DAY) for u in ("bbls/d", "BBLS/d", "Bbl/d", "barrel/d", "barrels/d",
+                                                              "Barrel/d", "Barrels/d", "bopd", "BOPD")],
+    *[(f"{p}{u}/d", "volume_flow", lambda x, f=f: x * f * BARREL / DAY)
+      for p, f in (("k", 1e3), ("K", 1e3), ("M", 1e3), ("MM", 1e6)) for u in ("bbl", "bbls", "BBL", "BBLS", "Bbl")],
+    *[(u, "volume_flow", lambda x: x * 1e3 * BARREL / DAY) for u in ("kbpd", "KBPD", "Mbpd", "MBPD")],
+    *[(u, "volume_flow", lambda x: x * 1e6 * BARREL / DAY) for u in ("MMbpd", "MMBPD")],
     ("ft3/s", "volume_flow", plain("foot**3/second", "volume_flow")),
     ("cm3/s", "volume_flow", plain("centimeter**3/second", "volume_flow")),
     # standard gas volume flows (m3 at the unit's reference state, per second)

@@ -239,6 +239,114 @@ def test_scfm() -> None:
     assert flow.reference_t == pytest.approx(288.7056, rel=1e-6)
 
 
+# --- the trade's spellings: tonne, thousand and million, the oil barrel -------------------------------
+# References from exact definitions (NIST SP 811, 2008, App. B.9): 1 lb = 0.45359237 kg, 1 in = 0.0254 m,
+# 1 US gal = 231 in3, the barrel (petroleum) = 42 US gal, 1 t (ton, metric) = 1000 kg, 1 h = 3600 s,
+# 1 d = 86400 s. The trade's M is a thousand and MM a million (as in Mscf, MMSCFD: common practice).
+EXACT_POUND = 0.45359237  # kg, exact (NIST SP 811 B.9, pound avoirdupois)
+EXACT_GALLON = 231 * 0.0254**3  # m3, exact (NIST SP 811 B.9, gallon [U.S.] = 231 in3)
+OIL_BARREL = 42 * EXACT_GALLON  # m3, exact (NIST SP 811 B.9, barrel [for petroleum, 42 gallons (U.S.)])
+
+
+def test_oil_barrel_is_exactly_42_us_gallons() -> None:
+    assert OIL_BARREL == pytest.approx(0.158987294928, rel=1e-15)  # NIST SP 811 B.9: 1.589 873 E-01 m3
+    assert parse_flow("86400 bbl/d").value == pytest.approx(OIL_BARREL, rel=1e-12)
+
+
+@pytest.mark.parametrize(
+    ("text", "basis", "expected"),
+    [
+        ("20 mt/h", "mass", 20 * 1000 / 3600),  # mt = the metric tonne, not the millitonne
+        ("20 MT/h", "mass", 20 * 1000 / 3600),
+        ("20 mt/d", "mass", 20 * 1000 / 86400),
+        ("20 MTPD", "mass", 20 * 1000 / 86400),
+        ("20 mtpd", "mass", 20 * 1000 / 86400),
+        ("20 MTPH", "mass", 20 * 1000 / 3600),
+        ("20 mtph", "mass", 20 * 1000 / 3600),
+        ("1 Mlb/h", "mass", 1e3 * EXACT_POUND / 3600),  # the trade's thousand pounds, not pint's mega
+        ("1 MLB/h", "mass", 1e3 * EXACT_POUND / 3600),
+        ("1 Mlbs/h", "mass", 1e3 * EXACT_POUND / 3600),
+        ("1 klb/h", "mass", 1e3 * EXACT_POUND / 3600),
+        ("1 KLB/h", "mass", 1e3 * EXACT_POUND / 3600),
+        ("1 MMlb/h", "mass", 1e6 * EXACT_POUND / 3600),
+        ("1 MMLB/h", "mass", 1e6 * EXACT_POUND / 3600),
+        ("1 LB/h", "mass", EXACT_POUND / 3600),
+        ("1 bbl/d", "volume", OIL_BARREL / 86400),
+        ("1 BBL/d", "volume", OIL_BARREL / 86400),
+        ("1 bbls/d", "volume", OIL_BARREL / 86400),
+        ("1 barrel/d", "volume", OIL_BARREL / 86400),  # pint's own barrel is 31.5 gal
+        ("1 barrels/d", "volume", OIL_BARREL / 86400),
+        ("30 kbbl/d", "volume", 30e3 * OIL_BARREL / 86400),
+        ("30 Mbbl/d", "volume", 30e3 * OIL_BARREL / 86400),
+        ("30 MBBL/d", "volume", 30e3 * OIL_BARREL / 86400),
+        ("2 MMbbl/d", "volume", 2e6 * OIL_BARREL / 86400),
+        ("1 bpd", "volume", OIL_BARREL / 86400),
+        ("1 BOPD", "volume", OIL_BARREL / 86400),
+        ("30 kbpd", "volume", 30e3 * OIL_BARREL / 86400),
+        ("30 MBPD", "volume", 30e3 * OIL_BARREL / 86400),
+        ("2 MMbpd", "volume", 2e6 * OIL_BARREL / 86400),
+    ],
+)
+def test_trade_spellings_against_exact_definitions(text: str, basis: str, expected: float) -> None:
+    flow = parse_flow(text)
+    assert flow.basis == basis
+    assert flow.value == pytest.approx(expected, rel=1e-12)
+
+
+@pytest.mark.parametrize(("thousands", "units"), [("30 kbbl/d", "30000 bbl/d"), ("30 Mbbl/d", "30000 bbl/d"),
+                                                  ("5 Mlb/h", "5000 lb/h"), ("5 MMlb/h", "5000000 lb/h"),
+                                                  ("20 mt/h", "20 t/h"), ("30 kbpd", "30000 bpd")])
+def test_a_prefix_is_the_number_in_full(thousands: str, units: str) -> None:
+    assert parse_flow(thousands).value == pytest.approx(parse_flow(units).value, rel=1e-15)
+
+
+TONNE_HINT = ("t, mt or MT for the metric tonne, with the number in full; 'Mt' is the megatonne (1e9 kg) in SI "
+              "and a thousand tonnes (1e6 kg) by the trade's M")
+M_HINT = ("the unit with its prefix (Mlb/h, Mbbl/d, Mscf/d: the trade's M is a thousand) or m for the metre; "
+          "'M' alone is the molar (mol/L) in SI")
+MM_HINT = ("the unit with its prefix (MMlb/h, MMbbl/d, MMscfd: the trade's MM is a million) or mm for the "
+           "millimetre")
+
+
+@pytest.mark.parametrize(("value", "word", "hint"), [
+    ("1 Mt/h", "Mt", TONNE_HINT),
+    ("5 M/h", "M", M_HINT),
+    ("5 M lb/h", "M", M_HINT),
+    ("5 MM lb/h", "MM", MM_HINT),
+    ("5 mlb/h", "mlb", "Mlb or klb for a thousand pounds (the trade's M); 'mlb' is milli (0.001) in SI"),
+    ("5 mlbs/h", "mlbs", "Mlb or klb for a thousand pounds (the trade's M); 'mlbs' is milli (0.001) in SI"),
+    ("5 mmlb/h", "mmlb", "MMlb for a million pounds (the trade's MM); 'mmlb' is no unit in SI, where a small m "
+                         "is milli"),
+    ("5 mbbl/d", "mbbl", "Mbbl or kbbl for a thousand barrels (the trade's M); 'mbbl' is milli (0.001) in SI"),
+    ("5 mmbbl/d", "mmbbl", "MMbbl for a million barrels (the trade's MM); 'mmbbl' is no unit in SI, where a "
+                           "small m is milli"),
+    ("5 mbpd", "mbpd", "Mbpd or kbpd for a thousand barrels a day (the trade's M); 'mbpd' is milli (0.001) in SI"),
+])
+def test_trade_prefixes_that_read_two_ways_are_refused(value: str, word: str, hint: str) -> None:
+    with pytest.raises(UnitError, match=msg(f"flow: unit '{word}' in '{value}' is ambiguous; expected {hint}")):
+        parse_flow(value)
+
+
+def test_m_alone_is_refused_in_any_field() -> None:
+    with pytest.raises(UnitError, match=msg(f"length: unit 'M' in '100 M' is ambiguous; expected {M_HINT}")):
+        parse_quantity("100 M", "length", "length")
+
+
+@pytest.mark.parametrize("word", ["Gbbl", "cbarrel", "ubbls"])
+def test_a_barrel_with_another_prefix_is_unknown(word: str) -> None:
+    # pint would read these as its own 31.5 gal barrel
+    with pytest.raises(UnitError, match=msg(
+            f"flow: unknown unit '{word}' in '1 {word}/d'; expected {FLOW_HELP}; the oil barrel (42 US gal) is "
+            "bbl, with k or M for a thousand (kbbl, Mbbl) and MM for a million (MMbbl)")):
+        parse_flow(f"1 {word}/d")
+
+
+def test_lowercase_mscf_stays_the_trade_thousand() -> None:
+    # decided: mscf and mmscf are the gas trade's thousand and million, as boresize has always read them
+    assert parse_flow("1 mscf/d").value == parse_flow("1 Mscf/d").value == parse_flow("1000 scf/d").value
+    assert parse_flow("1 mmscf/d").value == parse_flow("1 MMscf/d").value == parse_flow("1e6 scf/d").value
+
+
 @pytest.mark.parametrize(
     ("text", "temperature", "pressure", "value"),
     [

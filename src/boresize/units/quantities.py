@@ -19,10 +19,15 @@ Rules the parser applies (pint alone gets each of them wrong or refuses them):
   converts Nm3 to Sm3 without the temperature ratio: ``Sm3`` (15 degC, 101.325 kPa, ISO 13443),
   ``Nm3`` (0 degC, 101.325 kPa, DIN 1343), ``scf`` (60 degF, 14.696 psia, the oil and gas
   convention; some US contracts use 14.73 psia: give Sm3 or a mass flow when that matters).
-* Trade spellings: m3, m³, t/h, te/h, mPa.s, mPa·s, cP, gpm (US gallons), bbl (oil barrel,
-  42 US gal), MMSCFD (1e6 scf/d), Mscf (1000 scf, not pint's mega). Spellings that mean two
-  things are refused with a hint: "Mpa"/"mpa"/"MPA" (MPa or mPa?), "ton" (short ton or tonne?),
-  "nm3" (nanometre³ or Nm3?).
+* Trade spellings: m3, m³, t/h, te/h, mt/h and MT/h (the metric tonne, not pint's millitonne),
+  MTPD, mPa.s, mPa·s, cP, gpm (US gallons), bbl and barrel (the oil barrel, 42 US gal, not pint's
+  31.5 gal), bpd. The trade's M is a thousand and MM a million, not pint's mega: Mscf (1000 scf),
+  MMSCFD (1e6 scf/d), Mlb/h and klb/h (1000 lb/h), MMlb/h, Mbbl/d and kbbl/d (1000 bbl/d), MMbbl/d,
+  kbpd, MBPD; the lowercase mscf and mmscf read as Mscf and MMscf. Spellings that mean two things
+  are refused naming both readings: "Mpa"/"mpa"/"MPA" (MPa or mPa?), "ton" (short ton or tonne?),
+  "nm3" (nanometre³ or Nm3?), "Mt" (megatonne or a thousand tonnes?), "M" and "MM" alone (a
+  thousand or the molar; a million or millimetres?), "mlb", "mbbl", "mbpd" and their "mm" forms
+  (SI's milli or the trade's thousand?); a barrel with any other prefix ("Gbbl") is unknown.
 * Decimal commas and thousands separators are refused ("1,5" and "1,500" mean different things
   in different countries).
 

@@ -1,8 +1,8 @@
 """The text side of unit parsing: what an engineer typed, split and respelled for pint.
 
 Splits a cell such as "65 t/h" into its number and its unit text (refusing separators, NaN and
-infinity), and turns trade spellings (m³, t/h, mPa.s, barg, kPa(g), MMSCFD ...) into expressions
-pint reads correctly, refusing the ambiguous ones (Mpa, ton, nm3). Also holds the extra unit
+infinity), and turns trade spellings (m³, t/h, mt/h, mPa.s, barg, kPa(g), MMSCFD, Mlb/h, kbbl/d ...) into
+expressions pint reads correctly, refusing the ambiguous ones (Mpa, ton, nm3, Mt, M, mbbl). Also holds the extra unit
 definitions of the registry and the help text of every quantity kind. No pint here: the rules are
 listed, and the registry and the quantities are built, in :mod:`boresize.units`, the public face.
 """
@@ -90,6 +90,24 @@ _AMBIGUOUS = {
     "nm3": "Nm3 for normal cubic metres ('nm3' reads as cubic nanometres)",
 }
 _AMBIGUOUS.update({"mpa": _AMBIGUOUS["Mpa"], "MPA": _AMBIGUOUS["Mpa"], "tons": _AMBIGUOUS["ton"]})
+# The trade's M is a thousand and MM a million (Mscf, Mlb, MMbbl), where SI's M is mega and its m milli: a
+# spelling that reads one way in the trade and another in SI is refused, naming both readings. The lowercase
+# mscf and mmscf stay the trade's thousand and million (scf takes no SI prefix in the trade's use, and boresize
+# has always read them so); on lb and bbl a small m is SI's milli to pint and is refused.
+_AMBIGUOUS.update({
+    "Mt": "t, mt or MT for the metric tonne, with the number in full; 'Mt' is the megatonne (1e9 kg) in SI and "
+          "a thousand tonnes (1e6 kg) by the trade's M",
+    "M": "the unit with its prefix (Mlb/h, Mbbl/d, Mscf/d: the trade's M is a thousand) or m for the metre; "
+         "'M' alone is the molar (mol/L) in SI",
+    "MM": "the unit with its prefix (MMlb/h, MMbbl/d, MMscfd: the trade's MM is a million) or mm for the "
+          "millimetre",
+})
+for _small, _big, _noun in (("lb", "lb", "pounds"), ("lbs", "lb", "pounds"), ("bbl", "bbl", "barrels"),
+                            ("bbls", "bbl", "barrels"), ("bpd", "bpd", "barrels a day")):
+    _AMBIGUOUS["m" + _small] = (f"M{_big} or k{_big} for a thousand {_noun} (the trade's M); 'm{_small}' is "
+                                f"milli (0.001) in SI")
+    _AMBIGUOUS["mm" + _small] = (f"MM{_big} for a million {_noun} (the trade's MM); 'mm{_small}' is no unit in "
+                                 f"SI, where a small m is milli")
 
 _ALIASES: dict[str, str] = {
     "SM3": "Sm3", "sm3": "Sm3", "NM3": "Nm3", "SCF": "scf",
@@ -98,17 +116,31 @@ _ALIASES: dict[str, str] = {
     "Mscfd": "(1000*scf/day)", "mscfd": "(1000*scf/day)", "MMSCFD": "(1e6*scf/day)",
     "MMscfd": "(1e6*scf/day)", "mmscfd": "(1e6*scf/day)", "MMSCMD": "(1e6*Sm3/day)",
     "MMscmd": "(1e6*Sm3/day)", "mmscmd": "(1e6*Sm3/day)",
-    "te": "t", "tonne": "t", "tonnes": "t", "lbs": "lb", "lbm": "lb", "klbs": "klb",
+    "te": "t", "tonne": "t", "tonnes": "t",
     "hr": "hour", "hrs": "hour", "Hr": "hour", "HR": "hour", "KG": "kg", "Kg": "kg", "M3": "m**3",
     "gpm": "(gallon/minute)", "USgpm": "(gallon/minute)", "usgpm": "(gallon/minute)", "lpm": "(L/minute)",
-    "bbl": "oil_barrel", "bpd": "(oil_barrel/day)", "BPD": "(oil_barrel/day)",
+    "bpd": "(oil_barrel/day)", "BPD": "(oil_barrel/day)", "bopd": "(oil_barrel/day)", "BOPD": "(oil_barrel/day)",
+    "kbpd": "(1000*oil_barrel/day)", "KBPD": "(1000*oil_barrel/day)", "Mbpd": "(1000*oil_barrel/day)",
+    "MBPD": "(1000*oil_barrel/day)", "MMbpd": "(1e6*oil_barrel/day)", "MMBPD": "(1e6*oil_barrel/day)",
+    "mt": "t", "MT": "t", "mtpd": "(t/day)", "MTPD": "(t/day)", "mtph": "(t/hour)", "MTPH": "(t/hour)",
     "cp": "centipoise", "cP": "centipoise", "CP": "centipoise", "cps": "centipoise",
     "mPas": "(mPa*s)", "Pas": "(Pa*s)", "pct": "percent", "%": "percent",
     "kpa": "kPa", "KPa": "kPa", "KPA": "kPa", "Kpa": "kPa", "Bar": "bar", "BAR": "bar",
     "PSI": "psi", "Psi": "psi",
 }
-for _word in ("SCFD", "SCFH", "SCFM", "MSCF", "MMSCF", "MSCFD", "BBL", "GPM", "USGPM", "LPM"):
+for _word in ("SCFD", "SCFH", "SCFM", "MSCF", "MMSCF", "MSCFD", "GPM", "USGPM", "LPM"):
     _ALIASES[_word] = _ALIASES[_word.lower()]
+# Pounds and oil barrels (42 US gal; pint's own "barrel" and "bbl" are 31.5 gal), bare or with the trade's
+# k or M (a thousand) or MM (a million)
+_TRADE_STEMS = {**dict.fromkeys(("lb", "lbs", "lbm", "LB", "LBS", "LBM"), "lb"),
+                **dict.fromkeys(("bbl", "bbls", "BBL", "BBLS", "Bbl", "barrel", "barrels", "Barrel", "Barrels"),
+                                "oil_barrel")}
+for _stem, _unit in _TRADE_STEMS.items():
+    _ALIASES[_stem] = _unit
+    if not _stem.lower().startswith("barrel"):
+        for _prefix, _factor in (("k", "1000"), ("K", "1000"), ("M", "1000"), ("MM", "1e6")):
+            _ALIASES[_prefix + _stem] = f"({_factor}*{_unit})"
+_BARREL = re.compile(r"[A-Za-z]*(?:bbl|BBL|barrel|Barrel)[sS]?")  # any other prefix on a barrel: pint's 31.5 gal
 for _spelling, _stem in [("bar", "bar"), ("Bar", "bar"), ("BAR", "bar"), ("kPa", "kPa"), ("kpa", "kPa"),
                          ("KPa", "kPa"), ("KPA", "kPa"), ("MPa", "MPa"), ("psi", "psi"), ("PSI", "psi"),
                          ("Psi", "psi")]:
@@ -165,6 +197,9 @@ def _token(word: str, cell: _Cell) -> str:
         raise cell.error(f"unit '{word}' in '{cell.shown}' is ambiguous", _AMBIGUOUS[word])
     if word in _ALIASES:
         return _ALIASES[word]
+    if _BARREL.fullmatch(word):
+        raise cell.error(f"unknown unit '{word}' in '{cell.shown}'", f"{_help(cell.kind)}; the oil barrel (42 US "
+                         "gal) is bbl, with k or M for a thousand (kbbl, Mbbl) and MM for a million (MMbbl)")
     power = _POWER.fullmatch(word)
     return f"{power.group(1)}**{power.group(2)}" if power else word
 
