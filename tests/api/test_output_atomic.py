@@ -104,3 +104,62 @@ def test_a_symbolic_link_stays_a_link_to_the_file_written(reference: Run, tmp_pa
     link.symlink_to(real)
     reference.write(link)
     assert link.is_symlink() and real.stat().st_size > 100
+
+
+def test_a_folder_that_cannot_be_written_is_named_before_writing(reference: Run, tmp_path: Path,
+                                                                 monkeypatch: pytest.MonkeyPatch) -> None:
+    # the tests may run as root, for whom every folder is writable: the check's own answer is replaced
+    monkeypatch.setattr(output.os, "access", lambda path, mode: Path(path) != tmp_path)
+    with pytest.raises(InputError, match=r"^output: cannot write '.*out\.csv': folder '.*' is not writable; "
+                                         r"expected a file in a folder this user may write$"):
+        output.check_output(tmp_path / "out.csv")
+    assert _leftovers(tmp_path) == [] and not (tmp_path / "out.csv").exists()
+
+
+def test_a_read_only_file_is_named_and_not_replaced(reference: Run, tmp_path: Path,
+                                                    monkeypatch: pytest.MonkeyPatch) -> None:
+    target = tmp_path / "out.json"
+    target.write_text("{}\n", encoding="utf-8")
+    monkeypatch.setattr(output.os, "access", lambda path, mode: Path(path) != target)
+    with pytest.raises(InputError, match=r"^output: cannot write '.*out\.json': the file is read-only; expected a "
+                                         r"file this user may write$"):
+        reference.write(target)
+    assert target.read_text(encoding="utf-8") == "{}\n"
+
+
+def test_every_unusable_output_is_named_before_any_sizing(tmp_path: Path,
+                                                          capsys: pytest.CaptureFixture[str]) -> None:
+    from boresize.cli.main import main
+
+    missing, unknown, good = tmp_path / "no" / "out.csv", tmp_path / "out.ods", tmp_path / "out.json"
+    code = main(["size", str(LINES), "--criteria", str(CRITERIA), "--no-plugins",
+                 "-o", str(missing), "-o", str(good), "-o", str(unknown)])
+    captured = capsys.readouterr()
+    assert code == 2 and captured.out == ""  # nothing sized: no table
+    assert captured.err == (f"boresize: error: output: folder {str(missing.parent)!r} does not exist; expected a "
+                            f"file in an existing folder\n"
+                            f"boresize: error: output: cannot tell what to write to {str(unknown)!r} from its "
+                            f"extension; expected a file ending in .json, .csv, .xlsx, .html\n")
+    assert not good.exists()
+
+
+def test_one_output_failing_does_not_stop_the_others(tmp_path: Path, capsys: pytest.CaptureFixture[str],
+                                                     monkeypatch: pytest.MonkeyPatch) -> None:
+    from boresize.cli.main import main
+
+    def full_disk(path: Path, run: Run) -> None:
+        raise OSError(errno.ENOSPC, "No space left on device")
+
+    monkeypatch.setitem(output.WRITERS, ".xlsx", full_disk)
+    book, table, document = tmp_path / "out.xlsx", tmp_path / "out.csv", tmp_path / "out.json"
+    book.write_bytes(b"earlier")
+    code = main(["size", str(LINES), "--criteria", str(CRITERIA), "--no-plugins",
+                 "-o", str(table), "-o", str(book), "-o", str(document)])
+    captured = capsys.readouterr()
+    assert code == 2 and "140-P-001" in captured.out  # the table is still printed
+    assert captured.err == (f"boresize: wrote {table}\n"
+                            f"boresize: error: output: cannot write {str(book)!r}: No space left on device; "
+                            f"expected a file this user may write\n"
+                            f"boresize: wrote {document}\n")
+    assert book.read_bytes() == b"earlier" and table.stat().st_size > 100 and document.stat().st_size > 100
+    assert _leftovers(tmp_path) == []

@@ -75,6 +75,12 @@ def check_output(path: str | Path, inputs: Iterable[str | Path] = ()) -> Path:
     if not target.parent.is_dir():
         raise InputError(f"folder {str(target.parent)!r} does not exist", field="output", value=str(path),
                          expected="a file in an existing folder")
+    if not os.access(target.parent, os.W_OK | os.X_OK):
+        raise InputError(f"cannot write {str(path)!r}: folder {str(target.parent)!r} is not writable",
+                         field="output", value=str(path), expected="a file in a folder this user may write")
+    if target.exists() and not os.access(target, os.W_OK):
+        raise InputError(f"cannot write {str(path)!r}: the file is read-only", field="output", value=str(path),
+                         expected="a file this user may write")
     return target
 
 
