@@ -9,7 +9,11 @@ from __future__ import annotations
 
 import errno
 import os
+import signal
 import stat
+import subprocess
+import sys
+import time
 from pathlib import Path
 
 import pytest
@@ -19,6 +23,7 @@ from boresize.api import Run, output, run_lines
 
 DEMO = Path(__file__).resolve().parents[2] / "examples" / "demo-unit"
 LINES, CRITERIA = DEMO / "lines.csv", DEMO / "criteria.toml"
+SRC = Path(__file__).resolve().parents[2] / "src"
 
 
 @pytest.fixture(scope="module")
@@ -163,3 +168,43 @@ def test_one_output_failing_does_not_stop_the_others(tmp_path: Path, capsys: pyt
                             f"boresize: wrote {document}\n")
     assert book.read_bytes() == b"earlier" and table.stat().st_size > 100 and document.stat().st_size > 100
     assert _leftovers(tmp_path) == []
+
+
+def _big_line_list(path: Path, count: int) -> Path:
+    """``count`` water lines, flows, pressures, temperatures and lengths varied so that no two are alike."""
+    rows = ["tag,fluid,flow,pressure,temperature,length [m]"]
+    rows += [f"BIG-{i:05d},water,{10 + i % 90} t/h,{2 + i % 8} barg,{20 + i % 50} degC,{50 + i % 200}"
+             for i in range(count)]
+    path.write_text("\n".join(rows) + "\n", encoding="utf-8")
+    return path
+
+
+@pytest.mark.parametrize("suffix", [".csv", ".xlsx"])
+def test_a_run_killed_while_writing_leaves_the_earlier_file_intact(reference: Run, tmp_path: Path,
+                                                                  suffix: str) -> None:
+    """SIGKILL once the temporary file appears: the target is the earlier file byte for byte. A killed
+    process cannot remove its temporary file, so at most that one ``.boresize-tmp`` file remains."""
+    target = reference.write(tmp_path / f"same{suffix}")
+    earlier = target.read_bytes()
+    big = _big_line_list(tmp_path / "big.csv", 3000)  # writing 3,000 rows takes a few tenths of a second or more
+    env = {**os.environ, "PYTHONPATH": os.pathsep.join(filter(None, [str(SRC), os.environ.get("PYTHONPATH")]))}
+    process = subprocess.Popen([sys.executable, "-m", "boresize", "size", str(big), "--no-plugins",
+                                "-o", str(target)], stdout=subprocess.DEVNULL, stderr=subprocess.PIPE, env=env)
+    deadline = time.monotonic() + 60
+    caught = False
+    try:
+        while time.monotonic() < deadline and process.poll() is None:
+            if _leftovers(tmp_path):
+                os.kill(process.pid, signal.SIGKILL)
+                caught = True
+                break
+            time.sleep(0.001)
+    finally:
+        if process.poll() is None and not caught:
+            process.kill()
+        _, err = process.communicate(timeout=60)
+    assert caught, f"the run ended before its temporary file was seen: {err.decode()!r}"
+    assert process.returncode == -signal.SIGKILL
+    assert target.read_bytes() == earlier
+    left = _leftovers(tmp_path)
+    assert len(left) == 1 and left[0].startswith(f".same{suffix}.boresize-tmp-") and left[0].endswith(suffix)
