@@ -2,11 +2,20 @@
 
 The table :data:`WRITERS` maps an extension to a function ``(path, run)``; every writer takes the run
 (its results, the line list as read, its traceability record). A new output format is one entry here.
+
+A file is written whole or not at all: the writer writes a temporary file beside the target
+(``.NAME.boresize-tmp-XXXX.EXT``, same folder so the rename stays on one file system), which replaces the
+target (:func:`os.replace`) only once complete. On any failure the temporary file is removed and an earlier
+file of that name is left as it was. A process killed outright (SIGKILL, power loss) cannot remove its
+temporary file: the target is still intact, and a ``.boresize-tmp`` file may remain to be deleted.
 """
 
 from __future__ import annotations
 
 import json
+import os
+import stat
+import tempfile
 from collections.abc import Iterable, Callable
 from pathlib import Path
 from typing import TYPE_CHECKING
@@ -66,17 +75,56 @@ def check_output(path: str | Path, inputs: Iterable[str | Path] = ()) -> Path:
     if not target.parent.is_dir():
         raise InputError(f"folder {str(target.parent)!r} does not exist", field="output", value=str(path),
                          expected="a file in an existing folder")
+    if not os.access(target.parent, os.W_OK | os.X_OK):
+        raise InputError(f"cannot write {str(path)!r}: folder {str(target.parent)!r} is not writable",
+                         field="output", value=str(path), expected="a file in a folder this user may write")
+    if target.exists() and not os.access(target, os.W_OK):
+        raise InputError(f"cannot write {str(path)!r}: the file is read-only", field="output", value=str(path),
+                         expected="a file this user may write")
     return target
+
+
+def _mode(target: Path) -> int:
+    """The permissions the written file gets: those of the file it replaces, else what the umask allows."""
+    try:
+        return stat.S_IMODE(target.stat().st_mode)
+    except FileNotFoundError:
+        umask = os.umask(0)
+        os.umask(umask)
+        return 0o666 & ~umask
+
+
+def _write_atomic(target: Path, write: Callable[[Path], None]) -> None:
+    """Run ``write`` on a temporary file beside ``target``, then rename it over ``target``; on any failure
+    (an exception, Ctrl-C) remove the temporary file and leave ``target`` as it was."""
+    target = Path(os.path.realpath(target))  # a symbolic link stays a link: the file it names is replaced
+    handle, name = tempfile.mkstemp(prefix=f".{target.name}.boresize-tmp-", suffix=target.suffix,
+                                    dir=target.parent)
+    os.close(handle)
+    temporary = Path(name)
+    done = False
+    try:
+        write(temporary)
+        os.chmod(temporary, _mode(target))
+        os.replace(temporary, target)
+        done = True
+    finally:
+        if not done:
+            temporary.unlink(missing_ok=True)
 
 
 def write_run(path: str | Path, run: Run) -> Path:
     """Write ``run`` to ``path`` in the kind its extension names; returns the path written.
 
+    The file is written to a temporary name in the same folder and renamed over ``path`` once complete, so
+    an earlier file of that name is either replaced whole or left intact.
+
     :raises InputError: (field "output") an unknown extension, a missing folder, a file that cannot be written
     """
     target = check_output(path, [run.line_list.source])
+    writer = WRITERS[target.suffix.lower()]
     try:
-        WRITERS[target.suffix.lower()](target, run)
+        _write_atomic(target, lambda temporary: writer(temporary, run))
     except OSError as exc:
         raise InputError(f"cannot write {str(path)!r}: {exc.strerror or exc}", field="output", value=str(path),
                          expected="a file this user may write") from exc

@@ -88,7 +88,11 @@ class Run:
     def write(self, path: str | Path) -> Path:
         """Write the run to ``path``: .json, .csv, .xlsx or .html by its extension; returns the path.
 
-        :raises InputError: (field "output") an extension boresize does not write, or a missing folder
+        Written to a temporary file beside ``path`` and renamed over it when complete: an earlier file of that
+        name is replaced whole or left intact.
+
+        :raises InputError: (field "output") an extension boresize does not write, a missing or unwritable
+            folder, a read-only file, a file that cannot be written (the earlier one is then left as it was)
         """
         from boresize.api.output import write_run
 

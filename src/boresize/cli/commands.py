@@ -9,7 +9,7 @@ from pathlib import Path
 from boresize import api
 from boresize.api import tools
 from boresize.cli.fields import SINGLE_LINE_FIELDS, print_json
-from boresize.errors import UsageError
+from boresize.errors import InputError, UsageError
 
 __all__ = ["UsageError", "run_size", "run_criteria", "run_pipes", "run_diff"]
 
@@ -47,22 +47,52 @@ def _workers(args: argparse.Namespace) -> int:
     return int(args.workers)
 
 
+def _check_outputs(paths: list[str], lines: str | api.LineList) -> list[Path] | None:
+    """Every ``-o`` checked before any sizing; each unusable one reported with its path. None if any is."""
+    outputs: list[Path] = []
+    usable = True
+    for path in paths:
+        try:
+            outputs.append(api.check_output(path, [lines] if isinstance(lines, str) else []))
+        except InputError as exc:
+            print(f"boresize: error: {exc}", file=sys.stderr)
+            usable = False
+    return outputs if usable else None
+
+
+def _write_outputs(run: api.Run, outputs: list[Path]) -> bool:
+    """Write every output it can: one that fails is reported with its path and the others still written."""
+    written = True
+    for path in outputs:
+        try:
+            run.write(path)
+        except InputError as exc:
+            print(f"boresize: error: {exc}", file=sys.stderr)
+            written = False
+        else:
+            print(f"boresize: wrote {path}", file=sys.stderr)
+    return written
+
+
 def run_size(args: argparse.Namespace) -> int:
+    """Size the lines; exit 0 all pass, 1 some fail or error, 2 a usage error or any output not written."""
     lines = _lines(args)
-    outputs = [api.check_output(path, [lines] if isinstance(lines, str) else []) for path in args.output]
+    outputs = _check_outputs(args.output, lines)
+    if outputs is None:
+        return 2
     roughness = api.roughness_value(args.corroded_roughness, "corroded-roughness") if args.corroded_roughness \
         else None
     run = api.run_lines(lines, args.criteria, workers=_workers(args), every_size=args.every_size,
                         corroded_roughness=roughness, plugins=not args.no_plugins, progress=args.progress,
                         headroom=args.headroom)
-    for path in outputs:
-        run.write(path)
-        print(f"boresize: wrote {path}", file=sys.stderr)
+    written = _write_outputs(run, outputs)
     if args.json:
         print_json(run.document())
         print(f"boresize: {run.summary()}", file=sys.stderr)
     else:
         sys.stdout.write(run.table())
+    if not written:
+        return 2
     return 0 if run.passed else 1
 
 
