@@ -12,6 +12,7 @@ from bisect import bisect_left
 from collections.abc import Mapping, Sequence
 from dataclasses import replace
 from pathlib import Path
+from types import MappingProxyType
 from typing import Any, NamedTuple
 
 from boresize.sizing import cases as _cases
@@ -291,9 +292,10 @@ def _beyond_range(mass_flow: float, where: str) -> InputError:
 
 
 def _applicable(service: Service, phase: str) -> Judges:
-    """The service's (criterion, options) pairs that judge a fluid in ``phase``."""
+    """The service's (criterion, options) pairs that judge a fluid in ``phase``; each line's options are a read-only
+    copy (a plugin that wrote to its options would change every later line judged with them)."""
     group = phase_group(phase)
-    return tuple((c, o) for c, o in service.criteria if phase in c.phases or group in c.phases)
+    return tuple((c, MappingProxyType(dict(o))) for c, o in service.criteria if phase in c.phases or group in c.phases)
 
 
 def _first_guess(p: _Prepared) -> float | None:
