@@ -69,3 +69,52 @@ def test_options_are_read_only_and_a_write_changes_no_later_line(tmp_path: Path)
     assert before.status == after.status == "pass"
     assert after.selected is not None and before.selected is not None
     assert after.selected.candidate.nps == before.selected.candidate.nps
+
+
+class _Returns(Criterion):
+    """Returns the verdict it was built with (fields over a sound pass at 1 m/s against 3 m/s)."""
+
+    title = "returns a given verdict"
+    source = "test"
+    phases = frozenset({"liquid"})
+
+    def __init__(self, ident: str, **fields: Any) -> None:
+        self.id = ident
+        self.fields = {"criterion": ident, "status": "pass", "reasons": ("given",), "source": "test", "value": 1.0,
+                       "limit": 3.0, "unit": "m/s", "utilisation": 1.0 / 3.0, **fields}
+
+    def evaluate(self, context: Any) -> Verdict:
+        return Verdict(**self.fields)
+
+
+BAD_VERDICTS = [
+    ("claims-velocity", {"criterion": "velocity"},
+     "returned a verdict for criterion 'velocity', not its own id 'claims-velocity'"),
+    ("status-ok", {"status": "ok"}, "returned status 'ok', not one of pass, fail, warn, not-applicable, error"),
+    ("nan-value", {"value": float("nan")}, "returned value nan, not a number"),
+    ("inf-value", {"value": float("inf")},
+     "returned value inf, not a finite number (only a fail's utilisation may be infinite)"),
+    ("minus-inf-limit", {"limit": float("-inf")},
+     "returned limit -inf, not a finite number (only a fail's utilisation may be infinite)"),
+    ("inf-pass", {"utilisation": float("inf")},
+     "returned utilisation inf, not a finite number (only a fail's utilisation may be infinite)"),
+    ("minus-inf-fail", {"status": "fail", "utilisation": float("-inf")},
+     "returned utilisation -inf, not a finite number (only a fail's utilisation may be infinite)"),
+]
+
+
+def test_each_bad_verdict_is_an_error_naming_the_plugin_and_the_other_lines_are_sized(tmp_path: Path) -> None:
+    criteria = [_Returns(ident, **fields) for ident, fields, _ in BAD_VERDICTS]
+    rows = [_row(f"L-{ident}", ident) for ident, _, _ in BAD_VERDICTS]
+    results = size_rows([_row("OK-1", "liquid"), *rows, _row("OK-2", "liquid")], sizer=_sizer(tmp_path, *criteria))
+    assert [r.status for r in results] == ["pass", *["error"] * len(BAD_VERDICTS), "pass"]
+    for result, (ident, _, what) in zip(results[1:], BAD_VERDICTS):
+        assert result.error == f"line L-{ident}: criterion {ident!r} of plugin '_Plugin' {what}"
+
+
+def test_an_infinite_utilisation_on_a_fail_is_kept(tmp_path: Path) -> None:
+    # A fail that no size can meet (the built-in minimum velocity at zero flow, src/boresize/criteria/limits.py).
+    never = _Returns("never-met", status="fail", utilisation=float("inf"))
+    (result,) = size_rows([_row("L-1", "never-met")], sizer=_sizer(tmp_path, never))
+    assert result.status == "fail"
+    assert result.selected is not None and result.selected.verdicts[0].utilisation == float("inf")

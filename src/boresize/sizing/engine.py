@@ -205,7 +205,7 @@ class Sizer:
             return self._fault(criterion, f"raised {type(exc).__name__}: {exc}")
         if not isinstance(result, Verdict):
             return self._fault(criterion, f"returned {type(result).__name__}, not a Verdict")
-        fault = verdict_fault(result)
+        fault = verdict_fault(result, getattr(criterion, "id", None))
         return self._fault(criterion, fault) if fault else result
 
     def _fault(self, criterion: object, what: str) -> Verdict:
