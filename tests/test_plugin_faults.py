@@ -3,9 +3,15 @@ own line, and never changes another line, stops the run, or corrupts the output.
 
 from __future__ import annotations
 
+import json
+import os
+import subprocess
+import sys
 import textwrap
 from pathlib import Path
 from typing import Any
+
+import pytest
 
 from boresize.api import size_rows
 from boresize.criteria.base import Criterion, OptionSpec, verdict
@@ -118,3 +124,88 @@ def test_an_infinite_utilisation_on_a_fail_is_kept(tmp_path: Path) -> None:
     (result,) = size_rows([_row("L-1", "never-met")], sizer=_sizer(tmp_path, never))
     assert result.status == "fail"
     assert result.selected is not None and result.selected.verdicts[0].utilisation == float("inf")
+
+
+PLUGIN = """
+import sys
+from boresize.plugin import Criterion, hookimpl, verdict
+
+class Exits(Criterion):
+    id = "exits"
+    title = "calls sys.exit()"
+    source = "test"
+    def evaluate(self, context):
+        sys.exit()
+
+class Chatty(Criterion):
+    id = "chatty"
+    title = "prints while it judges"
+    source = "test"
+    def evaluate(self, context):
+        print("chatty judges NPS", context.candidate.nps)
+        return verdict(self, "pass", "always fine")
+
+@hookimpl
+def boresize_register_criteria(register):
+    register.add(Exits())
+    register.add(Chatty())
+"""
+
+CRITERIA = """
+[service.exits]
+phase = "liquid"
+velocity = { max = "3 m/s" }
+exits = {}
+
+[service.chatty]
+phase = "liquid"
+velocity = { max = "3 m/s" }
+chatty = {}
+"""
+
+
+def _cli(tmp_path: Path) -> subprocess.CompletedProcess[str]:
+    """``boresize size lines.csv --json`` with the plugin above installed as an entry point (a dist-info folder, as
+    tests/test_plugins.py installs one)."""
+    (tmp_path / "faulty_rule.py").write_text(PLUGIN, encoding="utf-8")
+    info = tmp_path / "faulty_rule-1.0.dist-info"
+    info.mkdir()
+    (info / "METADATA").write_text("Metadata-Version: 2.1\nName: faulty-rule\nVersion: 1.0\n")
+    (info / "entry_points.txt").write_text("[boresize]\nfaulty = faulty_rule\n")
+    (tmp_path / "criteria.toml").write_text(CRITERIA, encoding="utf-8")
+    water = ",".join(WATER.values())
+    (tmp_path / "lines.csv").write_text(f"tag,service,{','.join(WATER)}\nOK-1,liquid,{water}\n"
+                                        f"EXIT-1,exits,{water}\nCHAT-1,chatty,{water}\nOK-2,liquid,{water}\n",
+                                        encoding="utf-8")
+    src = str(Path(__file__).resolve().parents[1] / "src")
+    env = {**os.environ, "PYTHONPATH": os.pathsep.join([str(tmp_path), src])}
+    return subprocess.run([sys.executable, "-m", "boresize", "size", "lines.csv", "--criteria", "criteria.toml",
+                           "--json"], cwd=tmp_path, env=env, capture_output=True, text=True, timeout=120)
+
+
+def test_sys_exit_in_a_plugin_errors_its_line_and_print_goes_to_stderr(tmp_path: Path) -> None:
+    done = _cli(tmp_path)
+    assert done.returncode == 1, done.stderr
+    lines = {line["tag"]: line for line in json.loads(done.stdout)["lines"]}  # stdout is one valid JSON document
+    assert [lines[tag]["status"] for tag in ("OK-1", "EXIT-1", "CHAT-1", "OK-2")] == ["pass", "error", "pass", "pass"]
+    assert lines["EXIT-1"]["error"] == "line EXIT-1: criterion 'exits' of plugin 'faulty' raised SystemExit"
+    assert "chatty judges NPS" in done.stderr
+    assert "Traceback" not in done.stderr
+
+
+class _Interrupted(Criterion):
+    id = "interrupted"
+    title = "the user presses Ctrl-C while it judges"
+    source = "test"
+    phases = frozenset({"liquid"})
+
+    def evaluate(self, context: Any) -> Verdict:
+        raise KeyboardInterrupt
+
+
+def test_a_real_ctrl_c_in_a_plugin_still_stops_the_run(tmp_path: Path) -> None:
+    from boresize.io.rows import line_from_row
+
+    sizer = _sizer(tmp_path, _Interrupted())
+    with pytest.raises(KeyboardInterrupt):
+        sizer.run(line_from_row({"tag": "L-1", "service": "interrupted", **WATER}))
