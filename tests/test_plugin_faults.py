@@ -209,3 +209,30 @@ def test_a_real_ctrl_c_in_a_plugin_still_stops_the_run(tmp_path: Path) -> None:
     sizer = _sizer(tmp_path, _Interrupted())
     with pytest.raises(KeyboardInterrupt):
         sizer.run(line_from_row({"tag": "L-1", "service": "interrupted", **WATER}))
+
+
+def _refuse(constant: str) -> None:
+    raise ValueError(f"not strict JSON: {constant}")
+
+
+def test_json_is_strict_an_infinite_utilisation_is_null_with_a_note(tmp_path: Path) -> None:
+    from boresize.io.document import document, dumps_strict
+
+    never = _Returns("never-met", status="fail", utilisation=float("inf"))
+    results = size_rows([_row("L-1", "never-met")], sizer=_sizer(tmp_path, never))
+    text = dumps_strict(document(results, criteria_source="test", lines_source="test"))
+    (line,) = json.loads(text, parse_constant=_refuse)["lines"]
+    assert line["utilisation"] is None
+    assert "lines[0].utilisation inf is written as null (JSON has no NaN or infinity)" in line["notes"]
+    assert line["verdicts"][0]["criterion"] == "never-met" and line["verdicts"][0]["utilisation"] is None
+
+
+def test_dumps_strict_names_each_non_finite_number_in_the_nearest_notes() -> None:
+    from boresize.io.document import dumps_strict
+
+    payload = {"lines": [{"notes": ["kept"], "verdicts": [{"value": float("nan"), "limit": 3.0}]}],
+               "total": float("-inf")}
+    assert json.loads(dumps_strict(payload), parse_constant=_refuse) == {
+        "lines": [{"notes": ["kept", "lines[0].verdicts[0].value nan is written as null (JSON has no NaN or "
+                             "infinity)"], "verdicts": [{"value": None, "limit": 3.0}]}],
+        "total": None}
