@@ -107,7 +107,7 @@ def run_criterion(criterion: CriterionProtocol, line: LineInput, nps: str | floa
     verdict = criterion.evaluate(context)
     if not isinstance(verdict, Verdict):
         raise PluginError(f"criterion {criterion.id!r} returned {type(verdict).__name__}, not a Verdict")
-    fault = verdict_fault(verdict)
+    fault = verdict_fault(verdict, criterion.id)
     if fault:
         raise PluginError(f"criterion {criterion.id!r} {fault}")
     return verdict

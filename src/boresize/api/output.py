@@ -12,7 +12,6 @@ temporary file: the target is still intact, and a ``.boresize-tmp`` file may rem
 
 from __future__ import annotations
 
-import json
 import os
 import stat
 import tempfile
@@ -25,11 +24,18 @@ from boresize.errors import InputError
 if TYPE_CHECKING:
     from boresize.api.run import Run
 
-__all__ = ["OUTPUT_SUFFIXES", "WRITERS", "check_output", "write_run"]
+__all__ = ["OUTPUT_SUFFIXES", "WRITERS", "check_output", "strict_json", "write_run"]
+
+
+def strict_json(payload: object) -> str:
+    """``payload`` as indented JSON without NaN or Infinity (see :func:`boresize.io.document.dumps_strict`)."""
+    from boresize.io.document import dumps_strict
+
+    return dumps_strict(payload)
 
 
 def _json(path: Path, run: Run) -> None:
-    path.write_text(json.dumps(run.document(), indent=2, ensure_ascii=False) + "\n", encoding="utf-8")
+    path.write_text(strict_json(run.document()) + "\n", encoding="utf-8")
 
 
 def _csv(path: Path, run: Run) -> None:

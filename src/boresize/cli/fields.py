@@ -2,7 +2,6 @@
 
 from __future__ import annotations
 
-import json
 import sys
 
 __all__ = ["SINGLE_LINE_FIELDS", "print_json"]
@@ -26,6 +25,7 @@ SINGLE_LINE_FIELDS = (
 
 
 def print_json(payload: object) -> None:
-    """``payload`` as indented JSON on stdout (UTF-8 kept as it is)."""
-    json.dump(payload, sys.stdout, indent=2, ensure_ascii=False)
-    sys.stdout.write("\n")
+    """``payload`` as indented strict JSON on stdout (UTF-8 kept as it is; see :func:`boresize.api.output.strict_json`)."""
+    from boresize.api.output import strict_json
+
+    sys.stdout.write(strict_json(payload) + "\n")

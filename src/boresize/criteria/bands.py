@@ -23,6 +23,7 @@ from __future__ import annotations
 import math
 from collections.abc import Mapping, Sequence
 from dataclasses import dataclass, replace
+from types import MappingProxyType
 from typing import Any
 
 from boresize.criteria.base import CriterionContext, SizeTrend, parse_options
@@ -114,7 +115,7 @@ class BandedCriterion:
             return Verdict(criterion=self.id, status="error", source=self.source, reasons=(
                 f"no band of {self.where} covers NPS {cand.nps} at {line.pressure / 1e5:.4g} bar abs; "
                 f"end the bands with one without bounds",))
-        result = self.inner.evaluate(replace(context, options=band.options))
+        result = self.inner.evaluate(replace(context, options=MappingProxyType(dict(band.options))))
         if not isinstance(result, Verdict):
             return result  # type: ignore[no-any-return]  # the engine reports the wrong type, naming the plugin
         return replace(result, reasons=(*result.reasons, band.reason))

@@ -7,13 +7,15 @@ lists every case's own entry in input order (empty for a line without named case
 
 from __future__ import annotations
 
+import json
+import math
 from collections.abc import Mapping, Sequence
 from typing import Any
 
 from boresize import __version__
 from boresize.model import CandidateResult, LineResult, Verdict
 
-__all__ = ["CAUTION", "document", "result_to_dict", "verdict_to_dict", "candidate_to_dict"]
+__all__ = ["CAUTION", "document", "dumps_strict", "result_to_dict", "verdict_to_dict", "candidate_to_dict"]
 
 CAUTION = (
     "boresize results are screening calculations. They must be checked by a competent engineer against the "
@@ -145,3 +147,27 @@ def document(results: Sequence[LineResult], *, criteria_source: str, lines_sourc
         doc["traceability"] = dict(traceability)
     doc["lines"] = [result_to_dict(r) for r in results]
     return doc
+
+
+def dumps_strict(payload: Any) -> str:
+    """``payload`` as indented JSON that any reader accepts: a NaN or infinite number (an infinite utilisation of a
+    fail no size can meet) is written as null, with a note naming it in the ``notes`` of the nearest object that has
+    them (a line's), never as the bare ``NaN`` or ``Infinity`` that strict JSON readers refuse."""
+    return json.dumps(_finite(payload, "", None), indent=2, ensure_ascii=False, allow_nan=False)
+
+
+def _finite(value: Any, where: str, notes: list[Any] | None) -> Any:
+    if isinstance(value, float) and not math.isfinite(value):
+        if notes is not None:
+            notes.append(f"{where.lstrip('.')} {value!r} is written as null (JSON has no NaN or infinity)")
+        return None
+    if isinstance(value, dict):
+        own = value.get("notes")
+        inner = list(own) if isinstance(own, list) else notes
+        out = {key: _finite(item, f"{where}.{key}", inner) for key, item in value.items()}
+        if isinstance(own, list) and inner is not None and len(inner) > len(own):
+            out["notes"] = inner
+        return out
+    if isinstance(value, (list, tuple)):
+        return [_finite(item, f"{where}[{number}]", notes) for number, item in enumerate(value)]
+    return value

@@ -8,10 +8,13 @@ friction factor; the Swamee-Jain diameter is only a first guess shown in the rec
 from __future__ import annotations
 
 import math
+import sys
 from bisect import bisect_left
 from collections.abc import Mapping, Sequence
+from contextlib import redirect_stdout
 from dataclasses import replace
 from pathlib import Path
+from types import MappingProxyType
 from typing import Any, NamedTuple
 
 from boresize.sizing import cases as _cases
@@ -194,17 +197,20 @@ class Sizer:
 
     def _verdicts(self, p: _Prepared, candidate: Candidate, hyd: Hydraulics) -> tuple[Verdict, ...]:
         judge, line, state, name = self._judge, p.line, p.state, p.service.name
-        return tuple(judge(criterion, CriterionContext(line, state, candidate, hyd, options, name))
-                     for criterion, options in p.judges)
+        with redirect_stdout(sys.stderr):  # a plugin's print() must not corrupt --json on stdout
+            return tuple(judge(criterion, CriterionContext(line, state, candidate, hyd, options, name))
+                         for criterion, options in p.judges)
 
     def _judge(self, criterion: object, context: CriterionContext) -> Verdict:
         try:
             result = criterion.evaluate(context)  # type: ignore[attr-defined]
-        except Exception as exc:  # a plugin's fault: an error verdict naming it, the batch goes on
-            return self._fault(criterion, f"raised {type(exc).__name__}: {exc}")
+        except KeyboardInterrupt:  # the user's Ctrl-C stops the run (the CLI exits 130)
+            raise
+        except BaseException as exc:  # a plugin's fault, sys.exit() too: an error verdict naming it, the batch goes on
+            return self._fault(criterion, f"raised {type(exc).__name__}" + (f": {exc}" if str(exc) else ""))
         if not isinstance(result, Verdict):
             return self._fault(criterion, f"returned {type(result).__name__}, not a Verdict")
-        fault = verdict_fault(result)
+        fault = verdict_fault(result, getattr(criterion, "id", None))
         return self._fault(criterion, fault) if fault else result
 
     def _fault(self, criterion: object, what: str) -> Verdict:
@@ -291,9 +297,10 @@ def _beyond_range(mass_flow: float, where: str) -> InputError:
 
 
 def _applicable(service: Service, phase: str) -> Judges:
-    """The service's (criterion, options) pairs that judge a fluid in ``phase``."""
+    """The service's (criterion, options) pairs that judge a fluid in ``phase``; each line's options are a read-only
+    copy (a plugin that wrote to its options would change every later line judged with them)."""
     group = phase_group(phase)
-    return tuple((c, o) for c, o in service.criteria if phase in c.phases or group in c.phases)
+    return tuple((c, MappingProxyType(dict(o))) for c, o in service.criteria if phase in c.phases or group in c.phases)
 
 
 def _first_guess(p: _Prepared) -> float | None:

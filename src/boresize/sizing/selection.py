@@ -36,21 +36,29 @@ def internal_error(line: Line, exc: Exception) -> LineResult:
 _STATUSES: tuple[str, ...] = get_args(VerdictStatus)
 
 
-def verdict_fault(verdict: Verdict) -> str | None:
-    """What is wrong with a criterion's verdict (an unknown status, a number that is NaN or not a number), or
-    None: a NaN drop compares false with every limit and would read as a pass."""
+def verdict_fault(verdict: Verdict, ident: str | None = None) -> str | None:
+    """What is wrong with a criterion's verdict, or None: another criterion's id (``ident``: the criterion's own),
+    an unknown status, a number that is not a number, NaN or infinite. A NaN drop compares false with every limit
+    and would read as a pass; an infinity cannot be written to JSON. The one infinity allowed is the utilisation
+    of a fail that no size can meet (a minimum velocity at zero flow, no pressure left for the drop)."""
+    if ident is not None and verdict.criterion != ident:
+        return f"returned a verdict for criterion {verdict.criterion!r}, not its own id {ident!r}"
     if verdict.status not in _STATUSES:
         return f"returned status {verdict.status!r}, not one of {', '.join(_STATUSES)}"
-    value, limit, utilisation = verdict.value, verdict.limit, verdict.utilisation
-    if ((value is None or (type(value) is float and value == value))  # x == x is False for NaN
-            and (limit is None or (type(limit) is float and limit == limit))
-            and (utilisation is None or (type(utilisation) is float and utilisation == utilisation))):
-        return None  # the common case (floats that are not NaN, or None), without the loop below
+    value, limit, utilisation, finite = verdict.value, verdict.limit, verdict.utilisation, math.isfinite
+    if ((value is None or (type(value) is float and finite(value)))
+            and (limit is None or (type(limit) is float and finite(limit)))
+            and (utilisation is None or (type(utilisation) is float and finite(utilisation)))):
+        return None  # the common case (finite floats, or None), without the loop below
     for name in ("value", "limit", "utilisation"):
         number = getattr(verdict, name)
-        if number is not None and (isinstance(number, bool) or not isinstance(number, (int, float))
-                                   or math.isnan(number)):
+        if number is None:
+            continue
+        if isinstance(number, bool) or not isinstance(number, (int, float)) or math.isnan(number):
             return f"returned {name} {number!r}, not a number"
+        if not math.isfinite(number) and not (name == "utilisation" and number > 0 and verdict.status == "fail"):
+            return (f"returned {name} {number!r}, not a finite number (only a fail's utilisation may be "
+                    f"infinite)")
     return None
 
 
