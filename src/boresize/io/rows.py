@@ -1,6 +1,7 @@
 """Turning one line-list row (text cells) into a validated :class:`~boresize.model.Line` in SI.
 
-Header names are case-insensitive and may carry a default unit in brackets (``flow [t/h]``).
+Header names are case-insensitive and may carry a default unit in brackets (``flow [t/h]``) or, read the
+same way, in parentheses at the end (``Length (m)``).
 A cell may carry its own unit (``65 t/h``), which wins over the header's. Every dimensional
 field needs a unit from one of the two: a bare number is an error, never a guess.
 """
@@ -46,7 +47,11 @@ BEYOND_HEADER = "(beyond the header)"
 #: (same tag, no case or a different line); its value names that earlier row.
 DUPLICATE_TAG = "(tag given before)"
 DEFAULT_LENGTH_M = 100.0
+#: Units an NPS header may name: the NPS is a size in inches, so ``NPS (mm)`` is refused, never read as inches.
+_NPS_UNITS = frozenset({"in", "inch", "inches", '"'})
 _HEADER = re.compile(r"^\s*([^\[\]]*?)\s*(?:\[(.*)\])?\s*$")
+#: A unit in parentheses closing a header (``Length (m)``, ``Design Margin (%)``): read as in brackets.
+_PAREN_UNIT = re.compile(r"^\s*([^\[\]()]*?)\s*\(([^()]*)\)\s*$")
 
 
 @dataclass(frozen=True)
@@ -59,8 +64,9 @@ class Header:
 
 
 def parse_header(text: str) -> Header:
-    """``"Flow [t/h]"`` -> Header("flow", "t/h"); ``"Pipe Class"`` -> Header("pipe_class", None)."""
-    match = _HEADER.match(text or "")
+    """``"Flow [t/h]"`` -> Header("flow", "t/h"); ``"Length (m)"`` -> Header("length", "m");
+    ``"Pipe Class"`` -> Header("pipe_class", None)."""
+    match = _PAREN_UNIT.match(text or "") or _HEADER.match(text or "")
     name = (match.group(1) if match else text).strip().lower()
     name = re.sub(r"[\s\-]+", "_", name)
     unit = match.group(2).strip() if match and match.group(2) else None
@@ -138,11 +144,16 @@ def line_from_row(row: Mapping[str, object], units: Mapping[str, str | None] | N
                 raise InputError("missing value", field=name, value="", expected=_EXPECTED[name])
         length = _optional_quantity(cells, units, "length", "length", "a length above zero, e.g. '120 m'")
         margin_raw = cells.get("design_margin")
-        margin = parse_quantity(margin_raw, "design_margin", "dimensionless") if margin_raw else None
+        margin = parse_quantity(margin_raw, "design_margin", "dimensionless",
+                                units.get("design_margin")) if margin_raw else None
         if margin is not None and not 0 <= margin < 1:
             raise InputError(f"{margin_raw!r} is outside 0 to 100 %", field="design_margin", value=margin_raw,
                              expected="a fraction of the flow such as '10 %' or 0.1")
         nps_raw, schedule = cells.get("nps"), cells.get("schedule")
+        nps_unit = units.get("nps")
+        if nps_raw and nps_unit is not None and nps_unit.lower() not in _NPS_UNITS:
+            raise InputError(f"an NPS is in inches, not {nps_unit!r}", field="nps", value=f"{nps_raw} [{nps_unit}]",
+                             expected="the nominal pipe size in inches (a header 'NPS' or 'NPS (in)'), e.g. '6'")
         optional = _optional_fields(cells, units)
         line = Line(
             tag=tag,
