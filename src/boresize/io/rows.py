@@ -18,7 +18,7 @@ from boresize.model import Flow, Line
 from boresize.pipes import normalise_nps, normalise_schedule
 from boresize.units import QuantityKind, parse_flow, parse_quantity
 
-__all__ = ["COLUMNS", "Header", "parse_header", "line_from_row", "DEFAULT_LENGTH_M"]
+__all__ = ["UNBALANCED_QUOTE", "COLUMNS", "Header", "parse_header", "line_from_row", "DEFAULT_LENGTH_M"]
 
 COLUMNS = (
     "tag", "fluid", "flow", "pressure", "temperature", "length", "service", "pipe_class", "nps",
@@ -43,6 +43,9 @@ REQUIRED = ("tag", "fluid", "flow", "pressure", "temperature")
 #: Key under which a reader keeps a row's non-empty cells that no header names. Such a row is
 #: refused: a decimal comma or an unquoted separator shifts every cell after it into the wrong column.
 BEYOND_HEADER = "(beyond the header)"
+#: Key under which the CSV reader marks a row that opens a quote its line does not close (an unbalanced quote);
+#: its value is the text from the opening quote to the end of its line. The rows after it are read on their own, never swallowed into its cell.
+UNBALANCED_QUOTE = "(unbalanced quote)"
 #: Key under which :func:`boresize.io.line_items.group_rows` marks a row whose tag an earlier line already has
 #: (same tag, no case or a different line); its value names that earlier row.
 DUPLICATE_TAG = "(tag given before)"
@@ -130,6 +133,12 @@ def line_from_row(row: Mapping[str, object], units: Mapping[str, str | None] | N
     cells = _cells(row)
     tag = cells.get("tag") or (f"row {position}" if position is not None else "(untagged)")
     try:
+        if UNBALANCED_QUOTE in cells:
+            quoted = cells[UNBALANCED_QUOTE]
+            raise InputError(f"the quote opened in {quoted!r} does not close on its line, so its cells "
+                             "are not read (the rows after it are read as written)", field="row", value=quoted,
+                             expected="a closing quote in the same cell (\"1,5\"), or no quote at the start of "
+                             "a cell; a quote inside a quoted cell is written twice (\"\")")
         if BEYOND_HEADER in cells:
             raise InputError(f"cells {row[BEYOND_HEADER]} lie outside the header's columns", field="row",
                              value=row[BEYOND_HEADER], expected="one cell per column; quote a cell that holds the "
