@@ -7,11 +7,18 @@ read exactly as they do without the bad row. The cells are the test's own.
 
 from __future__ import annotations
 
+import csv
+import io
+
 import pytest
+from hypothesis import given, settings
+from hypothesis import strategies as st
 
 from boresize.errors import InputError
 from boresize.io.csv_reader import parse_csv_text
 from boresize.io.line_items import RowFault, line_items
+from boresize.io.rows import UNBALANCED_QUOTE
+from boresize.io.safety import restore
 from boresize.model import Line
 
 HEADER = "tag,fluid,flow,pressure,temperature,notes\n"
@@ -65,3 +72,23 @@ def test_an_unbalanced_quote_in_the_header_stops_the_file_naming_its_line():
     assert str(err.value) == ("header: the quote opened in '\"flow,pressure,temperature' on line 2 of l.csv (its "
                               "header) does not close on its line; expected column names without quotes, or each "
                               "quote closed in its cell")
+
+
+CELL_CHARS = st.sampled_from(list("ab1 ,;\"'#\n\r\t-/.") + ["\x00", "\x0c", "\u2028", "\r\n", '""', "t/h"])
+
+
+@settings(max_examples=150, deadline=None, derandomize=True)
+@given(rows=st.lists(st.tuples(st.lists(CELL_CHARS, min_size=1, max_size=8).map("".join),
+                               st.lists(CELL_CHARS, max_size=8).map("".join)), min_size=1, max_size=6))
+def test_every_row_written_by_a_csv_writer_is_read_back(rows):
+    # A row whose tag starts with "#" is a line (its fluid cell below is never empty); quotes, newlines, NUL,
+    # form feeds and U+2028 inside cells change no row count.
+    buffer = io.StringIO()
+    writer = csv.writer(buffer)  # lines end in CRLF, so a cell holding CR or LF is quoted
+    writer.writerow(["tag", "fluid", "flow", "pressure", "temperature", "notes"])
+    written = [(f"T{n}{tag}", notes) for n, (tag, notes) in enumerate(rows)]
+    for tag, notes in written:
+        writer.writerow([tag, "water", "10 t/h", "5 barg", "30 degC", notes])
+    parsed = parse_csv_text(buffer.getvalue())
+    assert [row["tag"] for row in parsed.rows] == [restore(tag.strip()).strip() for tag, _ in written]
+    assert all(UNBALANCED_QUOTE not in row for row in parsed.rows)

@@ -16,7 +16,7 @@ from pathlib import Path
 
 from boresize.errors import InputError
 from boresize.io.safety import restore
-from boresize.io.rows import BEYOND_HEADER, COLUMNS, REQUIRED, UNBALANCED_QUOTE, Header, parse_header
+from boresize.io.rows import ALIASES, BEYOND_HEADER, COLUMNS, REQUIRED, UNBALANCED_QUOTE, Header, parse_header
 
 __all__ = ["RESULT_PREFIX", "LineList", "read_csv", "parse_csv_text", "file_digest", "check_header", "surplus_cells",
            "read_header", "make_line_list"]
@@ -122,9 +122,9 @@ def _comment(cells: list[str], before_header: bool) -> bool:
 def _records(lines: list[str], dialect: type[csv.Dialect]) -> Iterator[tuple[int, list[str], str | None]]:
     """Each CSV record of ``lines``: (number of its first line, cells, the text from an unbalanced quote or None).
 
-    A record whose quoted cell runs past its line into text holding the separator (the rows after it), or to the
-    end of the file, opened a quote that its line does not close: that line alone is the record, and reading
-    resumes on the next line.
+    A record whose quote runs past its line and does not close as a cell's quote (see :func:`_unbalanced`)
+    opened a quote that its line does not close: that line alone is the record, and reading resumes on the
+    next line.
     """
     start = 0
     while start < len(lines):
@@ -133,7 +133,7 @@ def _records(lines: list[str], dialect: type[csv.Dialect]) -> Iterator[tuple[int
         for cells in reader:
             first, end = start + consumed, start + reader.line_num
             consumed = reader.line_num
-            if _unbalanced(cells, lines[first:end], dialect, at_end=end == len(lines)):
+            if _unbalanced(lines[first:end], dialect, at_end=end == len(lines)):
                 alone = next(csv.reader([lines[first]], dialect), [""])
                 yield first + 1, alone, '"' + alone[-1].rstrip("\r\n") if alone else '"'
                 start = first + 1
@@ -143,12 +143,12 @@ def _records(lines: list[str], dialect: type[csv.Dialect]) -> Iterator[tuple[int
             return
 
 
-def _unbalanced(cells: list[str], record: list[str], dialect: type[csv.Dialect], at_end: bool) -> bool:
-    """True when the record's quote does not close on its first line and what it swallowed looks like rows (it
-    holds the separator), or the quote is still open at the end of the file."""
-    if len(record) > 1 and any(_swallows(cell, dialect.delimiter) for cell in cells):
-        return True
-    if not at_end:
+def _unbalanced(record: list[str], dialect: type[csv.Dialect], at_end: bool) -> bool:
+    """True when the record's opening quote does not close as a cell's quote should: read strictly, a record
+    running past its first line fails where the swallowed rows' own quotes stand (``',' expected after '"'``) or
+    at the end of the file; a one-line record only when its quote is still open at the end of the file. A quoted
+    cell holding line breaks, closed by a quote before a separator, reads as one cell."""
+    if len(record) < 2 and not at_end:
         return False
 
     class Strict(dialect):  # type: ignore[valid-type, misc]
@@ -157,13 +157,8 @@ def _unbalanced(cells: list[str], record: list[str], dialect: type[csv.Dialect],
     try:
         list(csv.reader(iter(record), Strict))
     except csv.Error as exc:
-        return "unexpected end of data" in str(exc)
+        return len(record) > 1 or "unexpected end of data" in str(exc)
     return False
-
-
-def _swallows(cell: str, delimiter: str) -> bool:
-    rest = re.split(r"\r\n|\r|\n", cell, maxsplit=1)
-    return len(rest) == 2 and delimiter in rest[1]
 
 
 def read_header(raw_headers: list[str], source: str) -> tuple[list[Header], list[str]]:
@@ -209,7 +204,7 @@ def check_header(names: list[str], raw_headers: list[str], source: str) -> None:
         raise InputError(f"the first row of {source} ({shown}) names none of the columns", field="header",
                          value=shown, expected=f"a header row first, naming at least {', '.join(REQUIRED)}")
     for name, text in zip(names, raw_headers):
-        near = [c for c in COLUMNS if name and name not in COLUMNS and _near_miss(name, c)]
+        near = [c for c in (*COLUMNS, *ALIASES) if name and name not in COLUMNS and _near_miss(name, c)]
         if near:
             raise InputError(f"unknown column {text.strip()!r} in {source} (close to {near[0]!r})", field="header",
                              value=text.strip(), expected=f"{near[0]!r} if that is meant, or a name that is not a "

@@ -18,7 +18,7 @@ from boresize.model import Flow, Line
 from boresize.pipes import normalise_nps, normalise_schedule
 from boresize.units import QuantityKind, parse_flow, parse_quantity
 
-__all__ = ["UNBALANCED_QUOTE", "COLUMNS", "Header", "parse_header", "line_from_row", "DEFAULT_LENGTH_M"]
+__all__ = ["ALIASES", "UNBALANCED_QUOTE", "COLUMNS", "Header", "parse_header", "line_from_row", "DEFAULT_LENGTH_M"]
 
 COLUMNS = (
     "tag", "fluid", "flow", "pressure", "temperature", "length", "service", "pipe_class", "nps",
@@ -39,6 +39,22 @@ OPTIONAL_QUANTITIES: dict[str, tuple[QuantityKind, bool, str]] = {
                                           "density and viscosity, e.g. '0.05 bar'"),
 }
 _COLUMN_SET = frozenset(COLUMNS)
+#: The trade's usual headings for a column (as :func:`parse_header` normalises them: lower case, spaces and
+#: dashes as ``_``, a unit in brackets or parentheses left off) -> the column they feed. Listed in README.md.
+ALIASES: dict[str, str] = {
+    "line_number": "tag", "line_no": "tag", "line_no.": "tag", "line_tag": "tag", "line_id": "tag",
+    "fluid_name": "fluid", "medium": "fluid",
+    "mass_flow": "flow", "mass_flow_rate": "flow", "mass_flowrate": "flow", "flow_rate": "flow", "flowrate": "flow",
+    "operating_pressure": "pressure", "inlet_pressure": "pressure",
+    "operating_temperature": "temperature",
+    "pipe_length": "length", "line_length": "length",
+    "elevation_change": "elevation", "elevation_difference": "elevation",
+    "nominal_pipe_size": "nps", "nominal_size": "nps", "line_size": "nps",
+    "pipe_schedule": "schedule", "sch": "schedule",
+    "piping_class": "pipe_class", "pipe_spec": "pipe_class", "piping_spec": "pipe_class", "line_class": "pipe_class",
+    "flow_margin": "design_margin",
+    "dynamic_viscosity": "viscosity",
+}
 REQUIRED = ("tag", "fluid", "flow", "pressure", "temperature")
 #: Key under which a reader keeps a row's non-empty cells that no header names. Such a row is
 #: refused: a decimal comma or an unquoted separator shifts every cell after it into the wrong column.
@@ -68,12 +84,13 @@ class Header:
 
 def parse_header(text: str) -> Header:
     """``"Flow [t/h]"`` -> Header("flow", "t/h"); ``"Length (m)"`` -> Header("length", "m");
-    ``"Pipe Class"`` -> Header("pipe_class", None)."""
+    ``"Pipe Class"`` -> Header("pipe_class", None); a heading of :data:`ALIASES` feeds its column
+    (``"Pipe Length [m]"`` -> Header("length", "m"))."""
     match = _PAREN_UNIT.match(text or "") or _HEADER.match(text or "")
     name = (match.group(1) if match else text).strip().lower()
     name = re.sub(r"[\s\-]+", "_", name)
     unit = match.group(2).strip() if match and match.group(2) else None
-    return Header(field=name, unit=unit or None, text=text)
+    return Header(field=ALIASES.get(name, name), unit=unit or None, text=text)
 
 
 def _text(row: Mapping[str, object], name: str) -> str | None:
