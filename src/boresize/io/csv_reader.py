@@ -9,13 +9,14 @@ from __future__ import annotations
 
 import csv
 import hashlib
-import io
+import re
+from collections.abc import Iterator
 from dataclasses import dataclass, field
 from pathlib import Path
 
 from boresize.errors import InputError
 from boresize.io.safety import restore
-from boresize.io.rows import BEYOND_HEADER, COLUMNS, REQUIRED, Header, parse_header
+from boresize.io.rows import ALIASES, BEYOND_HEADER, COLUMNS, REQUIRED, UNBALANCED_QUOTE, Header, parse_header
 
 __all__ = ["RESULT_PREFIX", "LineList", "read_csv", "parse_csv_text", "file_digest", "check_header", "surplus_cells",
            "read_header", "make_line_list"]
@@ -63,26 +64,101 @@ def file_digest(path: str | Path) -> str:
 
 
 def parse_csv_text(text: str, source: str = "<text>") -> LineList:
-    """Parse CSV text; blank rows are skipped, duplicate columns are an error naming them."""
+    """Parse CSV text; blank rows and comment rows are skipped, duplicate columns are an error naming them.
+
+    A comment row is one whose first cell starts with ``#`` and whose other cells are empty (before the header,
+    any row whose first cell starts with ``#``): a tag such as ``#12-P-001`` with other cells is a line. A row
+    opening a quote that its line does not close is an error row of its own and the rows after it are read as
+    written, so that every data row is a line of the output.
+    """
     text = text.removeprefix("\ufeff")  # a byte-order mark left by a reader that kept it
-    lines = [ln for ln in text.splitlines() if ln.strip() and not ln.lstrip().startswith("#")]
-    if not lines:
+    lines = _PHYSICAL_LINE.findall(text)
+    head = next((ln for ln in lines if ln.strip() and not ln.lstrip().startswith("#")), None)
+    if head is None:
         raise InputError(f"{source} holds no header row", field="lines", value=source,
                          expected="a header row such as tag,fluid,flow,pressure,temperature")
-    dialect = _dialect(lines[0])
-    reader = csv.reader(io.StringIO("\n".join(lines)), dialect)
-    raw_headers = next(reader)
-    headers, names = read_header(raw_headers, source)
+    dialect = _dialect(head)
+    raw_headers: list[str] | None = None
+    names: list[str] = []
+    headers: list[Header] = []
     rows = []
-    for cells in reader:
-        if not any(c.strip() for c in cells):
+    for number, cells, quoted in _records(lines, dialect):
+        if not any(c.strip() for c in cells) or _comment(cells, before_header=raw_headers is None):
             continue
-        rows.append({**{name: restore(cell.strip()).strip() for name, cell in zip(names, cells) if name},
-                     **surplus_cells(raw_headers, cells)})
+        if raw_headers is None:
+            if quoted is not None:
+                raise InputError(f"the quote opened in {quoted!r} on line {number} of {source} (its header) does "
+                                 "not close on its line", field="header", value=quoted,
+                                 expected="column names without quotes, or each quote closed in its cell")
+            raw_headers = cells
+            headers, names = read_header(raw_headers, source)
+            continue
+        row = {**{name: restore(cell.strip()).strip() for name, cell in zip(names, cells) if name},
+               **surplus_cells(raw_headers, cells)}
+        if quoted is not None:
+            row = {**{k: v for k, v in row.items() if k != BEYOND_HEADER}, UNBALANCED_QUOTE: quoted}
+        rows.append(row)
+    if raw_headers is None:
+        raise InputError(f"{source} holds no header row", field="lines", value=source,
+                         expected="a header row such as tag,fluid,flow,pressure,temperature")
     if not rows:
         raise InputError(f"{source} has a header but no lines", field="lines", value=source,
                          expected="one row per line case below the header")
     return make_line_list(rows, headers, names, raw_headers, source)
+
+
+#: One physical line with its ending: only CR, LF and CRLF end a line (a form feed or U+2028 in a cell does not).
+_PHYSICAL_LINE = re.compile(r"[^\r\n]*(?:\r\n|\r|\n)|[^\r\n]+\Z")
+
+
+def _comment(cells: list[str], before_header: bool) -> bool:
+    """A comment row: its first cell starts with ``#`` and its other cells are empty; before the header, any row
+    whose first cell starts with ``#`` (no line can come before the header)."""
+    if not cells or not cells[0].lstrip().startswith("#"):
+        return False
+    return before_header or not any(c.strip() for c in cells[1:])
+
+
+def _records(lines: list[str], dialect: type[csv.Dialect]) -> Iterator[tuple[int, list[str], str | None]]:
+    """Each CSV record of ``lines``: (number of its first line, cells, the text from an unbalanced quote or None).
+
+    A record whose quote runs past its line and does not close as a cell's quote (see :func:`_unbalanced`)
+    opened a quote that its line does not close: that line alone is the record, and reading resumes on the
+    next line.
+    """
+    start = 0
+    while start < len(lines):
+        reader = csv.reader(iter(lines[start:]), dialect)
+        consumed = 0
+        for cells in reader:
+            first, end = start + consumed, start + reader.line_num
+            consumed = reader.line_num
+            if _unbalanced(lines[first:end], dialect, at_end=end == len(lines)):
+                alone = next(csv.reader([lines[first]], dialect), [""])
+                yield first + 1, alone, '"' + alone[-1].rstrip("\r\n") if alone else '"'
+                start = first + 1
+                break
+            yield first + 1, cells, None
+        else:
+            return
+
+
+def _unbalanced(record: list[str], dialect: type[csv.Dialect], at_end: bool) -> bool:
+    """True when the record's opening quote does not close as a cell's quote should: read strictly, a record
+    running past its first line fails where the swallowed rows' own quotes stand (``',' expected after '"'``) or
+    at the end of the file; a one-line record only when its quote is still open at the end of the file. A quoted
+    cell holding line breaks, closed by a quote before a separator, reads as one cell."""
+    if len(record) < 2 and not at_end:
+        return False
+
+    class Strict(dialect):  # type: ignore[valid-type, misc]
+        strict = True
+
+    try:
+        list(csv.reader(iter(record), Strict))
+    except csv.Error as exc:
+        return len(record) > 1 or "unexpected end of data" in str(exc)
+    return False
 
 
 def read_header(raw_headers: list[str], source: str) -> tuple[list[Header], list[str]]:
@@ -128,7 +204,7 @@ def check_header(names: list[str], raw_headers: list[str], source: str) -> None:
         raise InputError(f"the first row of {source} ({shown}) names none of the columns", field="header",
                          value=shown, expected=f"a header row first, naming at least {', '.join(REQUIRED)}")
     for name, text in zip(names, raw_headers):
-        near = [c for c in COLUMNS if name and name not in COLUMNS and _near_miss(name, c)]
+        near = [c for c in (*COLUMNS, *ALIASES) if name and name not in COLUMNS and _near_miss(name, c)]
         if near:
             raise InputError(f"unknown column {text.strip()!r} in {source} (close to {near[0]!r})", field="header",
                              value=text.strip(), expected=f"{near[0]!r} if that is meant, or a name that is not a "

@@ -1,6 +1,7 @@
 """Turning one line-list row (text cells) into a validated :class:`~boresize.model.Line` in SI.
 
-Header names are case-insensitive and may carry a default unit in brackets (``flow [t/h]``).
+Header names are case-insensitive and may carry a default unit in brackets (``flow [t/h]``) or, read the
+same way, in parentheses at the end (``Length (m)``).
 A cell may carry its own unit (``65 t/h``), which wins over the header's. Every dimensional
 field needs a unit from one of the two: a bare number is an error, never a guess.
 """
@@ -17,7 +18,7 @@ from boresize.model import Flow, Line
 from boresize.pipes import normalise_nps, normalise_schedule
 from boresize.units import QuantityKind, parse_flow, parse_quantity
 
-__all__ = ["COLUMNS", "Header", "parse_header", "line_from_row", "DEFAULT_LENGTH_M"]
+__all__ = ["ALIASES", "UNBALANCED_QUOTE", "COLUMNS", "Header", "parse_header", "line_from_row", "DEFAULT_LENGTH_M"]
 
 COLUMNS = (
     "tag", "fluid", "flow", "pressure", "temperature", "length", "service", "pipe_class", "nps",
@@ -38,15 +39,38 @@ OPTIONAL_QUANTITIES: dict[str, tuple[QuantityKind, bool, str]] = {
                                           "density and viscosity, e.g. '0.05 bar'"),
 }
 _COLUMN_SET = frozenset(COLUMNS)
+#: The trade's usual headings for a column (as :func:`parse_header` normalises them: lower case, spaces and
+#: dashes as ``_``, a unit in brackets or parentheses left off) -> the column they feed. Listed in README.md.
+ALIASES: dict[str, str] = {
+    "line_number": "tag", "line_no": "tag", "line_no.": "tag", "line_tag": "tag", "line_id": "tag",
+    "fluid_name": "fluid", "medium": "fluid",
+    "mass_flow": "flow", "mass_flow_rate": "flow", "mass_flowrate": "flow", "flow_rate": "flow", "flowrate": "flow",
+    "operating_pressure": "pressure", "inlet_pressure": "pressure",
+    "operating_temperature": "temperature",
+    "pipe_length": "length", "line_length": "length",
+    "elevation_change": "elevation", "elevation_difference": "elevation",
+    "nominal_pipe_size": "nps", "nominal_size": "nps", "line_size": "nps",
+    "pipe_schedule": "schedule", "sch": "schedule",
+    "piping_class": "pipe_class", "pipe_spec": "pipe_class", "piping_spec": "pipe_class", "line_class": "pipe_class",
+    "flow_margin": "design_margin",
+    "dynamic_viscosity": "viscosity",
+}
 REQUIRED = ("tag", "fluid", "flow", "pressure", "temperature")
 #: Key under which a reader keeps a row's non-empty cells that no header names. Such a row is
 #: refused: a decimal comma or an unquoted separator shifts every cell after it into the wrong column.
 BEYOND_HEADER = "(beyond the header)"
+#: Key under which the CSV reader marks a row that opens a quote its line does not close (an unbalanced quote);
+#: its value is the text from the opening quote to the end of its line. The rows after it are read on their own, never swallowed into its cell.
+UNBALANCED_QUOTE = "(unbalanced quote)"
 #: Key under which :func:`boresize.io.line_items.group_rows` marks a row whose tag an earlier line already has
 #: (same tag, no case or a different line); its value names that earlier row.
 DUPLICATE_TAG = "(tag given before)"
 DEFAULT_LENGTH_M = 100.0
+#: Units an NPS header may name: the NPS is a size in inches, so ``NPS (mm)`` is refused, never read as inches.
+_NPS_UNITS = frozenset({"in", "inch", "inches", '"'})
 _HEADER = re.compile(r"^\s*([^\[\]]*?)\s*(?:\[(.*)\])?\s*$")
+#: A unit in parentheses closing a header (``Length (m)``, ``Design Margin (%)``): read as in brackets.
+_PAREN_UNIT = re.compile(r"^\s*([^\[\]()]*?)\s*\(([^()]*)\)\s*$")
 
 
 @dataclass(frozen=True)
@@ -59,12 +83,14 @@ class Header:
 
 
 def parse_header(text: str) -> Header:
-    """``"Flow [t/h]"`` -> Header("flow", "t/h"); ``"Pipe Class"`` -> Header("pipe_class", None)."""
-    match = _HEADER.match(text or "")
+    """``"Flow [t/h]"`` -> Header("flow", "t/h"); ``"Length (m)"`` -> Header("length", "m");
+    ``"Pipe Class"`` -> Header("pipe_class", None); a heading of :data:`ALIASES` feeds its column
+    (``"Pipe Length [m]"`` -> Header("length", "m"))."""
+    match = _PAREN_UNIT.match(text or "") or _HEADER.match(text or "")
     name = (match.group(1) if match else text).strip().lower()
     name = re.sub(r"[\s\-]+", "_", name)
     unit = match.group(2).strip() if match and match.group(2) else None
-    return Header(field=name, unit=unit or None, text=text)
+    return Header(field=ALIASES.get(name, name), unit=unit or None, text=text)
 
 
 def _text(row: Mapping[str, object], name: str) -> str | None:
@@ -124,6 +150,12 @@ def line_from_row(row: Mapping[str, object], units: Mapping[str, str | None] | N
     cells = _cells(row)
     tag = cells.get("tag") or (f"row {position}" if position is not None else "(untagged)")
     try:
+        if UNBALANCED_QUOTE in cells:
+            quoted = cells[UNBALANCED_QUOTE]
+            raise InputError(f"the quote opened in {quoted!r} does not close on its line, so its cells "
+                             "are not read (the rows after it are read as written)", field="row", value=quoted,
+                             expected="a closing quote in the same cell (\"1,5\"), or no quote at the start of "
+                             "a cell; a quote inside a quoted cell is written twice (\"\")")
         if BEYOND_HEADER in cells:
             raise InputError(f"cells {row[BEYOND_HEADER]} lie outside the header's columns", field="row",
                              value=row[BEYOND_HEADER], expected="one cell per column; quote a cell that holds the "
@@ -138,11 +170,16 @@ def line_from_row(row: Mapping[str, object], units: Mapping[str, str | None] | N
                 raise InputError("missing value", field=name, value="", expected=_EXPECTED[name])
         length = _optional_quantity(cells, units, "length", "length", "a length above zero, e.g. '120 m'")
         margin_raw = cells.get("design_margin")
-        margin = parse_quantity(margin_raw, "design_margin", "dimensionless") if margin_raw else None
+        margin = parse_quantity(margin_raw, "design_margin", "dimensionless",
+                                units.get("design_margin")) if margin_raw else None
         if margin is not None and not 0 <= margin < 1:
             raise InputError(f"{margin_raw!r} is outside 0 to 100 %", field="design_margin", value=margin_raw,
                              expected="a fraction of the flow such as '10 %' or 0.1")
         nps_raw, schedule = cells.get("nps"), cells.get("schedule")
+        nps_unit = units.get("nps")
+        if nps_raw and nps_unit is not None and nps_unit.lower() not in _NPS_UNITS:
+            raise InputError(f"an NPS is in inches, not {nps_unit!r}", field="nps", value=f"{nps_raw} [{nps_unit}]",
+                             expected="the nominal pipe size in inches (a header 'NPS' or 'NPS (in)'), e.g. '6'")
         optional = _optional_fields(cells, units)
         line = Line(
             tag=tag,

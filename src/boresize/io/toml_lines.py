@@ -67,7 +67,8 @@ def _cell(value: Any, where: str) -> str:
 
 
 def _fields(table: Mapping[str, Any], where: str) -> dict[str, str]:
-    cells = {}
+    cells: dict[str, str] = {}
+    given: dict[str, str] = {}  # field -> the key that gave it (an alias and its column both given is an error)
     for key, value in table.items():
         if key == "case" and isinstance(value, list):
             continue
@@ -75,7 +76,12 @@ def _fields(table: Mapping[str, Any], where: str) -> dict[str, str]:
             from boresize.properties.composition import composition_text
 
             value = composition_text(value)
-        cells[parse_header(key).field] = _cell(value, f"{where}.{key}")
+        name = parse_header(key).field
+        if name in cells:
+            raise InputError(f"{where} gives {name!r} twice (as {key!r} and as {given[name]!r})", field=f"{where}.{key}",
+                             value=key, expected=f"one key for {name!r}")
+        given[name] = key
+        cells[name] = _cell(value, f"{where}.{key}")
     return cells
 
 
