@@ -140,6 +140,9 @@ class FluidState:
     :param saturation_temperature: saturation temperature at ``pressure`` [K] of a pure fluid whose state is
         saturated (a quality, or a phase at saturation) or lies within
         :data:`boresize.properties.saturation.SATURATION_MARGIN` of it; None elsewhere
+    :param family: the fluid family the model was chosen for ("pure fluid", "natural gas", "aqueous solution",
+        "hydrocarbon mixture", "given values", ...), None where the backend does not say
+    :param validity: the chosen model's validity range as text ("90-450 K, up to 35 MPa"), None where not known
     """
 
     density: float
@@ -161,6 +164,8 @@ class FluidState:
     composition: tuple[tuple[str, float], ...] = ()
     notes: tuple[str, ...] = ()
     saturation_temperature: float | None = None
+    family: str | None = None
+    validity: str | None = None
 
 
 @dataclass(frozen=True)

@@ -107,6 +107,7 @@ def _record(result: LineResult) -> dict[str, Any]:
         })
     if state is not None:
         record.update({"phase": state.phase, "property_source": state.source, "property_model": state.model,
+                       "property_family": state.family, "property_validity": state.validity,
                        "property_backend_version": state.backend_version, "eos": state.eos,
                        "vapour_fraction": _r(state.vapour_fraction),
                        "vapour_pressure_bar_abs": _bar(state.vapour_pressure),

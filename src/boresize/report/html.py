@@ -70,6 +70,10 @@ def _used(case: LineResult) -> list[tuple[str, str, str]]:
     if state is not None:
         rows += [("density", _num(state.density, 5), "kg/m3"), ("viscosity", _num(state.viscosity * 1e3, 4), "mPa s"),
                  ("phase", state.phase, ""), ("property source", f"{state.source}: {state.model}", "")]
+        if state.family:
+            rows.append(("fluid family", state.family, ""))
+        if state.validity:
+            rows.append(("model validity", state.validity, ""))
         if state.vapour_pressure:
             rows.append(("vapour pressure", _num(state.vapour_pressure / 1e5, 5), "bar abs"))
     rows += [("service", case.service or "-", ""), ("criteria set", case.criteria_set or "-", "")]
