@@ -46,3 +46,46 @@ def test_a_stray_value_at_the_last_cell_is_a_row_error_naming_the_cell(tmp_path:
     rows = read_xlsx(path).rows
     assert [row["tag"] for row in rows] == ["A-1", "A-2", ""]
     assert rows[2]["(beyond the header)"] == "'x' in XFD1048576"
+
+
+def test_tomllib_recursion_on_deep_nesting_is_an_input_error_naming_the_file(tmp_path: Path) -> None:
+    from boresize.errors import InputError
+    from boresize.io.toml_lines import read_toml_lines
+
+    path = tmp_path / "deep.toml"
+    path.write_text('[[line]]\ntag = "X"\nflow = ' + "[" * 10_000 + "]" * 10_000 + "\n", encoding="utf-8")
+    try:
+        read_toml_lines(path)
+    except InputError as exc:
+        assert exc.field == "lines" and exc.value == str(path) and "too deeply" in str(exc)
+    else:
+        raise AssertionError("no error")
+
+
+def test_one_bad_toml_cell_is_its_lines_error_only() -> None:
+    from boresize.io.line_items import RowFault, line_items
+    from boresize.io.toml_lines import lines_from_document
+
+    good = {"fluid": "water", "flow": "20 t/h", "pressure": "5 barg", "temperature": "20 degC"}
+    document = {"line": [{"tag": "A", **good}, {"tag": "B", **good, "length": True},
+                         {"tag": "C", **good, "case": ["normal", "max"]}, {"tag": "D", **good}]}
+    items = line_items(lines_from_document(document).pairs()).items
+    assert [type(item).__name__ for item in items] == ["Line", "RowFault", "RowFault", "Line"]
+    bad, case = items[1], items[2]
+    assert isinstance(bad, RowFault) and isinstance(case, RowFault)
+    assert str(bad.error) == ('line B: length: true is a boolean, neither text nor a number; expected text '
+                              '(such as "45 t/h" or "5 barg") or a number')
+    assert case.error.field == "case" and "['normal', 'max']" in str(case.error)  # type: ignore[attr-defined]
+
+
+def test_a_bad_toml_cell_on_the_only_line_is_still_that_lines_error(tmp_path: Path) -> None:
+    from boresize.io.line_items import RowFault, line_items
+    from boresize.io.read import read_line_list
+
+    path = tmp_path / "one.toml"  # was a whole-file error (line[1].fluid), now the line's own, as for any line
+    path.write_text('[[line]]\ntag = "A"\nfluid = true\nflow = "1 t/h"\npressure = "1 barg"\ntemperature = "20 degC"\n'
+                    '[[line]]\ntag = "B"\nfluid = "water"\nflow = "1 t/h"\npressure = "1 barg"\ntemperature = "20 degC"\n'
+                    '[[line.case]]\nflow = "2 t/h"\n', encoding="utf-8")
+    items = line_items(read_line_list(path).pairs()).items
+    assert isinstance(items[0], RowFault) and items[0].error.field == "fluid"  # type: ignore[attr-defined]
+    assert isinstance(items[1], RowFault) and "has no case name" in str(items[1].error)
