@@ -89,3 +89,35 @@ def test_a_bad_toml_cell_on_the_only_line_is_still_that_lines_error(tmp_path: Pa
     items = line_items(read_line_list(path).pairs()).items
     assert isinstance(items[0], RowFault) and items[0].error.field == "fluid"  # type: ignore[attr-defined]
     assert isinstance(items[1], RowFault) and "has no case name" in str(items[1].error)
+
+
+def _cli(argv: list[str], folder: Path) -> tuple[int, str, str]:
+    import contextlib
+    import io
+    import os
+
+    from boresize.cli import main
+
+    out, err = io.StringIO(), io.StringIO()
+    here = os.getcwd()
+    os.chdir(folder)
+    try:
+        with contextlib.redirect_stdout(out), contextlib.redirect_stderr(err):
+            code = main(argv)
+    finally:
+        os.chdir(here)
+    return code, out.getvalue(), err.getvalue()
+
+
+GOOD = "tag,fluid,flow,pressure,temperature\nA-1,water,20 t/h,5 barg,20 degC\n"
+
+
+def test_two_outputs_naming_one_file_stop_the_run_before_sizing(tmp_path: Path) -> None:
+    (tmp_path / "lines.csv").write_text(GOOD, encoding="utf-8")
+    (tmp_path / "link.csv").symlink_to(tmp_path / "a.csv")
+    for second in ("./a.csv", "link.csv", str(tmp_path / "a.csv")):
+        code, out, err = _cli(["size", "lines.csv", "--no-plugins", "-o", "a.csv", "-o", second], tmp_path)
+        assert (code, out) == (2, "")
+        assert err == (f"boresize: error: output: 'a.csv' and {second!r} name the same file; expected a different "
+                       "file for each output\n")
+        assert not (tmp_path / "a.csv").exists()
