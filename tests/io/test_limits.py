@@ -121,3 +121,22 @@ def test_two_outputs_naming_one_file_stop_the_run_before_sizing(tmp_path: Path) 
         assert err == (f"boresize: error: output: 'a.csv' and {second!r} name the same file; expected a different "
                        "file for each output\n")
         assert not (tmp_path / "a.csv").exists()
+
+
+def test_a_csv_cell_over_the_field_limit_is_its_rows_error_and_the_other_rows_are_read() -> None:
+    import csv
+
+    from boresize.io.csv_reader import parse_csv_text
+    from boresize.io.line_items import RowFault, line_items
+
+    limit = csv.field_size_limit()  # 131072 unless changed (Python documentation of csv.field_size_limit)
+    big = "x" * (limit + 1)
+    text = (f"tag,fluid,flow,pressure,temperature,notes\nA,water,20 t/h,5 barg,20 degC,\nB,water,20 t/h,5 barg,"
+            f"20 degC,{big}\nC,water,20 t/h,5 barg,20 degC,\"{big}\"\nD,water,20 t/h,5 barg,20 degC,\n")
+    items = line_items(parse_csv_text(text, "l.csv").pairs()).items
+    assert [type(i).__name__ for i in items] == ["Line", "RowFault", "RowFault", "Line"]
+    b, c = items[1], items[2]
+    assert isinstance(b, RowFault) and isinstance(c, RowFault)
+    assert str(b.error) == (f"line B: notes: a cell of {limit + 1} characters on line 3 of l.csv is over the limit "
+                            f"of {limit} characters a cell may hold; expected a cell of at most {limit} characters")
+    assert c.tag == "C" and f"over the limit of {limit}" in str(c.error)
