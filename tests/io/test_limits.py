@@ -140,3 +140,30 @@ def test_a_csv_cell_over_the_field_limit_is_its_rows_error_and_the_other_rows_ar
     assert str(b.error) == (f"line B: notes: a cell of {limit + 1} characters on line 3 of l.csv is over the limit "
                             f"of {limit} characters a cell may hold; expected a cell of at most {limit} characters")
     assert c.tag == "C" and f"over the limit of {limit}" in str(c.error)
+
+
+def test_a_full_disk_while_writing_is_an_error_per_output_and_the_earlier_file_stays(tmp_path: Path) -> None:
+    import errno
+    from unittest import mock
+
+    def full(*args: object, **kwargs: object) -> None:
+        raise OSError(errno.ENOSPC, "No space left on device")
+
+    (tmp_path / "lines.csv").write_text(GOOD, encoding="utf-8")
+    for name in ("out.xlsx", "out.csv", "out.json", "out.html"):
+        (tmp_path / name).write_bytes(b"earlier")
+    patches = [mock.patch("openpyxl.Workbook.save", full), mock.patch("boresize.io.csv_writer.write_csv", full),
+               mock.patch("boresize.api.output.strict_json", full), mock.patch("boresize.api.output._html", full)]
+    for patch in patches:
+        patch.start()
+    try:
+        code, _, err = _cli(["size", "lines.csv", "--no-plugins", "-o", "out.xlsx", "-o", "out.csv", "-o", "out.json",
+                             "-o", "out.html"], tmp_path)
+    finally:
+        for patch in patches:
+            patch.stop()
+    assert code == 2 and "Traceback" not in err and "internal error" not in err
+    assert "boresize: error: output: cannot write 'out.xlsx': No space left on device" in err
+    for name in ("out.xlsx", "out.json"):
+        assert (tmp_path / name).read_bytes() == b"earlier"
+    assert sorted(p.name for p in tmp_path.iterdir() if "boresize-tmp" in p.name) == []
