@@ -81,8 +81,6 @@ def test_toml_cases_inherit_the_line_and_read_like_the_csv(tmp_path):
 @pytest.mark.parametrize(("text", "message"), [
     ('[[line]]\ntag = "A"\nfluid = "water"\nflow = "1 t/h"\npressure = "1 barg"\ntemperature = "20 degC"\n'
      'lenght = 5\n', r"header: unknown column 'lenght'.*close to 'length'"),
-    ('[[line]]\ntag = "A"\nfluid = true\n', r"line\[1\]\.fluid: True is neither text nor a number"),
-    ('[[line]]\ntag = "A"\n[[line.case]]\nflow = "1 t/h"\n', r"line\[1\]\.case\[1\]\.case: a case without a name"),
     ('[line_list]\n', r"line_list: unknown table or key 'line_list'"),
     ('[[line]\n', r"lines: .* is not valid TOML"),
 ])

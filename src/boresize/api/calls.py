@@ -195,7 +195,6 @@ def size_many(lines: Iterable[Item], executor: Executor | None = None, *, worker
         one per CPU from :data:`PROCESS_THRESHOLD` lines, else 1
     :param chunk_size: lines per task (default: about eight tasks per worker, 1 to 64 lines each)
     :raises InputError: an item that is not a line, an executor that is not one, workers below 1
-    :raises BoresizeError: a worker process died
     """
     items = [checked_item(value, i) for i, value in enumerate(lines, start=1)]
     spec = spec_for(criteria, plugins, None)

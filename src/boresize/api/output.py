@@ -24,7 +24,7 @@ from boresize.errors import InputError
 if TYPE_CHECKING:
     from boresize.api.run import Run
 
-__all__ = ["OUTPUT_SUFFIXES", "WRITERS", "check_output", "strict_json", "write_run"]
+__all__ = ["OUTPUT_SUFFIXES", "WRITERS", "check_output", "check_outputs", "strict_json", "write_run"]
 
 
 def strict_json(payload: object) -> str:
@@ -88,6 +88,35 @@ def check_output(path: str | Path, inputs: Iterable[str | Path] = ()) -> Path:
         raise InputError(f"cannot write {str(path)!r}: the file is read-only", field="output", value=str(path),
                          expected="a file this user may write")
     return target
+
+
+def check_outputs(paths: Iterable[str | Path], inputs: Iterable[str | Path] = ()) -> list[Path | InputError]:
+    """:func:`check_output` for each path, and no two naming the same file (``a.csv``, ``./a.csv``, a symbolic
+    link to it, a hard link): each path's Path, or the InputError (field "output") that refuses it."""
+    inputs = list(inputs)
+    checked: list[Path | InputError] = []
+    seen: list[tuple[str, str | Path]] = []  # (the file a path names, the path as given)
+    for path in paths:
+        try:
+            target = check_output(path, inputs)
+            names = os.path.realpath(target)
+            earlier = next((given for name, given in seen if name == names or _same_file(name, names)), None)
+            if earlier is not None:
+                raise InputError(f"{str(earlier)!r} and {str(path)!r} name the same file", field="output",
+                                 value=str(path), expected="a different file for each output")
+            seen.append((names, path))
+            checked.append(target)
+        except InputError as exc:
+            checked.append(exc)
+    return checked
+
+
+def _same_file(a: str, b: str) -> bool:
+    """Two existing paths naming one file (hard links); False when either does not exist."""
+    try:
+        return os.path.samefile(a, b)
+    except OSError:
+        return False
 
 
 def _mode(target: Path) -> int:

@@ -115,7 +115,6 @@ def run_lines(lines: LineSource, criteria: str | Path | None = None, *, workers:
     :param headroom: also rate each line at its size: how much more flow it carries before a criterion fails
     :param units_row: for a DataFrame, as :func:`boresize.io.dataframe.read_dataframe`'s
     :raises InputError: an unreadable line list, a bad option (naming it)
-    :raises BoresizeError: a worker process died
     """
     if isinstance(workers, bool) or not isinstance(workers, int) or workers < 1:
         raise InputError(f"workers {workers!r} is not a whole number of 1 or more", field="workers", value=workers,

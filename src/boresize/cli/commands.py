@@ -48,16 +48,15 @@ def _workers(args: argparse.Namespace) -> int:
 
 
 def _check_outputs(paths: list[str], lines: str | api.LineList) -> list[Path] | None:
-    """Every ``-o`` checked before any sizing; each unusable one reported with its path. None if any is."""
+    """Every ``-o`` checked before any sizing (two naming one file refused); each unusable one reported with its
+    path. None if any is."""
     outputs: list[Path] = []
-    usable = True
-    for path in paths:
-        try:
-            outputs.append(api.check_output(path, [lines] if isinstance(lines, str) else []))
-        except InputError as exc:
-            print(f"boresize: error: {exc}", file=sys.stderr)
-            usable = False
-    return outputs if usable else None
+    for checked in api.check_outputs(paths, [lines] if isinstance(lines, str) else []):
+        if isinstance(checked, InputError):
+            print(f"boresize: error: {checked}", file=sys.stderr)
+        else:
+            outputs.append(checked)
+    return outputs if len(outputs) == len(paths) else None
 
 
 def _write_outputs(run: api.Run, outputs: list[Path]) -> bool:

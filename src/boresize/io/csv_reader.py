@@ -16,7 +16,8 @@ from pathlib import Path
 
 from boresize.errors import InputError
 from boresize.io.safety import restore
-from boresize.io.rows import ALIASES, BEYOND_HEADER, COLUMNS, REQUIRED, UNBALANCED_QUOTE, Header, parse_header
+from boresize.io.rows import ALIASES, BEYOND_HEADER, COLUMNS, REQUIRED, UNBALANCED_QUOTE, Header, not_read, \
+    parse_header
 
 __all__ = ["RESULT_PREFIX", "LineList", "read_csv", "parse_csv_text", "file_digest", "check_header", "surplus_cells",
            "read_header", "make_line_list"]
@@ -83,6 +84,18 @@ def parse_csv_text(text: str, source: str = "<text>") -> LineList:
     headers: list[Header] = []
     rows = []
     for number, cells, quoted in _records(lines, dialect):
+        if cells and cells[0] == TOO_LONG:
+            length, column, cells = cells[1], cells[2], cells[3:]
+            name = raw_headers[int(column)].strip() if raw_headers and column and int(column) < len(raw_headers) \
+                else "row"
+            fault = InputError(f"a cell of {length} characters on line {number} of {source} is over the limit of "
+                               f"{_field_limit()} characters a cell may hold", field="header" if raw_headers is None
+                               else parse_header(name).field if name != "row" else "row", value=f"{length} characters",
+                               expected=f"a cell of at most {_field_limit()} characters")
+            if raw_headers is None:
+                raise fault
+            rows.append({**{n: restore(c.strip()).strip() for n, c in zip(names, cells) if n}, **not_read(fault)})
+            continue
         if not any(c.strip() for c in cells) or _comment(cells, before_header=raw_headers is None):
             continue
         if raw_headers is None:
@@ -130,17 +143,45 @@ def _records(lines: list[str], dialect: type[csv.Dialect]) -> Iterator[tuple[int
     while start < len(lines):
         reader = csv.reader(iter(lines[start:]), dialect)
         consumed = 0
-        for cells in reader:
-            first, end = start + consumed, start + reader.line_num
-            consumed = reader.line_num
-            if _unbalanced(lines[first:end], dialect, at_end=end == len(lines)):
-                alone = next(csv.reader([lines[first]], dialect), [""])
-                yield first + 1, alone, '"' + alone[-1].rstrip("\r\n") if alone else '"'
-                start = first + 1
-                break
-            yield first + 1, cells, None
-        else:
-            return
+        try:
+            for cells in reader:
+                first, end = start + consumed, start + reader.line_num
+                consumed = reader.line_num
+                if _unbalanced(lines[first:end], dialect, at_end=end == len(lines)):
+                    alone = next(csv.reader([lines[first]], dialect), [""])
+                    yield first + 1, alone, '"' + alone[-1].rstrip("\r\n") if alone else '"'
+                    start = first + 1
+                    break
+                yield first + 1, cells, None
+            else:
+                return
+        except csv.Error as exc:
+            if "field limit" not in str(exc):
+                raise
+            first = start + consumed  # the record holding the cell over the limit: that line alone, as written
+            yield first + 1, _unreadable(lines[first], dialect), None
+            start = first + 1
+
+
+#: The csv module's field limit (csv.field_size_limit(), 131072 characters unless a program changed it).
+def _field_limit() -> int:
+    return csv.field_size_limit()
+
+
+def _unreadable(line: str, dialect: type[csv.Dialect]) -> list[str]:
+    """A line holding a cell over the csv module's field limit, split at its separators up to its first quote (a
+    quoted cell may hold separators), after :data:`TOO_LONG`, the longest cell's length and its column."""
+    limit = _field_limit()
+    quote = line.find('"')
+    cells = line.rstrip("\r\n").split(dialect.delimiter) if quote < 0 else line[:quote].split(dialect.delimiter)[:-1]
+    column = next((i for i, c in enumerate(cells) if len(c) > limit), None)
+    longest = len(cells[column]) if column is not None else len(line.rstrip("\r\n")) - max(quote, 0)  # quote on
+    return [TOO_LONG, str(longest), "" if column is None else str(column),
+            *("" if len(c) > limit else c for c in cells)]
+
+
+#: First cell of :func:`_unreadable`'s row (followed by the cell's length, its column or "", then the cells).
+TOO_LONG = "\x00(cell over the field limit)"
 
 
 def _unbalanced(record: list[str], dialect: type[csv.Dialect], at_end: bool) -> bool:

@@ -8,6 +8,7 @@ field needs a unit from one of the two: a bare number is an error, never a guess
 
 from __future__ import annotations
 
+import json
 import math
 import re
 from collections.abc import Mapping
@@ -18,7 +19,7 @@ from boresize.model import Flow, Line
 from boresize.pipes import normalise_nps, normalise_schedule
 from boresize.units import QuantityKind, parse_flow, parse_quantity
 
-__all__ = ["ALIASES", "UNBALANCED_QUOTE", "COLUMNS", "Header", "parse_header", "line_from_row", "DEFAULT_LENGTH_M"]
+__all__ = ["ALIASES", "UNBALANCED_QUOTE", "NOT_READ", "not_read", "COLUMNS", "Header", "parse_header", "line_from_row", "DEFAULT_LENGTH_M"]
 
 COLUMNS = (
     "tag", "fluid", "flow", "pressure", "temperature", "length", "service", "pipe_class", "nps",
@@ -62,6 +63,10 @@ BEYOND_HEADER = "(beyond the header)"
 #: Key under which the CSV reader marks a row that opens a quote its line does not close (an unbalanced quote);
 #: its value is the text from the opening quote to the end of its line. The rows after it are read on their own, never swallowed into its cell.
 UNBALANCED_QUOTE = "(unbalanced quote)"
+#: Key under which a reader marks a row holding a cell it could not read as text (a TOML table where a value
+#: is expected, a CSV cell over the csv module's field limit): the row is that error, the other rows are read.
+#: Its value is :func:`not_read`'s JSON of the error's field, value, expectation and message.
+NOT_READ = "(not read)"
 #: Key under which :func:`boresize.io.line_items.group_rows` marks a row whose tag an earlier line already has
 #: (same tag, no case or a different line); its value names that earlier row.
 DUPLICATE_TAG = "(tag given before)"
@@ -71,6 +76,17 @@ _NPS_UNITS = frozenset({"in", "inch", "inches", '"'})
 _HEADER = re.compile(r"^\s*([^\[\]]*?)\s*(?:\[(.*)\])?\s*$")
 #: A unit in parentheses closing a header (``Length (m)``, ``Design Margin (%)``): read as in brackets.
 _PAREN_UNIT = re.compile(r"^\s*([^\[\]()]*?)\s*\(([^()]*)\)\s*$")
+
+
+def not_read(error: InputError) -> dict[str, str]:
+    """The cell a reader adds to a row it could not read (see :data:`NOT_READ`)."""
+    value = "" if error.value is None else str(error.value)
+    return {NOT_READ: json.dumps([error.field or "row", value, error.expected or "", error.message])}
+
+
+def _not_read(text: str) -> InputError:
+    field, value, expected, message = json.loads(text)
+    return InputError(message, field=field, value=value, expected=expected or None)
 
 
 @dataclass(frozen=True)
@@ -150,6 +166,8 @@ def line_from_row(row: Mapping[str, object], units: Mapping[str, str | None] | N
     cells = _cells(row)
     tag = cells.get("tag") or (f"row {position}" if position is not None else "(untagged)")
     try:
+        if NOT_READ in cells:
+            raise _not_read(cells[NOT_READ])
         if UNBALANCED_QUOTE in cells:
             quoted = cells[UNBALANCED_QUOTE]
             raise InputError(f"the quote opened in {quoted!r} does not close on its line, so its cells "

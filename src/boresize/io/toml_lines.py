@@ -25,6 +25,7 @@ numbers; a number takes the column's default unit from ``[units]``.
 
 from __future__ import annotations
 
+import datetime
 import sys
 from collections.abc import Mapping
 from pathlib import Path
@@ -32,7 +33,7 @@ from typing import Any
 
 from boresize.errors import InputError
 from boresize.io.csv_reader import LineList, check_header, file_digest
-from boresize.io.rows import parse_header
+from boresize.io.rows import NOT_READ, not_read, parse_header
 
 if sys.version_info >= (3, 11):
     import tomllib
@@ -54,35 +55,67 @@ def read_toml_lines(path: str | Path) -> LineList:
     except (UnicodeDecodeError, tomllib.TOMLDecodeError) as exc:
         raise InputError(f"{path} is not valid TOML: {exc}", field="lines", value=str(path),
                          expected="a UTF-8 TOML file with [[line]] tables") from exc
+    except RecursionError as exc:  # tomllib recurses once per nested array or inline table
+        raise InputError(f"{path} nests arrays or tables too deeply to be read", field="lines", value=str(path),
+                         expected="a UTF-8 TOML file with [[line]] tables, each key a text or a number") from exc
     line_list = lines_from_document(document, str(path))
     line_list.digest = file_digest(path)
     return line_list
 
 
+#: The TOML types that are not a cell's text or number, by the Python type tomllib reads them as.
+_TOML_TYPES = ((bool, "a boolean"), (datetime.datetime, "a date-time"), (datetime.date, "a date"),
+               (datetime.time, "a time"), (dict, "a table"), (list, "an array"))
+
+
+def _shown(value: Any) -> str:
+    """A value as the TOML file wrote it (``true``, ``2026-01-02``), shortened to 60 characters."""
+    text = str(value).lower() if isinstance(value, bool) else \
+        value.isoformat() if isinstance(value, (datetime.date, datetime.time)) else repr(value)
+    return text if len(text) <= 60 else text[:57] + "..."
+
+
 def _cell(value: Any, where: str) -> str:
     if isinstance(value, bool) or not isinstance(value, (str, int, float)):
-        raise InputError(f"{value!r} is neither text nor a number", field=where, value=value,
-                         expected='text such as "45 t/h" or a number')
+        kind = next((name for t, name in _TOML_TYPES if isinstance(value, t)), type(value).__name__)
+        raise InputError(f"{_shown(value)} is {kind}, neither text nor a number", field=where, value=_shown(value),
+                         expected='text (such as "45 t/h" or "5 barg") or a number')
     return value.strip() if isinstance(value, str) else repr(value) if isinstance(value, float) else str(value)
 
 
 def _fields(table: Mapping[str, Any], where: str) -> dict[str, str]:
+    """A line's (or case's) keys as cells; the first key that is not a cell makes the row that error (the rows
+    of the other lines are read)."""
     cells: dict[str, str] = {}
     given: dict[str, str] = {}  # field -> the key that gave it (an alias and its column both given is an error)
+    fault: dict[str, str] = {}
     for key, value in table.items():
         if key == "case" and isinstance(value, list):
             continue
-        if parse_header(key).field == "fluid" and isinstance(value, (list, dict)):  # a composition (issue 3)
-            from boresize.properties.composition import composition_text
-
-            value = composition_text(value)
         name = parse_header(key).field
-        if name in cells:
+        if name in cells:  # as a column given twice in CSV: the whole list's fault
             raise InputError(f"{where} gives {name!r} twice (as {key!r} and as {given[name]!r})", field=f"{where}.{key}",
                              value=key, expected=f"one key for {name!r}")
         given[name] = key
-        cells[name] = _cell(value, f"{where}.{key}")
-    return cells
+        try:
+            if name == "fluid" and isinstance(value, (list, dict)):  # a composition (issue 3)
+                from boresize.properties.composition import composition_text
+
+                value = composition_text(value)
+            cells[name] = _cell(value, name)
+        except InputError as exc:
+            fault = fault or not_read(exc)
+            cells.setdefault(name, "")  # the column is still given: only this line is at fault
+    return {**cells, **fault}
+
+
+def _case_tables(cases: list[Any], where: str) -> dict[str, str]:
+    """A fault when ``case`` is an array of anything but tables (``case = ["normal", "max"]``), else {}."""
+    if all(isinstance(case, dict) for case in cases):
+        return {}
+    return not_read(InputError(f"{_shown(cases)} is an array of names, not of case tables", field="case",
+                               value=_shown(cases), expected='one [[line.case]] table per operating case, each '
+                               'with case = "NAME" and the keys it changes, or case = "NAME" for a single case'))
 
 
 def lines_from_document(document: Mapping[str, Any], source: str = "<toml>") -> LineList:
@@ -99,18 +132,27 @@ def lines_from_document(document: Mapping[str, Any], source: str = "<toml>") -> 
     rows: list[dict[str, str]] = []
     for number, table in enumerate(lines, start=1):
         where = f"line[{number}]"
+        if not isinstance(table, dict):
+            rows.append(not_read(InputError(f"{where} is {_shown(table)}, not a table", field="line",
+                                            value=_shown(table), expected="a [[line]] table of keys")))
+            continue
         base = _fields(table, where)
         cases = table.get("case")
-        if not isinstance(cases, list):
+        if not isinstance(cases, list) or not cases:
             rows.append(base)
+            continue
+        fault = _case_tables(cases, where)
+        if fault:
+            rows.append({**base, **fault})
             continue
         for index, case in enumerate(cases, start=1):
             fields = _fields(case, f"{where}.case[{index}]")
-            if not fields.get("case"):
-                raise InputError("a case without a name", field=f"{where}.case[{index}].case", value="",
-                                 expected='a case name such as "normal" or "maximum"')
+            if not fields.get("case"):  # named by its place, so that it stays one of its line's cases
+                fields = {**fields, "case": f"case[{index}]", **({} if NOT_READ in fields else not_read(InputError(
+                    f"{where}.case[{index}] has no case name", field="case", value="",
+                    expected='a case name such as "normal" or "maximum"')))}
             rows.append({**base, **fields})
-    headers = list(dict.fromkeys(key for row in rows for key in row))
+    headers = list(dict.fromkeys(key for row in rows for key in row if key != NOT_READ))
     check_header(headers, headers, source)  # a misspelt key ("lenght") would be ignored: refuse it
     shown = [f"{h} [{units[h]}]" if units.get(h) else h for h in headers]
     return LineList(rows=rows, units={h: units.get(h) for h in headers}, source=source, headers=shown)

@@ -19,6 +19,7 @@ from typing import Any
 
 from boresize.errors import InputError
 from boresize.io.csv_reader import LineList, file_digest, make_line_list, read_header, surplus_cells
+from boresize.io.rows import BEYOND_HEADER
 from boresize.io.safety import FORMULA_STARTS, as_number, restore
 from boresize.io.sheet_rows import candidate_rows, result_rows
 from boresize.model import LineResult
@@ -51,38 +52,79 @@ def _open(path: str | Path, data_only: bool) -> Any:
                          value=str(path), expected="an .xlsx file saved by a spreadsheet program") from exc
 
 
-def _sheet_rows(path: str | Path) -> list[list[Any]]:
-    """The cells of the line sheet; formula cells replaced by their saved values."""
-    book = _open(path, data_only=False)
+def _line_sheet(book: Any) -> Any:
+    """The sheet named ``lines``, else the first; its cells read as stored, not up to its declared dimension."""
     sheet = book["lines"] if "lines" in book.sheetnames else book.worksheets[0]
-    cells = [list(row) for row in sheet.iter_rows()]
-    formulas = {(r, c) for r, row in enumerate(cells) for c, cell in enumerate(row) if cell.data_type == "f"}
-    values = [[cell.value for cell in row] for row in cells]
+    if hasattr(sheet, "reset_dimensions"):
+        # A stray cell at XFD1048576 declares 2**20 rows by 2**14 columns: read only the cells the file holds.
+        sheet.reset_dimensions()
+    return sheet
+
+
+def _present(row: Sequence[Any]) -> list[Any]:
+    """A row's cells up to its last cell holding a value (trailing formatted but empty cells left off)."""
+    end = len(row)
+    while end and getattr(row[end - 1], "value", None) is None:
+        end -= 1
+    return list(row[:end])
+
+
+def _sheet_rows(path: str | Path) -> list[tuple[int, list[Any]]]:
+    """The cells of the line sheet that hold values, row by row (rows without a value left off); formula cells
+    replaced by their saved values. Memory and time follow the cells present, not the sheet's dimension."""
+    book = _open(path, data_only=False)
+    kept: dict[int, list[Any]] = {}
+    for number, row in enumerate(_line_sheet(book).iter_rows(), start=1):
+        cells = _present(row) if row else []
+        if cells:
+            kept[number] = cells
     book.close()
+    formulas = {(r, c) for r, row in kept.items() for c, cell in enumerate(row) if cell.data_type == "f"}
+    values = {r: [cell.value for cell in row] for r, row in kept.items()}
     if formulas:
+        rows_with_formulas = {r for r, _ in formulas}
         saved = _open(path, data_only=True)
-        sheet = saved["lines"] if "lines" in saved.sheetnames else saved.worksheets[0]
-        cached = [list(row) for row in sheet.iter_rows(values_only=True)]
+        cached: dict[int, tuple[Any, ...]] = {}
+        for number, row in enumerate(_line_sheet(saved).iter_rows(values_only=True), start=1):
+            if number in rows_with_formulas:
+                cached[number] = tuple(row)
+            if number >= max(rows_with_formulas):
+                break
         saved.close()
         for r, c in sorted(formulas):
-            if cached[r][c] is None:
-                name = cells[r][c].coordinate
+            value = cached.get(r, ())[c] if c < len(cached.get(r, ())) else None
+            if value is None:
+                name = kept[r][c].coordinate
                 raise InputError(f"cell {name} holds a formula without a saved value", field="lines", value=name,
                                  expected="a workbook saved by a spreadsheet program, or the value typed in")
-            values[r][c] = cached[r][c]
-    return values
+            values[r][c] = value
+    return [(r, values[r]) for r in sorted(values)]
+
+
+def _surplus(raw_headers: list[str], number: int, row: list[str]) -> dict[str, str]:
+    """The row's cells under no header, each with its cell name (``'x' in XFD1048576``)."""
+    from openpyxl.utils import get_column_letter
+
+    if not surplus_cells(raw_headers, row):
+        return {}
+    heads = raw_headers + [""] * max(0, len(row) - len(raw_headers))
+    shown = [f"{cell!r} in {get_column_letter(c + 1)}{number}" for c, (cell, head) in enumerate(zip(row, heads))
+             if cell and not head.strip()]
+    return {BEYOND_HEADER: ", ".join(shown)}
 
 
 def read_xlsx(path: str | Path) -> LineList:
     """Read an XLSX line list (result columns, headed ``result.``, are skipped)."""
-    rows = [[cell_text(v) for v in row] for row in _sheet_rows(path)]
-    rows = [row for row in rows if any(row)]
+    rows = [(number, [cell_text(v) for v in row]) for number, row in _sheet_rows(path)]
+    rows = [(number, row) for number, row in rows if any(row)]
     if not rows:
         raise InputError(f"{path} holds no header row", field="lines", value=str(path),
                          expected="a header row such as tag,fluid,flow,pressure,temperature")
-    raw_headers = rows[0]
+    raw_headers = rows[0][1]
     headers, names = read_header(raw_headers, str(path))
-    data = [{**{name: cell for name, cell in zip(names, row) if name}, **surplus_cells(raw_headers, row)} for row in rows[1:]]
+    width = len(raw_headers)
+    data = [{**{name: cell for name, cell in zip(names, row + [""] * (width - len(row))) if name},
+             **_surplus(raw_headers, number, row)} for number, row in rows[1:]]
     return make_line_list(data, headers, names, raw_headers, str(path), file_digest(path))
 
 

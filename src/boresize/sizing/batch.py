@@ -6,7 +6,9 @@ it takes its sizer for a :class:`SizerSpec` (criteria file and its content diges
 points, corroded roughness) from :func:`shared_sizer`, once, in the executor's initializer: a worker forked
 from a parent that holds a sizer for that spec finds the parent's there, any other builds its own. The
 parent sends whole lines (:data:`Item`) in chunks. Results come back in input order whatever order the chunks finish in. A line's fault stays on
-that line (an ``error`` result); only a worker process that dies stops the batch.
+that line (an ``error`` result). So does a worker process that dies (a plugin's ``os._exit``, SIGKILL, memory
+running out): the chunks it left are run again one at a time on a fresh process, and a line that ends that
+process too gets an ``error`` result saying so (:data:`WORKER_DIED`); the other lines are sized.
 
 Any :class:`concurrent.futures.Executor` can be passed (a thread pool, a cluster's executor): the
 task builds the worker's sizer on first use when no initializer did.
@@ -20,7 +22,7 @@ import math
 import multiprocessing
 import sys
 import threading
-from collections.abc import Callable, Iterator, Sequence, Sized
+from collections.abc import Callable, Iterator, Sequence
 from concurrent.futures import Executor, ProcessPoolExecutor, as_completed
 from concurrent.futures.process import BrokenProcessPool
 from contextlib import AbstractContextManager, contextmanager, nullcontext
@@ -35,7 +37,7 @@ from boresize.sizing import cases as _cases
 from boresize.sizing.engine import Sizer
 from boresize.sizing.selection import error_result
 
-__all__ = ["PROGRESS_THRESHOLD", "Item", "SizerSpec", "process_pool", "run_items", "run_chunks", "shared_sizer",
+__all__ = ["PROGRESS_THRESHOLD", "Item", "SizerSpec", "process_pool", "run_items", "run_chunks", "shared_sizer", "WORKER_DIED",
            "size_item", "spec_for", "summary"]
 
 #: A run of at least this many lines shows a progress bar on a terminal without being asked [lines].
@@ -242,7 +244,6 @@ def run_items(items: Sequence[Item], spec: SizerSpec | None = None, *, sizer: Si
     :param chunk_size: lines per task (default: about eight tasks per worker, 1 to 64 lines each)
     :param retry_hint: how the caller asks for one process, for the message when a worker dies
     :raises InputError: a parallel run given a ``sizer`` but no ``spec`` (workers could not rebuild it)
-    :raises BoresizeError: a worker process died (the line at fault is not known)
     """
     parallel = executor is not None or workers > 1
     if parallel and spec is None and sizer is not None:
@@ -266,13 +267,21 @@ def run_items(items: Sequence[Item], spec: SizerSpec | None = None, *, sizer: Si
     if not rest:
         return head
     return head + run_chunks(_run_chunk, spec, _chunks(rest, workers, chunk_size), executor=executor,
-                             workers=workers, retry_hint=retry_hint, progress=bar, already_done=len(head))
+                             workers=workers, retry_hint=retry_hint, progress=bar, already_done=len(head),
+                             lost=_lost)
 
 
-def run_chunks(task: Callable[[SizerSpec, Any], list[Any]], spec: SizerSpec, chunks: Sequence[Sized], *,
+def _lost(item: Item, cause: str) -> LineResult:
+    """The ``error`` result of a line whose worker process died while sizing it."""
+    first = item if isinstance(item, (Line, RowFault)) else item[0]
+    mode = first.mode if isinstance(first, RowFault) else "check" if first.nps else "size"
+    return error_result(first.tag, BoresizeError(cause), mode=mode)
+
+
+def run_chunks(task: Callable[[SizerSpec, Any], list[Any]], spec: SizerSpec, chunks: Sequence[Sequence[Any]], *,
                executor: Executor | None, workers: int, retry_hint: str,
                progress: Callable[[], AbstractContextManager[Callable[[int], None]]] | None = None,
-               already_done: int = 0) -> list[Any]:
+               already_done: int = 0, lost: Callable[[Any, str], Any] | None = None) -> list[Any]:
     """Run ``task(spec, chunk)`` for every chunk on ``executor`` (or on ``workers`` processes started here and
     shut down after); results come back in chunk order, whatever order the chunks finish in.
 
@@ -280,26 +289,76 @@ def run_chunks(task: Callable[[SizerSpec, Any], list[Any]], spec: SizerSpec, chu
     :param progress: makes the progress bar, entered after every chunk is submitted (a forked pool starts its
         processes at the first submit, before the bar's thread); advanced by the lines of each finished chunk
     :param already_done: lines done before (shown on the bar from the start)
-    :raises BoresizeError: a worker process died
+    :param lost: the result of one item whose worker process died (given the item and the cause); with it, the
+        chunks a dead worker left unfinished are run again one by one on a fresh process, and an item that ends
+        that process too gets ``lost``'s result
+    :raises BoresizeError: a worker process died and no ``lost`` was given
     """
     pool = executor or process_pool(workers, spec)
+    done: list[list[Any] | None] = [None for _ in chunks]
     try:
         with _COLLECTOR_PAUSE:
             futures = {pool.submit(task, spec, chunk): i for i, chunk in enumerate(chunks)}
-            done: list[list[Any]] = [[] for _ in chunks]
             with (progress or nullcontext)() as advance:
                 step = advance if advance is not None else (lambda n: None)
                 step(already_done)
                 for future in as_completed(futures):
-                    done[futures[future]] = future.result()
+                    try:
+                        done[futures[future]] = future.result()
+                    except BrokenProcessPool:
+                        if lost is None:
+                            raise
+                        continue
                     step(len(chunks[futures[future]]))
-            return [result for chunk in done for result in chunk]
+                left = [i for i, chunk in enumerate(done) if chunk is None]
+                if lost is not None and left:
+                    for i, results in zip(left, _isolated(task, spec, [chunks[i] for i in left], lost)):
+                        done[i] = results
+                        step(len(results))
     except BrokenProcessPool as exc:
         raise BoresizeError(f"a worker process stopped unexpectedly ({exc}); run again with {retry_hint} to "
                             f"find the line that stops it") from exc
     finally:
         if executor is None:
             pool.shutdown(wait=True, cancel_futures=True)
+    return [result for chunk in done for result in chunk or ()]
+
+
+#: Why an item has no result of its own when its worker process ended (``lost`` in :func:`run_chunks`).
+WORKER_DIED = ("the worker process sizing it ended unexpectedly (a plugin ending its process, such as os._exit, "
+               "a signal such as SIGKILL, or the memory running out); the other lines are sized")
+
+
+def _isolated(task: Callable[[SizerSpec, Any], list[Any]], spec: SizerSpec, chunks: Sequence[Sequence[Any]],
+              lost: Callable[[Any, str], Any]) -> list[list[Any]]:
+    """The chunks a dead worker left unfinished, run again one at a time on one fresh process (replaced when it
+    ends); a chunk that ends it is run item by item, so that only an item that ends its process gets ``lost``'s
+    result."""
+    shared_sizer(spec)  # built here once, so that each process forked below inherits it
+    pool: list[ProcessPoolExecutor] = []
+
+    def attempt(chunk: Sequence[Any]) -> list[Any] | None:
+        if not pool:
+            pool.append(process_pool(1, spec))
+        try:
+            return pool[0].submit(task, spec, chunk).result()
+        except BrokenProcessPool:
+            pool.pop().shutdown(wait=True, cancel_futures=True)
+            return None
+
+    def run(chunk: Sequence[Any]) -> list[Any]:
+        results = attempt(chunk)
+        if results is not None:
+            return results
+        if len(chunk) == 1:
+            return [lost(chunk[0], WORKER_DIED)]
+        return [result for item in chunk for result in run([item])]
+
+    try:
+        return [run(chunk) for chunk in chunks]
+    finally:
+        for executor in pool:
+            executor.shutdown(wait=True, cancel_futures=True)
 
 
 def summary(results: Sequence[LineResult]) -> str:

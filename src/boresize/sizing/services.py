@@ -119,6 +119,10 @@ def read_toml(path: str | Path) -> dict[str, Any]:
     except tomllib.TOMLDecodeError as exc:
         raise CriteriaFileError(f"{path} is not valid TOML: {exc}", field="criteria", value=str(path),
                                 expected="a TOML file with [service.NAME] and [pipe_class.NAME] tables") from exc
+    except RecursionError as exc:  # tomllib recurses once per nested array or inline table
+        raise CriteriaFileError(f"{path} nests arrays or tables too deeply to be read", field="criteria",
+                                value=str(path), expected="a TOML file with [service.NAME] and [pipe_class.NAME] "
+                                "tables") from exc
 
 
 def _shipped_documents() -> list[tuple[str, dict[str, Any]]]:

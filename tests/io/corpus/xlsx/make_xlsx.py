@@ -11,6 +11,7 @@ import datetime
 from pathlib import Path
 
 from openpyxl import Workbook
+from openpyxl.styles import Font
 
 HERE = Path(__file__).parent
 HEADER = ["tag", "fluid", "flow", "pressure", "temperature"]
@@ -33,6 +34,13 @@ WORKBOOKS: dict[str, list[list[object]]] = {
     "missing_header.xlsx": [OK_1, OK_2],
     # A formula never calculated by a spreadsheet program (no saved value).
     "formula_without_value.xlsx": [HEADER, OK_1, ["XL-FORMULA", "water", "=10*2 & \" t/h\"", "5 barg", "20 degC"]],
+    # One stray cell at the sheet's last cell (set below): a 5 KB file whose declared dimension is
+    # 2**20 rows by 2**14 columns; only the cells present are read.
+    "lim_stray_cell.xlsx": [HEADER, OK_1, OK_2],
+}
+#: Single cells set after the rows: workbook -> (cell, value; None for a formatted cell without a value).
+STRAY_CELLS: dict[str, list[tuple[str, object]]] = {
+    "lim_stray_cell.xlsx": [("XFD1048576", "stray"), ("XFD3", None)],
 }
 
 
@@ -43,6 +51,9 @@ def main() -> None:
         sheet.title = "lines"
         for row in rows:
             sheet.append(row)
+        for coordinate, value in STRAY_CELLS.get(name, []):
+            sheet[coordinate].value = value
+            sheet[coordinate].font = Font(bold=True)
         book.save(HERE / name)
     # Not a workbook at all: CSV text saved under an .xlsx name.
     (HERE / "not_a_workbook.xlsx").write_text(",".join(HEADER) + "\n" + ",".join(OK_1) + "\n", encoding="utf-8")
