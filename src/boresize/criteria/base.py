@@ -81,6 +81,8 @@ def parse_options(criterion: Any, given: Mapping[str, object], where: str) -> di
             continue
         if given_here:
             _check_given(spec, raw, field)
+            if spec.flag:  # true/false (or 1/0), checked above
+                raw = float(raw)  # type: ignore[arg-type]
         try:  # a value from the file carries its own unit; only a declared default takes default_unit
             values[name] = parse_quantity(raw, field, spec.kind, None if given_here else spec.default_unit)
         except InputError as exc:
@@ -105,7 +107,7 @@ def documented_unit(spec: OptionSpec) -> str | None:
 def _bare_number(raw: object) -> str | None:
     """The text of a value that is a number without a unit (50, 50.0, "50"), else None."""
     if isinstance(raw, numbers.Real) and not isinstance(raw, bool):
-        text = str(raw)
+        text = str(raw) if isinstance(raw, numbers.Integral) else f"{float(raw):.15g}"  # 1e3 -> "1000"
     elif isinstance(raw, str):
         text = raw.strip()
     else:
