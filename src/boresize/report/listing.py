@@ -5,7 +5,7 @@ from __future__ import annotations
 from collections.abc import Mapping
 from typing import Any
 
-from boresize.criteria.base import option_text
+from boresize.criteria.base import documented_unit, option_text
 from boresize.sizing.services import SizingConfig
 from boresize.plugins import PluginHost
 
@@ -28,7 +28,8 @@ def render_criteria(host: PluginHost, config: SizingConfig) -> str:
     for c in host.criteria:
         out.append(f"  {c.id:<18} {c.title}  [plugin {host.criteria.owner(c.id)}]")
         for spec in c.options:
-            unit = f" [{spec.default_unit}]" if spec.default_unit else ""
+            documented = "true/false" if spec.flag else documented_unit(spec)
+            unit = f" [{documented}]" if documented else ""
             out.append(f"      {spec.name}{unit}: {spec.help}")
     out.append("")
     out.append(f"Criteria sets by service (set {config.version}; from {config.origin}):")
