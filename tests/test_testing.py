@@ -196,7 +196,8 @@ def test_size_line_sizes_with_the_plugin_registered_and_its_criteria_file(tmp_pa
     with pytest.raises(CriteriaFileError) as info:  # without the plugin the file names an unknown criterion
         size_line(small, criteria=path)
     assert str(info.value) == (
-        "service.bore.acme-minimum-bore: unknown criterion 'acme-minimum-bore'; expected a criterion id (erosional, "
+        f"service.bore.acme-minimum-bore: unknown criterion 'acme-minimum-bore' (in {path}); expected a criterion id "
+        "(erosional, "
         "drop-per-length, velocity, npsh-margin, gravity-drain, flashing, momentum, noise-velocity, mach, "
         "outlet-pressure) or one of description, phase, design_margin, pipe_class, version")
 

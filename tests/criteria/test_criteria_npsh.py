@@ -133,7 +133,7 @@ def test_missing_vapour_pressure_is_named_with_the_backend():
 @pytest.mark.parametrize(("given", "message"), [
     ({"ratio": 0.9}, "ratio 0.9 is below 1"),
     ({"min_margin": "-1 m"}, "min_margin -1 m is negative"),
-    ({"at_bubble_point": 2}, "at_bubble_point 2 is not true or false"),
+    ({"at_bubble_point": 2}, "at_bubble_point = 2 is not true or false"),
 ])
 def test_bad_npsh_options_are_named(given, message):
     with pytest.raises(CriteriaFileError, match=message):

@@ -62,8 +62,9 @@ def test_every_shipped_value_names_its_source():
 
 
 def test_a_service_shipped_twice_is_named(monkeypatch, host):
-    twice = [("a.toml", {"name": "a", "version": "1", "service": {"x": {"phase": "liquid"}}}),
-             ("b.toml", {"name": "b", "version": "1", "service": {"x": {"phase": "liquid"}}})]
+    service = {"phase": "liquid", "velocity": {"max": "3 m/s"}}
+    twice = [("a.toml", {"name": "a", "version": "1", "service": {"x": service}}),
+             ("b.toml", {"name": "b", "version": "1", "service": {"x": service}})]
     monkeypatch.setattr(config_module, "_shipped_documents", lambda: twice)
     with pytest.raises(CriteriaFileError, match="service 'x' is shipped twice, in a.toml and b.toml"):
         load_config(host)
@@ -190,8 +191,9 @@ def test_banded_sizing_end_to_end(sizer):
 def test_the_listing_shows_bands_and_set_versions(host):
     text = render_criteria(host, load_config(host))
     assert "pump-suction (liquid): pump suction, subcooled liquid  [set boresize-liquid 2026.2]" in text
-    assert "        NPS up to 2: max=0.9 SI" in text
-    assert "        inlet pressure up to 80 bar abs: max=1.25e+04 SI" in text
+    # options as a criteria file writes them, in the unit each is documented in (liquid.toml, gas.toml)
+    assert "        NPS up to 2: max = 0.9 m/s" in text
+    assert "        inlet pressure up to 80 bar abs: max = 12500 Pa" in text
 
 
 def test_sizer_accepts_the_shipped_sets_for_every_service(host):
@@ -232,3 +234,30 @@ def test_a_raising_plugin_criterion_in_bands_is_named_and_the_batch_goes_on(tmp_
     assert first.status == "error"
     assert "criterion 'acme-raises' of plugin '_RaisingPlugin' raised ZeroDivisionError" in first.error
     assert second.status == "pass"
+
+
+def test_the_listing_shows_options_as_a_criteria_file_writes_them(host, tmp_path: Path):
+    # Each option in the unit it is documented in (OptionSpec.default_unit), flags as true/false, plain numbers
+    # bare. 10 ft/s = 3.048 m/s (1 ft = 0.3048 m exactly); 5 psi = 0.344738 bar (1 psi = 6894.757 Pa, NIST SP 811);
+    # 400 Pa/m = 40 kPa/100 m.
+    path = tmp_path / "acme.toml"
+    path.write_text(textwrap.dedent("""
+        [service.acme]
+        phase = "liquid"
+        description = "acme water"
+        velocity = { max = "10 ft/s" }
+        flashing = { margin = "5 psi", warn_only = true }
+        erosional = { c_us = 125 }
+        drop-per-length = { max = "400 Pa/m" }
+    """))
+    lines = render_criteria(host, load_config(host, path)).splitlines()
+    start = lines.index("  acme (liquid): acme water  [set acme.toml unversioned]")
+    assert lines[start + 1:start + 6] == [
+        "      velocity: max = 3.048 m/s",
+        "      flashing: margin = 0.344738 bar, warn_only = true",
+        "      erosional: c_us = 125",
+        "      drop-per-length: max = 40 kPa/100 m",
+        "      line-feasibility: defaults",
+    ]
+    text = "\n".join(lines)
+    assert " SI" not in text

@@ -44,7 +44,7 @@ def test_a_criteria_file_cannot_weaken_it(host, tmp_path: Path, value: str, show
         load_config(host, path)
     assert str(caught.value) == (
         "service.weak.line-feasibility: line-feasibility cannot be removed, weakened or banded: it has no options "
-        "and every service gets it; expected line-feasibility = {} or nothing (it is always applied)")
+        f"and every service gets it (in {path}); expected line-feasibility = {{}} or nothing (it is always applied)")
     assert caught.value.value == shown
 
 

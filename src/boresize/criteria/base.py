@@ -7,15 +7,17 @@ reads (see :class:`Criterion`). :class:`Criterion` is a convenient base class; p
 
 from __future__ import annotations
 
+import math
+import numbers
 from collections.abc import Mapping
 from dataclasses import dataclass
 from typing import Any, Literal
 
 from boresize.errors import CriteriaFileError, InputError
 from boresize.model import Candidate, FluidState, Hydraulics, Line, Verdict, VerdictStatus
-from boresize.units import QuantityKind, parse_quantity
+from boresize.units import QuantityKind, format_unit_help, parse_quantity
 
-__all__ = ["OptionSpec", "CriterionContext", "Criterion", "SizeTrend", "parse_options", "verdict"]
+__all__ = ["OptionSpec", "CriterionContext", "Criterion", "SizeTrend", "documented_unit", "option_text", "parse_options", "verdict"]
 
 #: How a criterion's fails respond to the pipe size (see :class:`Criterion`).
 SizeTrend = Literal["larger-passes", "falls-with-size"]
@@ -26,10 +28,14 @@ class OptionSpec:
     """One option of a criterion.
 
     :param name: key in the criteria file
-    :param kind: the quantity kind it is parsed as (see :func:`boresize.units.parse_quantity`)
+    :param kind: the quantity kind it is parsed as (see :func:`boresize.units.parse_quantity`). A criteria
+        file must give an option of any kind but ``"dimensionless"`` with its unit (``max = "3 m/s"``): a bare
+        number there is an error, as in a line list
     :param default: value used when the service does not give one (a string with its unit), or None
-    :param default_unit: unit for a bare number in the criteria file
+    :param default_unit: the unit the option is documented in: the example of the message for a bare number,
+        the unit ``boresize criteria`` shows it in, and the unit of a bare number in ``default``
     :param help: one line for ``boresize criteria``
+    :param flag: a true/false option (``warn_only = true``), shown as true or false
     """
 
     name: str
@@ -37,6 +43,7 @@ class OptionSpec:
     default: str | float | None = None
     default_unit: str | None = None
     help: str = ""
+    flag: bool = False
 
 
 @dataclass(frozen=True)
@@ -67,17 +74,80 @@ def parse_options(criterion: Any, given: Mapping[str, object], where: str) -> di
         )
     values: dict[str, float] = {}
     for name, spec in specs.items():
-        raw = given.get(name, spec.default)
+        field = f"{where}.{name}"
+        given_here = name in given
+        raw = given[name] if given_here else spec.default
         if raw is None:
             continue
-        try:
-            values[name] = parse_quantity(raw, f"{where}.{name}", spec.kind, spec.default_unit)
+        if given_here:
+            _check_given(spec, raw, field)
+            if spec.flag:  # true/false (or 1/0), checked above
+                raw = float(raw)  # type: ignore[arg-type]
+        try:  # a value from the file carries its own unit; only a declared default takes default_unit
+            values[name] = parse_quantity(raw, field, spec.kind, None if given_here else spec.default_unit)
         except InputError as exc:
             raise CriteriaFileError(exc.message, field=exc.field, value=exc.value, expected=exc.expected) from exc
     check = getattr(criterion, "check_options", None)
     if check is not None:
         check(values, where)
     return values
+
+
+def documented_unit(spec: OptionSpec) -> str | None:
+    """The unit an option is written and shown in: its ``default_unit``, else the first unit its kind's help
+    names (``barg`` for a pressure); None for a plain number."""
+    if spec.kind == "dimensionless":
+        return spec.default_unit
+    if spec.default_unit:
+        return spec.default_unit
+    help_text = format_unit_help(spec.kind)  # "a velocity (m/s, ft/s)"
+    return help_text.partition("(")[2].split(",")[0].rstrip(")").strip() or None
+
+
+def _bare_number(raw: object) -> str | None:
+    """The text of a value that is a number without a unit (50, 50.0, "50"), else None."""
+    if isinstance(raw, numbers.Real) and not isinstance(raw, bool):
+        text = str(raw) if isinstance(raw, numbers.Integral) else f"{float(raw):.15g}"  # 1e3 -> "1000"
+    elif isinstance(raw, str):
+        text = raw.strip()
+    else:
+        return None
+    try:  # NaN and infinity are left to parse_quantity, which refuses them as not finite
+        return text if math.isfinite(float(text)) else None
+    except (ValueError, OverflowError):
+        return None
+
+
+def _check_given(spec: OptionSpec, raw: object, field: str) -> None:
+    """A dimensional option given without a unit, or a flag given as anything but true/false: an error."""
+    if spec.flag:
+        if not (isinstance(raw, bool) or (isinstance(raw, (int, float)) and raw in (0, 1))):
+            raise CriteriaFileError(f"{spec.name} = {raw!r} is not true or false", field=field, value=raw,
+                                    expected=f"{spec.name} = true or {spec.name} = false")
+        return
+    if spec.kind == "dimensionless":
+        return
+    bare = _bare_number(raw)
+    if bare is not None:
+        noun = format_unit_help(spec.kind).partition(" (")[0]
+        raise CriteriaFileError(f"{spec.name} = {bare} has no unit", field=field, value=raw,
+                                expected=f'{noun} with its unit, e.g. {spec.name} = "{bare} {documented_unit(spec)}"')
+
+
+def option_text(spec: OptionSpec, value: float) -> str:
+    """An option's value [SI] as a user writes it: ``max = 40 kPa/100 m``, ``warn_only = true``, ``ratio = 1.1``."""
+    if spec.flag:
+        return f"{spec.name} = {'true' if value else 'false'}"
+    unit = documented_unit(spec)
+    if spec.kind == "dimensionless" or unit is None:
+        return f"{spec.name} = {value:.6g}"
+    try:  # linear in the unit (barg has an offset): two points of it give slope and offset
+        one = parse_quantity(f"1 {unit}", spec.name, spec.kind)
+        two = parse_quantity(f"2 {unit}", spec.name, spec.kind)
+    except InputError:  # a plugin's unit that does not parse: show SI rather than fail a listing
+        return f"{spec.name} = {value:.6g} (SI)"
+    shown = (value - (2 * one - two)) / (two - one)
+    return f"{spec.name} = {shown:.6g} {unit}"
 
 
 def verdict(

@@ -54,7 +54,8 @@ class Flashing(Criterion):
     source = "physics: a liquid boils where its pressure falls below its vapour or bubble pressure"
     options = (
         OptionSpec("margin", "pressure_difference", "0 bar", "bar", "keep the lowest pressure this far above P_vap"),
-        OptionSpec("warn_only", "dimensionless", 0, None, "true: a line that would flash gets warn, not fail"),
+        OptionSpec("warn_only", "dimensionless", 0, None, "true: a line that would flash gets warn, not fail",
+                   flag=True),
     )
 
     def check_options(self, values: Mapping[str, float], where: str) -> None:

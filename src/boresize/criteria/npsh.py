@@ -85,7 +85,7 @@ class NpshMargin(Criterion):
         OptionSpec("ratio", "dimensionless", 1.1, None, "NPSHa/NPSHr at least this (ANSI/HI 9.6.1: 1.1 to 1.2)"),
         OptionSpec("min_margin", "length", "1 m", "m", "NPSHa - NPSHr at least this (ANSI/HI 9.6.1: 0.6 to 1 m)"),
         OptionSpec("at_bubble_point", "dimensionless", 0, None,
-                   "true: the source liquid is at its bubble point, vapour pressure = source pressure"),
+                   "true: the source liquid is at its bubble point, vapour pressure = source pressure", flag=True),
     )
 
     def check_options(self, values: Mapping[str, float], where: str) -> None:

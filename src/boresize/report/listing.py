@@ -2,6 +2,10 @@
 
 from __future__ import annotations
 
+from collections.abc import Mapping
+from typing import Any
+
+from boresize.criteria.base import documented_unit, option_text
 from boresize.sizing.services import SizingConfig
 from boresize.plugins import PluginHost
 
@@ -12,12 +16,20 @@ def _fmt(value: float) -> str:
     return f"{value:.4g}"
 
 
+def _options(criterion: Any, options: Mapping[str, float]) -> str:
+    """The options as a criteria file writes them: ``max = 40 kPa/100 m, warn_only = false``."""
+    specs = {spec.name: spec for spec in criterion.options}
+    return ", ".join(option_text(specs[name], value) if name in specs else f"{name} = {_fmt(value)}"
+                     for name, value in options.items())
+
+
 def render_criteria(host: PluginHost, config: SizingConfig) -> str:
     out = ["Installed criteria:"]
     for c in host.criteria:
         out.append(f"  {c.id:<18} {c.title}  [plugin {host.criteria.owner(c.id)}]")
         for spec in c.options:
-            unit = f" [{spec.default_unit}]" if spec.default_unit else ""
+            documented = "true/false" if spec.flag else documented_unit(spec)
+            unit = f" [{documented}]" if documented else ""
             out.append(f"      {spec.name}{unit}: {spec.help}")
     out.append("")
     out.append(f"Criteria sets by service (set {config.version}; from {config.origin}):")
@@ -26,10 +38,10 @@ def render_criteria(host: PluginHost, config: SizingConfig) -> str:
         phase = f" ({', '.join(service.accepts)})" if service.accepts else ""
         out.append(f"  {name}{phase}: {service.description}  [set {service.set_name} {service.version}]")
         for criterion, options in service.criteria:
-            shown = ", ".join(f"{k}={_fmt(v)} SI" for k, v in options.items()) or "defaults"
+            shown = _options(criterion, options) or "defaults"
             out.append(f"      {criterion.id}: {shown}" if not hasattr(criterion, "bands") else f"      {criterion.id}:")
             for band in getattr(criterion, "bands", ()):  # limits banded by NPS and pressure
-                out.append(f"        {band.label}: " + ", ".join(f"{k}={_fmt(v)} SI" for k, v in band.options.items()))
+                out.append(f"        {band.label}: {_options(criterion, band.options)}")
     out.append("")
     out.append("A line without a service gets 'liquid' or 'gas' by its phase.")
     return "\n".join(out) + "\n"

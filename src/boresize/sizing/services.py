@@ -160,6 +160,12 @@ def _service(name: str, table: Mapping[str, Any], host: PluginHost, origin: str,
             raise CriteriaFileError("criterion options must be a table", field=f"{where}.{key}", value=options,
                                     expected='an inline table such as { max = "3 m/s" }')
         criteria.append(resolve_criterion(host.criteria.get(key), options, f"{where}.{key}"))
+    if not criteria:  # line-feasibility alone passes every line at the smallest size that carries the flow
+        raise CriteriaFileError(
+            f"service {name!r} in {origin} lists no criteria, so every line would pass at the smallest size",
+            field=where, value=name,
+            expected=f'at least one criterion besides {FEASIBILITY_ID}, e.g. velocity = {{ max = "3 m/s" }} '
+                     f'(criteria: {", ".join(_named_ids(host))})')
     phases = _phases(table.get("phase"), where)
     margin = parse_quantity(table.get("design_margin", 0.0), f"{where}.design_margin", "dimensionless")
     if not 0.0 <= margin < 1.0:  # a negative margin would shrink the sizing flow: a silently small size
@@ -248,7 +254,11 @@ def load_config(host: PluginHost, path: str | Path | None = None) -> SizingConfi
     if path is not None:
         document = read_toml(path)
         label = (_label(document, "name", Path(path).name), _label(document, "version", "unversioned"))
-        _merge(config, document, host, str(path), label)
+        try:
+            _merge(config, document, host, str(path), label)
+        except CriteriaFileError as exc:  # name the file: a fault in it is not one of the shipped sets'
+            message = exc.message if str(path) in exc.message else f"{exc.message} (in {path})"
+            raise CriteriaFileError(message, field=exc.field, value=exc.value, expected=exc.expected) from exc
         config.origin = str(path)
         if "version" in document:
             config.version = f"{config.version} + {label[1]}"
