@@ -31,6 +31,7 @@ class LineList:
 
     :param headers: the input column headers as written (``"length [m]"``), result columns left out
     :param digest: SHA-256 of the file read, for the traceability record
+    :param row_units: per row, default units that row's own keys give (a TOML key ``"length (m)"``), over ``units``
     """
 
     rows: list[dict[str, str]]
@@ -38,9 +39,13 @@ class LineList:
     source: str
     headers: list[str] = field(default_factory=list)
     digest: str | None = None
+    row_units: list[dict[str, str]] = field(default_factory=list)
 
     def pairs(self) -> list[tuple[dict[str, str], dict[str, str | None]]]:
-        return [(row, self.units) for row in self.rows]
+        if not self.row_units:
+            return [(row, self.units) for row in self.rows]
+        own = self.row_units + [{}] * (len(self.rows) - len(self.row_units))
+        return [(row, {**self.units, **units} if units else self.units) for row, units in zip(self.rows, own)]
 
 
 def read_csv(path: str | Path) -> LineList:

@@ -66,7 +66,9 @@ def _cell(value: Any, where: str) -> str:
     return value.strip() if isinstance(value, str) else repr(value) if isinstance(value, float) else str(value)
 
 
-def _fields(table: Mapping[str, Any], where: str) -> dict[str, str]:
+def _fields(table: Mapping[str, Any], where: str, units: dict[str, str | None] | None = None) -> dict[str, str]:
+    """The cells of a line or case table by field; ``units`` gets each key's unit (``"length (m)"``: m), None
+    for a key without one."""
     cells: dict[str, str] = {}
     given: dict[str, str] = {}  # field -> the key that gave it (an alias and its column both given is an error)
     for key, value in table.items():
@@ -76,7 +78,10 @@ def _fields(table: Mapping[str, Any], where: str) -> dict[str, str]:
             from boresize.properties.composition import composition_text
 
             value = composition_text(value)
-        name = parse_header(key).field
+        header = parse_header(key)
+        name = header.field
+        if units is not None:
+            units[name] = header.unit
         if name in cells:
             raise InputError(f"{where} gives {name!r} twice (as {key!r} and as {given[name]!r})", field=f"{where}.{key}",
                              value=key, expected=f"one key for {name!r}")
@@ -97,15 +102,20 @@ def lines_from_document(document: Mapping[str, Any], source: str = "<toml>") -> 
         raise InputError(f"{source} holds no [[line]] table", field="line", value=source,
                          expected="one [[line]] table per line")
     rows: list[dict[str, str]] = []
+    row_units: list[dict[str, str]] = []  # per row, the units its keys give ("length (m)"), over [units]
     for number, table in enumerate(lines, start=1):
         where = f"line[{number}]"
-        base = _fields(table, where)
+        base_units: dict[str, str | None] = {}
+        base = _fields(table, where, base_units)
         cases = table.get("case")
         if not isinstance(cases, list):
             rows.append(base)
+            row_units.append(_given(base_units))
             continue
         for index, case in enumerate(cases, start=1):
-            fields = _fields(case, f"{where}.case[{index}]")
+            case_units: dict[str, str | None] = {}
+            fields = _fields(case, f"{where}.case[{index}]", case_units)
+            row_units.append(_given({**base_units, **case_units}))
             if not fields.get("case"):
                 raise InputError("a case without a name", field=f"{where}.case[{index}].case", value="",
                                  expected='a case name such as "normal" or "maximum"')
@@ -113,4 +123,10 @@ def lines_from_document(document: Mapping[str, Any], source: str = "<toml>") -> 
     headers = list(dict.fromkeys(key for row in rows for key in row))
     check_header(headers, headers, source)  # a misspelt key ("lenght") would be ignored: refuse it
     shown = [f"{h} [{units[h]}]" if units.get(h) else h for h in headers]
-    return LineList(rows=rows, units={h: units.get(h) for h in headers}, source=source, headers=shown)
+    return LineList(rows=rows, units={h: units.get(h) for h in headers}, source=source, headers=shown,
+                    row_units=row_units)
+
+
+def _given(units: Mapping[str, str | None]) -> dict[str, str]:
+    """The units a row's keys give (a key without one leaves the field to the [units] table)."""
+    return {name: unit for name, unit in units.items() if unit}
