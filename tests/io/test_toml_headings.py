@@ -74,3 +74,16 @@ def test_a_key_unit_of_the_wrong_dimension_or_a_bare_pressure_is_named_on_its_li
     assert run.results[1].cases[0].notes[0] == \
         "pressure '5 [bar]' read as absolute (5 bara); write barg or bara to say which"
     assert run.document()["summary"]["bare_pressure"] == 1
+
+
+def test_a_heading_with_two_units_is_refused_not_ignored() -> None:
+    import pytest
+
+    from boresize.errors import InputError
+
+    text = "tag,fluid,flow,pressure,temperature,length [m] (ft)\nA,water,45 t/h,9 barg,30 degC,120\n"
+    with pytest.raises(InputError) as info:
+        parse_csv_text(text, "lines.csv")
+    assert str(info.value) == ("header: column 'length [m] (ft)' in lines.csv names 'length' with more than one unit "
+                               "or a unit before other words; expected one unit in brackets or parentheses at the "
+                               "end, e.g. 'length [m]'")

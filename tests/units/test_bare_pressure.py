@@ -125,3 +125,11 @@ def test_an_unknown_mode_on_the_command_line_is_a_usage_error(capsys: pytest.Cap
     with pytest.raises(SystemExit) as info:
         main(["size", "x.csv", "--bare-pressure", "gage"])
     assert info.value.code == 2 and "invalid choice: 'gage'" in capsys.readouterr().err
+
+
+def test_numpy_numbers_under_a_header_unit_are_bare_and_shown_as_numbers() -> None:
+    import numpy as np
+
+    assert parse_pressure(np.float64(5.0), "pressure", "bar")[1].note == \
+        "pressure '5.0 [bar]' read as absolute (5.0 bara); write barg or bara to say which"  # type: ignore[union-attr]
+    assert parse_pressure(np.int64(5), "pressure", "bar", "gauge")[0] == 5e5 + ATM

@@ -209,6 +209,11 @@ def check_header(names: list[str], raw_headers: list[str], source: str) -> None:
         raise InputError(f"the first row of {source} ({shown}) names none of the columns", field="header",
                          value=shown, expected=f"a header row first, naming at least {', '.join(REQUIRED)}")
     for name, text in zip(names, raw_headers):
+        stem = re.split(r"_?[\[(]", name, maxsplit=1)[0]
+        if stem != name and ALIASES.get(stem, stem) in COLUMNS:  # "length [m] (ft)": no unit can be read from it
+            raise InputError(f"column {text.strip()!r} in {source} names {ALIASES.get(stem, stem)!r} with more than "
+                             "one unit or a unit before other words", field="header", value=text.strip(),
+                             expected=f"one unit in brackets or parentheses at the end, e.g. '{stem} [m]'")
         near = [c for c in (*COLUMNS, *ALIASES) if name and name not in COLUMNS and _near_miss(name, c)]
         if near:
             raise InputError(f"unknown column {text.strip()!r} in {source} (close to {near[0]!r})", field="header",

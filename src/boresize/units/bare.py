@@ -6,6 +6,7 @@ built is read again in another mode by :func:`reread` (the API's ``size``, ``che
 from __future__ import annotations
 
 import functools
+import numbers
 import re
 from dataclasses import replace
 from typing import Any, Literal
@@ -65,9 +66,12 @@ def _reading(value: object, default_unit: str | None) -> tuple[str, str, str] | 
             return None
         number, unit = match.group(1), match.group(2).strip()
         shown = value.strip()
-    elif isinstance(value, (int, float)) and not isinstance(value, bool):
-        number, unit = (str(value) if isinstance(value, int) else repr(value)), ""
-        shown = number
+    elif isinstance(value, numbers.Real) and not isinstance(value, bool):  # numpy's too, shown as the parser shows it
+        try:
+            number = str(int(value)) if isinstance(value, numbers.Integral) else repr(float(value))
+        except OverflowError:
+            return None
+        unit, shown = "", number
     else:
         return None
     if not unit and default:
