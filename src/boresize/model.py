@@ -7,10 +7,14 @@ Conversion from what the user typed happens once, in :mod:`boresize.units` and
 
 from __future__ import annotations
 
+from collections.abc import Sequence
 from dataclasses import dataclass, field
 from typing import Literal
 
 __all__ = [
+    "BareReading",
+    "bare_pressure_count",
+    "bare_pressure_text",
     "Flow",
     "Line",
     "FluidState",
@@ -56,6 +60,36 @@ class Flow:
 
 
 @dataclass(frozen=True)
+class BareReading:
+    """A pressure field given in a bare unit (``9 psi``, a header's ``[bar]``: neither gauge nor absolute).
+
+    :param field: the field ("pressure", "min_outlet_pressure" ...)
+    :param shown: the cell as messages show it ("9 psi", "5 [bar]")
+    :param number: the number as written ("9")
+    :param gauge: the unit's gauge spelling ("psig"), "" when it has none (Pa, mbar)
+    :param absolute: the unit's absolute spelling ("psia"), "" when it has none
+    :param read_as: how it was read: "absolute" or "gauge" (one standard atmosphere added)
+    """
+
+    field: str
+    shown: str
+    number: str
+    gauge: str
+    absolute: str
+    read_as: Literal["absolute", "gauge"]
+
+    @property
+    def note(self) -> str:
+        """The note on the line: "pressure '9 psi' read as absolute (9 psia); write psig or psia to say which"."""
+        if not self.gauge:
+            return (f"{self.field} '{self.shown}' read as {self.read_as}; write it in a unit with g (gauge) or a "
+                    "(absolute), such as barg or bara, to say which")
+        spelling = self.gauge if self.read_as == "gauge" else self.absolute
+        return (f"{self.field} '{self.shown}' read as {self.read_as} ({self.number} {spelling}); write {self.gauge} "
+                f"or {self.absolute} to say which")
+
+
+@dataclass(frozen=True)
 class Line:
     """One line case, validated and in SI.
 
@@ -84,6 +118,7 @@ class Line:
     :param quality: vapour mass fraction at the inlet [-] of a saturated pure fluid (1 saturated vapour,
         0 saturated liquid), or None; with it the pressure alone fixes the state and ``temperature`` is the
         saturation temperature at ``pressure`` (:func:`boresize.properties.saturated_line.saturated_line`)
+    :param bare_pressures: the pressure fields given in a bare unit (``9 psi``) and how each was read
     """
 
     tag: str
@@ -116,6 +151,8 @@ class Line:
     fittings_method: str | None = None
     compressible: str | None = None
     quality: float | None = None
+    #: each pressure field given in a bare unit (``9 psi``: neither gauge nor absolute) and how it was read
+    bare_pressures: tuple[BareReading, ...] = ()
 
 
 @dataclass(frozen=True)
@@ -319,3 +356,14 @@ class LineResult:
     smallest_passing_nps: str | None = None
     #: the design margin applied to the flow [-] (the line's own, else its service's); None when not rated
     design_margin: float | None = None
+
+
+def bare_pressure_count(results: Sequence[LineResult]) -> int:
+    """How many lines gave a pressure in a bare unit (``9 psi``, in any of their cases)."""
+    return sum(1 for r in results if any(one.line is not None and one.line.bare_pressures for one in (r, *r.cases)))
+
+
+def bare_pressure_text(results: Sequence[LineResult]) -> str:
+    """The run summary's count of lines with a pressure in a bare unit ("" when none has one)."""
+    bare = bare_pressure_count(results)
+    return f"; {bare} with a pressure in a bare unit (neither g nor a: see the line's notes)" if bare else ""

@@ -47,7 +47,8 @@ def test_a_path_gives_the_line_list_as_read_and_its_record(reference: Run) -> No
     assert reference.trace.lines_sha256 == digest and reference.trace.criteria_source == str(CRITERIA)
     assert reference.summary() == (f"{len(reference.results)} lines: "
                                    f"{sum(r.status == 'pass' for r in reference.results)} pass, "
-                                   f"{sum(r.status == 'fail' for r in reference.results)} fail, 0 error")
+                                   f"{sum(r.status == 'fail' for r in reference.results)} fail, 0 error"
+                                   "; 1 with a pressure in a bare unit (neither g nor a: see the line's notes)")
 
 
 def test_an_open_file_gives_the_same_results(reference: Run) -> None:

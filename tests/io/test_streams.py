@@ -78,7 +78,7 @@ def test_a_pure_water_stream_sizes_with_coolprop_properties():
 
 def test_the_stream_path_and_make_line_give_the_same_result():
     stream = SimStream("S-5", T=313.15, P=4.0e5, F_mass=6.0, zs=[0.85, 0.15], IDs=("water", "methanol"))
-    direct = make_line(tag="S-5", fluid="water:0.85, methanol:0.15", flow="6 kg/s", pressure="4 bar",
+    direct = make_line(tag="S-5", fluid="water:0.85, methanol:0.15", flow="6 kg/s", pressure="4 bara",
                        temperature="313.15 K", service="liquid")
     assert size(line_from_stream(stream, service="liquid"), plugins=False).to_dict() == \
         size(direct, plugins=False).to_dict()

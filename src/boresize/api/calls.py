@@ -27,7 +27,9 @@ from boresize.api.result import SizingResult
 from boresize.io.values import number_text, quantity_text
 from boresize.sizing.batch import SizerSpec, run_items, shared_sizer, size_item, spec_for
 from boresize.errors import InputError, UnitError
+from boresize.io.line_items import LineItem, RowFault
 from boresize.model import Line
+from boresize.units import BarePressure, bare_pressure_mode, reread
 
 if TYPE_CHECKING:
     import pint
@@ -61,7 +63,7 @@ def make_line(tag: str, fluid: str | Mapping[str, float], flow: Value, pressure:
               liquid_level: Value = None, npsh_required: Value = None, roughness: Value = None,
               case: str | None = None, fittings_method: str | None = None, compressible: str | None = None,
               extra: Mapping[str, str] | None = None, quality: Value = None,
-              vapour_pressure: Value = None) -> Line:
+              vapour_pressure: Value = None, bare_pressure: BarePressure = "absolute") -> Line:
     """A validated :class:`~boresize.model.Line` (SI inside) from text, pint Quantities or numbers.
 
     The fields are the line-list columns of the README (``fluid`` may also be a mapping component ->
@@ -70,23 +72,28 @@ def make_line(tag: str, fluid: str | Mapping[str, float], flow: Value, pressure:
     :param units: the unit of a bare number per field, as a header's brackets give it (``{"flow": "t/h"}``)
     :param si: bare numbers without a unit in ``units`` are in the field's SI unit (:data:`SI_UNITS`)
     :param extra: further columns kept with the line (e.g. ``{"composition_basis": "mass"}``)
+    :param bare_pressure: how a pressure in a bare unit (``9 psi``, neither g nor a) is read: ``absolute`` (as
+        documented), ``gauge`` (101325 Pa added) or ``error``; the line's ``bare_pressures`` name each one
     :param quality: vapour mass fraction of a saturated pure fluid (1 or ``"100 %"`` saturated vapour, 0
         saturated liquid); ``temperature`` is then None or ``"saturated"`` (or the saturation temperature)
     :raises InputError: (UnitError for units) naming the line, the field, the value and what was expected
     """
     given = dict(locals())
+    mode = bare_pressure_mode(bare_pressure)
     _check_units_keys(units or {}, tag)
     row: dict[str, object] = {}
     cell_units: dict[str, str | None] = {}
+    absolute = {name for name, value in given.items() if si and name in SI_UNITS and SI_UNITS[name] == "Pa"
+                and isinstance(value, numbers.Real) and not (units or {}).get(name)}
     for name, value in given.items():
-        if name in ("units", "si", "extra") or value is None:
+        if name in ("units", "si", "extra", "bare_pressure") or value is None:
             continue
         row[name], cell_units[name] = _cell(name, value, units or {}, si, tag)
     for key, value in (extra or {}).items():
         row[str(key)] = str(value)
     from boresize.io.rows import line_from_row
 
-    return line_from_row(row, cell_units)
+    return line_from_row(row, cell_units, bare_pressure=mode, absolute=absolute)
 
 
 def _cell(name: str, value: object, units: Mapping[str, str], si: bool, tag: str) -> tuple[object, str | None]:
@@ -122,7 +129,7 @@ def _check_units_keys(units: Mapping[str, str], tag: str) -> None:
 
 # -- one line ----------------------------------------------------------------------------------
 def size(line: Item, *, criteria: str | Path | None = None, plugins: bool = True,
-         sizer: Sizer | None = None) -> SizingResult:
+         sizer: Sizer | None = None, bare_pressure: BarePressure | None = None) -> SizingResult:
     """Size a line (or check the NPS it gives); a list of Lines with one tag is one line's operating cases.
 
     A fault on the line (an unknown fluid, a fluid in the wrong phase) is a result with status
@@ -131,19 +138,23 @@ def size(line: Item, *, criteria: str | Path | None = None, plugins: bool = True
     :param criteria: a criteria TOML file (the shipped sets when None)
     :param plugins: False to use only boresize's built-in plugins (no entry points)
     :param sizer: an engine to use instead of one built from ``criteria`` and ``plugins``
+    :param bare_pressure: the line's pressures given in a bare unit (``9 psi``) read again as ``absolute``,
+        ``gauge`` or refused (``error``: a result with status ``error``); None keeps them as the line was made
     :raises InputError: (field "line") something that is not a Line or a list of one line's cases
     """
     if sizer is not None and criteria is not None:
         raise InputError("both a sizer and a criteria file given", field="criteria", value=str(criteria),
                          expected="one of them: a Sizer already holds its criteria")
-    item = checked_item(line, 1)
+    item = reread_item(checked_item(line, 1), bare_pressure)
     engine = sizer or default_sizer(spec_for(criteria, plugins, None))
     return SizingResult.of(size_item(engine, item))
 
 
 def check(line: Item, nps: str | float | None = None, *, schedule: str | int | None = None,
-          criteria: str | Path | None = None, plugins: bool = True, sizer: Sizer | None = None) -> SizingResult:
-    """Check the line at ``nps`` (in ``schedule``, else the pipe class's), or at the NPS the line gives.
+          criteria: str | Path | None = None, plugins: bool = True, sizer: Sizer | None = None,
+          bare_pressure: BarePressure | None = None) -> SizingResult:
+    """Check the line at ``nps`` (in ``schedule``, else the pipe class's), or at the NPS the line gives;
+    ``bare_pressure`` as in :func:`size`.
 
     :raises InputError: an unknown NPS or schedule, or no NPS at all (field "nps")
     """
@@ -157,12 +168,29 @@ def check(line: Item, nps: str | float | None = None, *, schedule: str | int | N
                          expected="nps= or a line that gives its NPS (size() sizes a line)")
     wall = normalise_schedule(schedule) if schedule is not None else None
     lines = [replace(one, nps=given, schedule=wall or one.schedule) for one in lines]
-    return size(lines[0] if isinstance(item, Line) else lines, criteria=criteria, plugins=plugins, sizer=sizer)
+    return size(lines[0] if isinstance(item, Line) else lines, criteria=criteria, plugins=plugins, sizer=sizer,
+                bare_pressure=bare_pressure)
 
 
 def default_sizer(spec: SizerSpec) -> Sizer:
     """The sizer of this process for ``spec`` (built once: loading plugins and criteria costs time)."""
     return shared_sizer(spec)
+
+
+def reread_item(item: Item, bare_pressure: BarePressure | None) -> LineItem:
+    """``item`` with its pressures in a bare unit read as ``bare_pressure`` says (None: as made); a line refused
+    (``error`` mode, or at or below zero absolute) becomes a row fault, sized as a result with status ``error``."""
+    if bare_pressure is None:
+        return item if isinstance(item, Line) else tuple(item)
+    mode = bare_pressure_mode(bare_pressure)
+    cases = [item] if isinstance(item, Line) else list(item)
+    read: list[Line | RowFault] = []
+    for case in cases:
+        try:
+            read.append(reread(case, mode))
+        except InputError as exc:
+            read.append(RowFault(case.tag, "check" if case.nps else "size", case.case or "", exc))
+    return read[0] if isinstance(item, Line) else tuple(read)
 
 
 def checked_item(value: object, position: int) -> Item:
@@ -184,7 +212,7 @@ def checked_item(value: object, position: int) -> Item:
 # -- many lines --------------------------------------------------------------------------------
 def size_many(lines: Iterable[Item], executor: Executor | None = None, *, workers: int | None = None,
               criteria: str | Path | None = None, plugins: bool = True,
-              chunk_size: int | None = None) -> list[SizingResult]:
+              chunk_size: int | None = None, bare_pressure: BarePressure | None = None) -> list[SizingResult]:
     """Size (or check) many lines; one result per item, in input order.
 
     :param lines: Lines, or lists of one line's operating cases
@@ -194,9 +222,10 @@ def size_many(lines: Iterable[Item], executor: Executor | None = None, *, worker
     :param workers: worker processes to size on when no executor is given (1: this process alone); default:
         one per CPU from :data:`PROCESS_THRESHOLD` lines, else 1
     :param chunk_size: lines per task (default: about eight tasks per worker, 1 to 64 lines each)
+    :param bare_pressure: as in :func:`size`, per line (a line refused is a result with status ``error``)
     :raises InputError: an item that is not a line, an executor that is not one, workers below 1
     """
-    items = [checked_item(value, i) for i, value in enumerate(lines, start=1)]
+    items = [reread_item(checked_item(value, i), bare_pressure) for i, value in enumerate(lines, start=1)]
     spec = spec_for(criteria, plugins, None)
     if executor is not None and not isinstance(executor, Executor):
         raise InputError(f"a {type(executor).__name__} is not an executor", field="executor",

@@ -22,7 +22,7 @@ from dataclasses import dataclass, replace
 from pathlib import Path
 from typing import IO, TYPE_CHECKING, Any, Union, cast
 
-from boresize.api.calls import Item as LineItem, checked_item, default_sizer
+from boresize.api.calls import Item as LineItem, checked_item, default_sizer, reread_item
 from boresize.api.result import SizingResult
 from boresize.errors import InputError
 from boresize.io.csv_reader import LineList
@@ -30,6 +30,7 @@ from boresize.model import Line, LineResult
 from boresize.report.trace import Traceability, traceability
 from boresize.sizing.batch import SizerSpec, run_items, spec_for, summary
 from boresize.sizing.headroom import Headroom
+from boresize.units import BarePressure, bare_pressure_mode
 
 if TYPE_CHECKING:
     import pandas as pd
@@ -102,7 +103,7 @@ class Run:
 def run_lines(lines: LineSource, criteria: str | Path | None = None, *, workers: int = 1,
               executor: Executor | None = None, every_size: bool = False, corroded_roughness: str | float | None = None,
               plugins: bool = True, progress: bool | None = False, headroom: bool = False,
-              units_row: bool | None = None) -> Run:
+              units_row: bool | None = None, bare_pressure: BarePressure | None = None) -> Run:
     """Size (or check) every line of a line list; see the module docstring for what ``lines`` may be.
 
     :param criteria: a criteria TOML file (the shipped sets when None)
@@ -114,14 +115,19 @@ def run_lines(lines: LineSource, criteria: str | Path | None = None, *, workers:
     :param progress: True/False for a progress bar on stderr; None shows it on a terminal for long runs
     :param headroom: also rate each line at its size: how much more flow it carries before a criterion fails
     :param units_row: for a DataFrame, as :func:`boresize.io.dataframe.read_dataframe`'s
+    :param bare_pressure: how a pressure in a bare unit (``9 psi``, a header's ``[bar]``: neither g nor a) is read:
+        ``absolute`` (None, the default for rows read, as documented), ``gauge`` (101325 Pa added) or ``error`` (the
+        line is an error naming the field); Lines given keep how they were made unless it is given. Each such line
+        has a note, and the summary counts them
     :raises InputError: an unreadable line list, a bad option (naming it)
     """
     if isinstance(workers, bool) or not isinstance(workers, int) or workers < 1:
         raise InputError(f"workers {workers!r} is not a whole number of 1 or more", field="workers", value=workers,
                          expected="1 or more processes")
     roughness = None if corroded_roughness is None else roughness_value(corroded_roughness)
+    mode = None if bare_pressure is None else bare_pressure_mode(bare_pressure)
     spec = spec_for(criteria, plugins, roughness, every_size=every_size)
-    line_list, items, cells = _read(lines, units_row)
+    line_list, items, cells = _read(lines, units_row, mode)
     sizer = default_sizer(spec)
     results = run_items(items, spec, sizer=sizer, executor=executor, workers=workers, progress=progress,
                         retry_hint="one process (workers=1, or --workers 1 on the command line)")
@@ -210,16 +216,17 @@ def _from_text(text: str | bytes, source: str, parse_csv: Callable[[str, str], L
     return line_list
 
 
-def _read(lines: LineSource, units_row: bool | None) -> tuple[LineList, Sequence[Any], tuple[tuple[Cells, ...], ...] | None]:
+def _read(lines: LineSource, units_row: bool | None, bare_pressure: BarePressure | None = None,
+          ) -> tuple[LineList, Sequence[Any], tuple[tuple[Cells, ...], ...] | None]:
     """(the line list, the lines to size, each line's rows' cells) from any line source."""
     given = _given_lines(lines)
     if given is not None:
-        items = [checked_item(value, i) for i, value in enumerate(given, start=1)]
+        items = [reread_item(checked_item(value, i), bare_pressure) for i, value in enumerate(given, start=1)]
         return LineList(rows=[], units={}, source="<lines>"), items, None
     from boresize.io.line_items import line_items
 
     line_list = read_lines(lines, units_row)
-    read = line_items(line_list.pairs())
+    read = line_items(line_list.pairs(), bare_pressure or "absolute")
     return line_list, read.items, read.cells
 
 

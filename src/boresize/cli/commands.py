@@ -83,7 +83,7 @@ def run_size(args: argparse.Namespace) -> int:
         else None
     run = api.run_lines(lines, args.criteria, workers=_workers(args), every_size=args.every_size,
                         corroded_roughness=roughness, plugins=not args.no_plugins, progress=args.progress,
-                        headroom=args.headroom)
+                        headroom=args.headroom, bare_pressure=args.bare_pressure)
     written = _write_outputs(run, outputs)
     if args.json:
         print_json(run.document())

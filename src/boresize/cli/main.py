@@ -75,6 +75,10 @@ def _add_run_options(size: argparse.ArgumentParser) -> None:
     size.add_argument("--corroded-roughness", metavar="LENGTH",
                       help="check lines that give an NPS with this absolute roughness, e.g. '0.5 mm' "
                            "(a line's own roughness column wins)")
+    size.add_argument("--bare-pressure", choices=("absolute", "gauge", "error"), default="absolute",
+                      help="how a pressure in a bare unit (9 psi, 0.5 bar, a header's [bar]: neither g nor a) is read: "
+                           "absolute (the default, as documented), gauge (101.325 kPa added) or error (the line is an "
+                           "error naming the field); each such line has a note and the summary counts them")
     size.add_argument("--every-size", action="store_true",
                       help="rate every size of the pipe class from the smallest, instead of walking from the "
                            "first-guess diameter (same selection, slower; the record shows every size below)")

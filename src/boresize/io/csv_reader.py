@@ -32,6 +32,7 @@ class LineList:
 
     :param headers: the input column headers as written (``"length [m]"``), result columns left out
     :param digest: SHA-256 of the file read, for the traceability record
+    :param row_units: per row, default units that row's own keys give (a TOML key ``"length (m)"``), over ``units``
     """
 
     rows: list[dict[str, str]]
@@ -39,9 +40,13 @@ class LineList:
     source: str
     headers: list[str] = field(default_factory=list)
     digest: str | None = None
+    row_units: list[dict[str, str]] = field(default_factory=list)
 
     def pairs(self) -> list[tuple[dict[str, str], dict[str, str | None]]]:
-        return [(row, self.units) for row in self.rows]
+        if not self.row_units:
+            return [(row, self.units) for row in self.rows]
+        own = self.row_units + [{}] * (len(self.rows) - len(self.row_units))
+        return [(row, {**self.units, **units} if units else self.units) for row, units in zip(self.rows, own)]
 
 
 def read_csv(path: str | Path) -> LineList:
@@ -245,6 +250,11 @@ def check_header(names: list[str], raw_headers: list[str], source: str) -> None:
         raise InputError(f"the first row of {source} ({shown}) names none of the columns", field="header",
                          value=shown, expected=f"a header row first, naming at least {', '.join(REQUIRED)}")
     for name, text in zip(names, raw_headers):
+        stem = re.split(r"_?[\[(]", name, maxsplit=1)[0]
+        if stem != name and ALIASES.get(stem, stem) in COLUMNS:  # "length [m] (ft)": no unit can be read from it
+            raise InputError(f"column {text.strip()!r} in {source} names {ALIASES.get(stem, stem)!r} with more than "
+                             "one unit or a unit before other words", field="header", value=text.strip(),
+                             expected=f"one unit in brackets or parentheses at the end, e.g. '{stem} [m]'")
         near = [c for c in (*COLUMNS, *ALIASES) if name and name not in COLUMNS and _near_miss(name, c)]
         if near:
             raise InputError(f"unknown column {text.strip()!r} in {source} (close to {near[0]!r})", field="header",

@@ -13,7 +13,7 @@ from collections.abc import Mapping, Sequence
 from typing import Any
 
 from boresize import __version__
-from boresize.model import CandidateResult, LineResult, Verdict
+from boresize.model import CandidateResult, LineResult, Verdict, bare_pressure_count
 
 __all__ = ["CAUTION", "document", "dumps_strict", "result_to_dict", "verdict_to_dict", "candidate_to_dict"]
 
@@ -141,7 +141,7 @@ def document(results: Sequence[LineResult], *, criteria_source: str, lines_sourc
         "boresize_version": __version__,
         "lines_source": lines_source,
         "criteria_source": criteria_source,
-        "summary": {"lines": len(results), **counts},
+        "summary": {"lines": len(results), **counts, "bare_pressure": bare_pressure_count(results)},
         "caution": CAUTION,
     }
     if traceability is not None:

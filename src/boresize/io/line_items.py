@@ -15,6 +15,7 @@ from typing import Literal, Union
 from boresize.errors import BoresizeError
 from boresize.io.rows import DUPLICATE_TAG, line_from_row
 from boresize.model import Line
+from boresize.units import BarePressure
 
 __all__ = ["Cells", "LineItem", "LineItems", "Row", "RowFault", "group_rows", "line_items"]
 
@@ -82,22 +83,25 @@ def group_rows(pairs: Iterable[tuple[Mapping[str, object], Mapping[str, str | No
     return groups
 
 
-def _parsed(position: int, row: Mapping[str, object], units: Mapping[str, str | None]) -> Line | RowFault:
+def _parsed(position: int, row: Mapping[str, object], units: Mapping[str, str | None],
+            bare_pressure: BarePressure = "absolute") -> Line | RowFault:
     try:
-        return line_from_row(row, units, position)
+        return line_from_row(row, units, position, bare_pressure)
     except BoresizeError as exc:
         return RowFault(str(row.get("tag") or f"row {position}"), "check" if row.get("nps") else "size",
                         _cell(row, "case"), exc)
 
 
-def _item(group: Sequence[Row]) -> LineItem:
-    parsed = tuple(_parsed(position, row, units) for position, row, units in group)
+def _item(group: Sequence[Row], bare_pressure: BarePressure = "absolute") -> LineItem:
+    parsed = tuple(_parsed(position, row, units, bare_pressure) for position, row, units in group)
     return parsed[0] if len(parsed) == 1 else parsed
 
 
-def line_items(pairs: Iterable[tuple[Mapping[str, object], Mapping[str, str | None]]]) -> LineItems:
-    """The lines of ``pairs`` ((field -> cell, field -> default unit) per row, e.g. ``LineList.pairs()``)."""
+def line_items(pairs: Iterable[tuple[Mapping[str, object], Mapping[str, str | None]]],
+               bare_pressure: BarePressure = "absolute") -> LineItems:
+    """The lines of ``pairs`` ((field -> cell, field -> default unit) per row, e.g. ``LineList.pairs()``); a pressure
+    in a bare unit (``9 psi``) read as ``bare_pressure`` says (absolute, gauge or an error)."""
     groups = group_rows(pairs)
     cells = tuple(tuple({str(k): "" if v is None else str(v) for k, v in row.items()} for _, row, _ in group)
                   for group in groups)
-    return LineItems(tuple(_item(group) for group in groups), cells)
+    return LineItems(tuple(_item(group, bare_pressure) for group in groups), cells)

@@ -11,13 +11,13 @@ from __future__ import annotations
 import json
 import math
 import re
-from collections.abc import Mapping
+from collections.abc import Collection, Mapping
 from dataclasses import dataclass
 
 from boresize.errors import InputError
-from boresize.model import Flow, Line
+from boresize.model import BareReading, Flow, Line
 from boresize.pipes import normalise_nps, normalise_schedule
-from boresize.units import QuantityKind, parse_flow, parse_quantity
+from boresize.units import BarePressure, QuantityKind, parse_flow, parse_pressure, parse_quantity
 
 __all__ = ["ALIASES", "UNBALANCED_QUOTE", "NOT_READ", "not_read", "COLUMNS", "Header", "parse_header", "line_from_row", "DEFAULT_LENGTH_M"]
 
@@ -155,11 +155,16 @@ def _choice(cells: Mapping[str, str], name: str, allowed: tuple[str, ...]) -> st
 
 
 def line_from_row(row: Mapping[str, object], units: Mapping[str, str | None] | None = None,
-                  position: int | None = None) -> Line:
+                  position: int | None = None, bare_pressure: BarePressure = "absolute",
+                  absolute: Collection[str] = ()) -> Line:
     """Validate one row (field name -> cell) into a Line.
 
     :param units: default unit per field, from the header brackets
     :param position: 1-based row number, used to name a line that has no tag
+    :param bare_pressure: how a pressure in a bare unit (``9 psi``) is read: absolute, gauge, or an error; each
+        such field is named in the line's ``bare_pressures`` notes
+    :param absolute: fields given as a bare number whose default unit in ``units`` is stated absolute
+        (``make_line(si=True)``: Pa abs), never a bare pressure
     :raises InputError: naming the line, the field, the value and what was expected
     """
     units = units or {}
@@ -198,12 +203,16 @@ def line_from_row(row: Mapping[str, object], units: Mapping[str, str | None] | N
         if nps_raw and nps_unit is not None and nps_unit.lower() not in _NPS_UNITS:
             raise InputError(f"an NPS is in inches, not {nps_unit!r}", field="nps", value=f"{nps_raw} [{nps_unit}]",
                              expected="the nominal pipe size in inches (a header 'NPS' or 'NPS (in)'), e.g. '6'")
-        optional = _optional_fields(cells, units)
+        notes: list[BareReading] = []  # pressures in a bare unit (read in the order of the messages before)
+        bare: list[BareReading] = []
+        optional = _optional_fields(cells, units, (bare_pressure, absolute), notes)
+        flow = _flow(cells["flow"], units.get("flow"))
+        pressure = _pressure(cells["pressure"], "pressure", units, (bare_pressure, absolute), bare)
         line = Line(
             tag=tag,
             fluid=cells["fluid"],
-            flow=_flow(cells["flow"], units.get("flow")),
-            pressure=parse_quantity(cells["pressure"], "pressure", "pressure", units.get("pressure")),
+            flow=flow,
+            pressure=pressure,
             temperature=_temperature(cells, units, quality),
             length=length if length is not None else DEFAULT_LENGTH_M,
             service=cells.get("service"),
@@ -223,6 +232,7 @@ def line_from_row(row: Mapping[str, object], units: Mapping[str, str | None] | N
             **optional,
             extra=tuple((k, str(v)) for k, v in row.items() if k not in _COLUMN_SET and v not in (None, "")),
             quality=quality,
+            bare_pressures=(*bare, *notes),
         )
         if quality is None:
             return line
@@ -251,13 +261,27 @@ def _temperature(cells: Mapping[str, str], units: Mapping[str, str | None], qual
     return parse_quantity(raw, "temperature", "temperature", units.get("temperature"))
 
 
-def _optional_fields(cells: Mapping[str, str], units: Mapping[str, str | None]) -> dict[str, float]:
+def _pressure(raw: str, name: str, units: Mapping[str, str | None], bare: tuple[BarePressure, Collection[str]],
+              notes: list[BareReading]) -> float:
+    """A pressure field [Pa abs]; a bare unit's reading added to ``notes`` (none for a field of ``absolute``,
+    whose number has no unit of its own and whose default unit is stated absolute)."""
+    mode, absolute = bare
+    value, note = parse_pressure(raw, name, units.get(name), "absolute" if name in absolute else mode)
+    if note is not None and name not in absolute:
+        notes.append(note)
+    return value
+
+
+def _optional_fields(cells: Mapping[str, str], units: Mapping[str, str | None],
+                     bare: tuple[BarePressure, Collection[str]],
+                     notes: list[BareReading]) -> dict[str, float]:
     values: dict[str, float] = {}
     for name, (kind, positive, example) in OPTIONAL_QUANTITIES.items():
         raw = cells.get(name)
         if raw is None:
             continue
-        value = parse_quantity(raw, name, kind, units.get(name))
+        value = _pressure(raw, name, units, bare, notes) if kind == "pressure" else \
+            parse_quantity(raw, name, kind, units.get(name))
         values[name] = _positive(value, name, raw, example) if positive else value
     return values
 

@@ -83,16 +83,20 @@ def _cell(value: Any, where: str) -> str:
     return value.strip() if isinstance(value, str) else repr(value) if isinstance(value, float) else str(value)
 
 
-def _fields(table: Mapping[str, Any], where: str) -> dict[str, str]:
-    """A line's (or case's) keys as cells; the first key that is not a cell makes the row that error (the rows
-    of the other lines are read)."""
+def _fields(table: Mapping[str, Any], where: str, units: dict[str, str | None] | None = None) -> dict[str, str]:
+    """A line's (or case's) keys as cells by field; the first key that is not a cell makes the row that error
+    (the rows of the other lines are read). ``units`` gets each key's unit (``"length (m)"``: m), None for a
+    key without one."""
     cells: dict[str, str] = {}
     given: dict[str, str] = {}  # field -> the key that gave it (an alias and its column both given is an error)
     fault: dict[str, str] = {}
     for key, value in table.items():
         if key == "case" and isinstance(value, list):
             continue
-        name = parse_header(key).field
+        header = parse_header(key)
+        name = header.field
+        if units is not None:
+            units[name] = header.unit
         if name in cells:  # as a column given twice in CSV: the whole list's fault
             raise InputError(f"{where} gives {name!r} twice (as {key!r} and as {given[name]!r})", field=f"{where}.{key}",
                              value=key, expected=f"one key for {name!r}")
@@ -130,23 +134,30 @@ def lines_from_document(document: Mapping[str, Any], source: str = "<toml>") -> 
         raise InputError(f"{source} holds no [[line]] table", field="line", value=source,
                          expected="one [[line]] table per line")
     rows: list[dict[str, str]] = []
+    row_units: list[dict[str, str]] = []  # per row, the units its keys give ("length (m)"), over [units]
     for number, table in enumerate(lines, start=1):
         where = f"line[{number}]"
         if not isinstance(table, dict):
             rows.append(not_read(InputError(f"{where} is {_shown(table)}, not a table", field="line",
                                             value=_shown(table), expected="a [[line]] table of keys")))
+            row_units.append({})
             continue
-        base = _fields(table, where)
+        base_units: dict[str, str | None] = {}
+        base = _fields(table, where, base_units)
         cases = table.get("case")
         if not isinstance(cases, list) or not cases:
             rows.append(base)
+            row_units.append(_given(base_units))
             continue
         fault = _case_tables(cases, where)
         if fault:
             rows.append({**base, **fault})
+            row_units.append(_given(base_units))
             continue
         for index, case in enumerate(cases, start=1):
-            fields = _fields(case, f"{where}.case[{index}]")
+            case_units: dict[str, str | None] = {}
+            fields = _fields(case, f"{where}.case[{index}]", case_units)
+            row_units.append(_given({**base_units, **case_units}))
             if not fields.get("case"):  # named by its place, so that it stays one of its line's cases
                 fields = {**fields, "case": f"case[{index}]", **({} if NOT_READ in fields else not_read(InputError(
                     f"{where}.case[{index}] has no case name", field="case", value="",
@@ -155,4 +166,10 @@ def lines_from_document(document: Mapping[str, Any], source: str = "<toml>") -> 
     headers = list(dict.fromkeys(key for row in rows for key in row if key != NOT_READ))
     check_header(headers, headers, source)  # a misspelt key ("lenght") would be ignored: refuse it
     shown = [f"{h} [{units[h]}]" if units.get(h) else h for h in headers]
-    return LineList(rows=rows, units={h: units.get(h) for h in headers}, source=source, headers=shown)
+    return LineList(rows=rows, units={h: units.get(h) for h in headers}, source=source, headers=shown,
+                    row_units=row_units)
+
+
+def _given(units: Mapping[str, str | None]) -> dict[str, str]:
+    """The units a row's keys give (a key without one leaves the field to the [units] table)."""
+    return {name: unit for name, unit in units.items() if unit}

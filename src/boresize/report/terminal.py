@@ -5,7 +5,7 @@ from __future__ import annotations
 from collections.abc import Sequence
 
 from boresize.io.document import CAUTION
-from boresize.model import LineResult
+from boresize.model import LineResult, bare_pressure_text
 from boresize.sizing.selection import controlling_utilisation
 
 __all__ = ["render_table"]
@@ -44,7 +44,8 @@ def render_table(results: Sequence[LineResult], criteria_source: str, criteria_s
     out.insert(1, "  ".join("-" * w for w in widths))
     counts = {s: sum(1 for r in results if r.status == s) for s in ("pass", "fail", "error")}
     out.append("")
-    out.append(f"{len(results)} lines: {counts['pass']} pass, {counts['fail']} fail, {counts['error']} error   "
+    out.append(f"{len(results)} lines: {counts['pass']} pass, {counts['fail']} fail, {counts['error']} error"
+               f"{bare_pressure_text(results)}   "
                f"(criteria: {criteria_source}, set {criteria_set})")
     details = [r for r in results if r.status != "pass" or r.notes]
     for r in details:

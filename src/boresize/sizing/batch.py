@@ -32,7 +32,7 @@ from typing import Any, TextIO, Union
 
 from boresize.errors import BoresizeError, InputError
 from boresize.io.line_items import RowFault
-from boresize.model import Line, LineResult
+from boresize.model import Line, LineResult, bare_pressure_text
 from boresize.sizing import cases as _cases
 from boresize.sizing.engine import Sizer
 from boresize.sizing.selection import error_result
@@ -362,6 +362,10 @@ def _isolated(task: Callable[[SizerSpec, Any], list[Any]], spec: SizerSpec, chun
 
 
 def summary(results: Sequence[LineResult]) -> str:
-    """One line: how many lines were sized or checked, passed, failed and had errors."""
+    """One line: how many lines were sized or checked, passed, failed and had errors, and how many gave a pressure
+    in a bare unit (when any did)."""
     counts = {s: sum(1 for r in results if r.status == s) for s in ("pass", "fail", "error")}
-    return f"{len(results)} lines: {counts['pass']} pass, {counts['fail']} fail, {counts['error']} error"
+    text = f"{len(results)} lines: {counts['pass']} pass, {counts['fail']} fail, {counts['error']} error"
+    return text + bare_pressure_text(results)
+
+

@@ -112,10 +112,10 @@ class Sizer:
 
     def _prepare(self, line: Line) -> _Prepared:
         mode: Mode = "check" if line.nps else "size"
-        notes: tuple[str, ...] = ()
+        notes: tuple[str, ...] = tuple(read.note for read in line.bare_pressures)  # how each pressure in a bare unit was read
         if mode == "check" and line.roughness is None and self.check_roughness is not None:
             line = replace(line, roughness=self.check_roughness)
-            notes = (f"checked with corroded roughness {self.check_roughness * 1e3:g} mm",)
+            notes += (f"checked with corroded roughness {self.check_roughness * 1e3:g} mm",)
         state = fluid_state(self.host, line)
         service = self._service(line, state)
         pipe_class = self.config.pipe_class(line.pipe_class or service.pipe_class)

@@ -165,4 +165,5 @@ def error_result(tag: str, exc: BaseException, *, line: Line | None = None, mode
     elif not isinstance(exc, InputError):
         message = f"line {tag}: {message}"
     field = exc.field if isinstance(exc, InputError) else ("fluid" if isinstance(exc, PropertyError) else None)
-    return LineResult(tag=tag, status="error", mode=mode, line=line, error=message, error_field=field)
+    return LineResult(tag=tag, status="error", mode=mode, line=line, error=message, error_field=field,
+                      notes=tuple(r.note for r in line.bare_pressures) if line is not None else ())
