@@ -45,6 +45,13 @@ def test_a_unit_with_g_or_a_is_not_bare_and_passes_in_error_mode(cell: str) -> N
     assert parse_pressure(cell, "pressure", None, "error")[1] is None
 
 
+@pytest.mark.parametrize("mode", ["absolute", "gauge", "error"])
+def test_a_standard_atmosphere_is_absolute_by_definition_in_every_mode(mode: str) -> None:
+    # 1 atm = 101325 Pa (ISO 80000-4): a pressure level, so gauge mode must not read "1.5 atm" as 2.5 atm
+    value, read = parse_pressure("1.5 atm", "pressure", None, mode)  # type: ignore[arg-type]
+    assert math.isclose(value, 1.5 * ATM, rel_tol=1e-12) and read is None
+
+
 def test_the_note_text_is_exact() -> None:
     assert parse_pressure("9 psi", "pressure")[1].note == NOTE_PSI  # type: ignore[union-attr]
     assert parse_pressure("5", "pressure", "bar", "gauge")[1].note == \

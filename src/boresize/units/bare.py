@@ -26,6 +26,10 @@ BARE_PRESSURE_MODES: tuple[BarePressure, ...] = ("absolute", "gauge", "error")
 _SPELLINGS = {"bar": ("barg", "bara"), "kPa": ("kPag", "kPaa"), "MPa": ("MPag", "MPaa"), "psi": ("psig", "psia"),
               "kgcm2a": ("kg/cm2g", "kg/cm2a")}
 
+#: Units that are absolute by their definition, never a gauge reading: the standard atmosphere (1 atm =
+#: 101325 Pa, ISO 80000-4) is a pressure level, so "1 atm" is not bare and gauge mode does not make it 2 atm.
+_ABSOLUTE_BY_DEFINITION = frozenset({"atm"})
+
 
 def bare_pressure_mode(value: object, field: str = "bare_pressure") -> BarePressure:
     """``value`` checked as one of :data:`BARE_PRESSURE_MODES`.
@@ -52,7 +56,7 @@ def _bare(unit: str) -> tuple[str, str] | None:
         return None
     if re.fullmatch(r"kgf?/cm2", cleaned, re.IGNORECASE):  # normalised to kgcm2a, but written without an a
         return _SPELLINGS["kgcm2a"]
-    if words & set(_ABSOLUTE):
+    if words & set(_ABSOLUTE) or words <= _ABSOLUTE_BY_DEFINITION:
         return None
     return _SPELLINGS.get(expression, ("", ""))
 
