@@ -9,6 +9,8 @@ from __future__ import annotations
 import math
 from pathlib import Path
 
+import pytest
+
 from boresize import run_lines
 from boresize.io.csv_reader import parse_csv_text
 from boresize.io.line_items import line_items
@@ -87,3 +89,15 @@ def test_a_heading_with_two_units_is_refused_not_ignored() -> None:
     assert str(info.value) == ("header: column 'length [m] (ft)' in lines.csv names 'length' with more than one unit "
                                "or a unit before other words; expected one unit in brackets or parentheses at the "
                                "end, e.g. 'length [m]'")
+
+
+def test_an_extra_column_whose_parentheses_hold_no_unit_is_kept_not_refused():
+    # "Flow (design) notes" starts with a column's name, but "(design)" is no unit: a column of the user's own
+    text = ("tag,fluid,flow,pressure,temperature,Flow (design) notes,length [m] total\n"
+            "A,water,45 t/h,9 barg,30 degC,see datasheet,120\n")
+    from boresize.errors import InputError
+
+    with pytest.raises(InputError, match="'length \\[m\\] total' in lines.csv names 'length'"):
+        parse_csv_text(text, "lines.csv")  # "[m]" is a unit before other words: which length is meant is unclear
+    rows = parse_csv_text(text.replace(",length [m] total", "").replace(",120\n", "\n"), "lines.csv").rows
+    assert rows[0]["flow"] == "45 t/h" and "see datasheet" in rows[0].values()

@@ -238,6 +238,13 @@ def _dialect(header: str) -> type[csv.Dialect]:
     return Dialect
 
 
+def _holds_a_unit(text: str) -> bool:
+    """Whether a bracketed part of a heading reads as a unit ("[m]", "(ft)"; not "(design)")."""
+    from boresize.units.quantities import is_unit
+
+    return any(group.strip() and is_unit(group) for group in re.findall(r"[\[(]([^\])]*)[\])]", text))
+
+
 def check_header(names: list[str], raw_headers: list[str], source: str) -> None:
     """Refuse a header that is not one, lacks a required column, or misspells a column ("lenght"):
     a misspelt column would be ignored and its default used, a silently wrong answer.
@@ -251,7 +258,8 @@ def check_header(names: list[str], raw_headers: list[str], source: str) -> None:
                          value=shown, expected=f"a header row first, naming at least {', '.join(REQUIRED)}")
     for name, text in zip(names, raw_headers):
         stem = re.split(r"_?[\[(]", name, maxsplit=1)[0]
-        if stem != name and ALIASES.get(stem, stem) in COLUMNS:  # "length [m] (ft)": no unit can be read from it
+        if stem != name and ALIASES.get(stem, stem) in COLUMNS and _holds_a_unit(text):
+            # "length [m] (ft)": no unit can be read from it; "Flow (design) notes" holds none, so it is an extra
             raise InputError(f"column {text.strip()!r} in {source} names {ALIASES.get(stem, stem)!r} with more than "
                              "one unit or a unit before other words", field="header", value=text.strip(),
                              expected=f"one unit in brackets or parentheses at the end, e.g. '{stem} [m]'")

@@ -76,6 +76,7 @@ __all__ = [
     "parse_quantity",
     "parse_flow",
     "format_unit_help",
+    "is_unit",
 ]
 
 QuantityKind = Literal["mass_flow", "volume_flow", "pressure", "pressure_difference", "temperature",
@@ -218,6 +219,16 @@ def _build(number: float, expression: str, cell: _Cell) -> _Parsed:
     except (pint.PintError, TokenError, AssertionError, SyntaxError, TypeError, ValueError, ZeroDivisionError,
             OverflowError) as exc:
         raise cell.error(f"cannot read the unit of '{cell.shown}'") from exc
+
+
+def is_unit(text: str) -> bool:
+    """Whether ``text`` reads as a unit boresize knows ("ft", "t/h", "kPa/100 m"; not "design" or "see P&ID")."""
+    cell = _Cell("header", text, "length", text)
+    try:
+        _build(1.0, _normalise(text.strip(), cell), cell)
+    except InputError:
+        return False
+    return True
 
 
 @functools.lru_cache(maxsize=64)  # measured: +76 % on rows-errors with _unit_of's (bench_parsing.py unit-parse)
