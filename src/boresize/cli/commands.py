@@ -9,7 +9,7 @@ from pathlib import Path
 from boresize import api
 from boresize.api import tools
 from boresize.cli.fields import SINGLE_LINE_FIELDS, print_json
-from boresize.errors import InputError, UsageError
+from boresize.errors import InputError, UsageError, printable
 
 __all__ = ["UsageError", "run_size", "run_criteria", "run_pipes", "run_diff"]
 
@@ -55,7 +55,7 @@ def _check_outputs(paths: list[str], lines: str | api.LineList) -> list[Path] | 
         try:
             outputs.append(api.check_output(path, [lines] if isinstance(lines, str) else []))
         except InputError as exc:
-            print(f"boresize: error: {exc}", file=sys.stderr)
+            print(f"boresize: error: {printable(str(exc), newlines=True)}", file=sys.stderr)
             usable = False
     return outputs if usable else None
 
@@ -67,11 +67,20 @@ def _write_outputs(run: api.Run, outputs: list[Path]) -> bool:
         try:
             run.write(path)
         except InputError as exc:
-            print(f"boresize: error: {exc}", file=sys.stderr)
+            print(f"boresize: error: {printable(str(exc), newlines=True)}", file=sys.stderr)
             written = False
         else:
-            print(f"boresize: wrote {path}", file=sys.stderr)
+            print(f"boresize: wrote {printable(str(path))}", file=sys.stderr)
     return written
+
+
+def _note_slow_criteria(run: api.Run) -> None:
+    """A note on stderr for each criterion over the slow limits (see :meth:`boresize.api.Run.slow_criteria`)."""
+    for slow in run.slow_criteria():
+        share = slow.seconds / run.sizing_seconds if run.sizing_seconds > 0 else 1.0
+        print(f"boresize: note: criterion {printable(slow.ident)} (plugin {printable(slow.plugin)}) "
+              f"took {slow.seconds:.1f} s, "
+              f"{share:.0%} of the {run.sizing_seconds:.1f} s of sizing", file=sys.stderr)
 
 
 def run_size(args: argparse.Namespace) -> int:
@@ -86,6 +95,7 @@ def run_size(args: argparse.Namespace) -> int:
                         corroded_roughness=roughness, plugins=not args.no_plugins, progress=args.progress,
                         headroom=args.headroom)
     written = _write_outputs(run, outputs)
+    _note_slow_criteria(run)
     if args.json:
         print_json(run.document())
         print(f"boresize: {run.summary()}", file=sys.stderr)
@@ -103,12 +113,13 @@ def run_diff(args: argparse.Namespace) -> int:
     if args.json:
         print_json(diff.to_dict())
     else:
-        sys.stdout.write(tools.diff_text(diff, args.old, args.new))
+        sys.stdout.write(printable(tools.diff_text(diff, args.old, args.new), newlines=True))
     return 0 if diff.empty else 1
 
 
 def run_criteria(args: argparse.Namespace) -> int:
-    sys.stdout.write(tools.criteria_text(args.criteria, plugins=not args.no_plugins))
+    listing = tools.criteria_text(args.criteria, plugins=not args.no_plugins)
+    sys.stdout.write(printable(listing, newlines=True))
     return 0
 
 
@@ -116,5 +127,6 @@ def run_pipes(args: argparse.Namespace) -> int:
     if args.nps:
         sys.stdout.write(tools.nps_text(args.nps))
     else:
-        sys.stdout.write(tools.pipe_classes_text(args.criteria, plugins=not args.no_plugins))
+        classes = tools.pipe_classes_text(args.criteria, plugins=not args.no_plugins)
+        sys.stdout.write(printable(classes, newlines=True))
     return 0

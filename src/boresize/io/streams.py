@@ -190,7 +190,10 @@ def _with_unit(stream: object, field: str, label: str, units: Mapping[str, str],
     if unit is None and known is not None and known.get(field, ("", ""))[0] == attribute:
         unit = known[field][1]
     if unit is not None:
-        return f"{float(value)!r} {unit}"
+        try:
+            return f"{float(value)!r} {unit}"
+        except OverflowError:  # an int beyond any float: make_line names the field and the value
+            return f"{value} {unit}"
     if si:
         return value
     example, si_unit = _EXAMPLE[field]

@@ -181,10 +181,31 @@ def _init_worker(spec: SizerSpec) -> None:
     shared_sizer(spec)
 
 
+class TimedResults(list):  # type: ignore[type-arg]
+    """A chunk's results, with the seconds its lines spent in each criterion (``criterion_seconds``)."""
+
+    criterion_seconds: dict[str, float]
+
+
 def _run_chunk(spec: SizerSpec, chunk: Sequence[Item]) -> list[LineResult]:
-    """A worker's task: size a chunk of lines with the worker's own sizer (plain LineResults travel back)."""
+    """A worker's task: size a chunk of lines with the worker's own sizer (plain LineResults travel back, with
+    the chunk's seconds per criterion)."""
     sizer = shared_sizer(spec)
-    return [size_item(sizer, item) for item in chunk]
+    before = sizer.criterion_seconds()
+    done = TimedResults(size_item(sizer, item) for item in chunk)
+    done.criterion_seconds = _since(before, sizer.criterion_seconds())
+    return done
+
+
+def _since(before: dict[str, float], after: dict[str, float]) -> dict[str, float]:
+    return {ident: seconds - before.get(ident, 0.0) for ident, seconds in after.items()
+            if seconds > before.get(ident, 0.0)}
+
+
+def _add(total: dict[str, float] | None, more: dict[str, float]) -> None:
+    if total is not None:
+        for ident, seconds in more.items():
+            total[ident] = total.get(ident, 0.0) + seconds
 
 
 def _chunks(items: Sequence[Item], workers: int, size: int | None) -> list[Sequence[Item]]:
@@ -229,7 +250,7 @@ def _progress(total: int, show: bool | None, stream: TextIO | None) -> Iterator[
 def run_items(items: Sequence[Item], spec: SizerSpec | None = None, *, sizer: Sizer | None = None,
               executor: Executor | None = None, workers: int = 1, progress: bool | None = None,
               chunk_size: int | None = None, progress_stream: TextIO | None = None,
-              retry_hint: str = "--workers 1") -> list[LineResult]:
+              retry_hint: str = "--workers 1", criterion_seconds: dict[str, float] | None = None) -> list[LineResult]:
     """Size or check every line; one result per item, in input order.
 
     :param items: the lines (see :data:`Item`), e.g. :func:`boresize.io.line_items.line_items`'s
@@ -241,6 +262,8 @@ def run_items(items: Sequence[Item], spec: SizerSpec | None = None, *, sizer: Si
     :param progress: True/False to force the progress bar on or off; None shows it on a terminal for long runs
     :param chunk_size: lines per task (default: about eight tasks per worker, 1 to 64 lines each)
     :param retry_hint: how the caller asks for one process, for the message when a worker dies
+    :param criterion_seconds: given, the seconds spent in each criterion's evaluate over these lines are added
+        to it (criterion id -> seconds, summed over every process)
     :raises InputError: a parallel run given a ``sizer`` but no ``spec`` (workers could not rebuild it)
     :raises BoresizeError: a worker process died (the line at fault is not known)
     """
@@ -255,24 +278,31 @@ def run_items(items: Sequence[Item], spec: SizerSpec | None = None, *, sizer: Si
 
     if not parallel:
         engine = sizer or spec.build()
+        before = engine.criterion_seconds()
         results: list[LineResult] = []
         with _COLLECTOR_PAUSE, bar() as advance:
             for item in items:
                 results.append(size_item(engine, item))
                 advance(1)
+        _add(criterion_seconds, _since(before, engine.criterion_seconds()))
         return results
-    head = [size_item(sizer, items[0])] if sizer is not None and executor is None and items else []
+    head: list[LineResult] = []
+    if sizer is not None and executor is None and items:
+        before = sizer.criterion_seconds()
+        head = [size_item(sizer, items[0])]
+        _add(criterion_seconds, _since(before, sizer.criterion_seconds()))
     rest = items[len(head):]
     if not rest:
         return head
     return head + run_chunks(_run_chunk, spec, _chunks(rest, workers, chunk_size), executor=executor,
-                             workers=workers, retry_hint=retry_hint, progress=bar, already_done=len(head))
+                             workers=workers, retry_hint=retry_hint, progress=bar, already_done=len(head),
+                             criterion_seconds=criterion_seconds)
 
 
 def run_chunks(task: Callable[[SizerSpec, Any], list[Any]], spec: SizerSpec, chunks: Sequence[Sized], *,
                executor: Executor | None, workers: int, retry_hint: str,
                progress: Callable[[], AbstractContextManager[Callable[[int], None]]] | None = None,
-               already_done: int = 0) -> list[Any]:
+               already_done: int = 0, criterion_seconds: dict[str, float] | None = None) -> list[Any]:
     """Run ``task(spec, chunk)`` for every chunk on ``executor`` (or on ``workers`` processes started here and
     shut down after); results come back in chunk order, whatever order the chunks finish in.
 
@@ -280,6 +310,7 @@ def run_chunks(task: Callable[[SizerSpec, Any], list[Any]], spec: SizerSpec, chu
     :param progress: makes the progress bar, entered after every chunk is submitted (a forked pool starts its
         processes at the first submit, before the bar's thread); advanced by the lines of each finished chunk
     :param already_done: lines done before (shown on the bar from the start)
+    :param criterion_seconds: given, each chunk's seconds per criterion (a :class:`TimedResults`') are added to it
     :raises BoresizeError: a worker process died
     """
     pool = executor or process_pool(workers, spec)
@@ -291,7 +322,8 @@ def run_chunks(task: Callable[[SizerSpec, Any], list[Any]], spec: SizerSpec, chu
                 step = advance if advance is not None else (lambda n: None)
                 step(already_done)
                 for future in as_completed(futures):
-                    done[futures[future]] = future.result()
+                    done[futures[future]] = chunk = future.result()
+                    _add(criterion_seconds, getattr(chunk, "criterion_seconds", {}))
                     step(len(chunks[futures[future]]))
             return [result for chunk in done for result in chunk]
     except BrokenProcessPool as exc:
