@@ -183,3 +183,9 @@ def test_bad_units_are_refused_by_name(units, pattern):
     stream = {"name": "S-11", "T": "300 K", "P": "1 bar", "mass_flow": 1.0, "composition": {"water": 1.0}}
     with pytest.raises(InputError, match=pattern):
         line_from_stream(stream, units=units)
+
+
+def test_a_number_beyond_any_float_is_an_input_error_not_an_overflow():
+    stream = _thermosteam_like(ID="S-12", T=300.0, P=2e5, F_mass=10**400, z_mol=[1.0])
+    with pytest.raises(InputError, match=r"line S-12: flow: "):
+        line_from_stream(stream)
