@@ -5,7 +5,8 @@ pumped to a column; methanol goes overhead and is condensed; the water leaves at
 fuel gas fires the reboiler and cooling water serves the condenser. A simulation tool would hand
 over each stream as an object with T [K], P [Pa], mass flow [kg/s] and mole fractions of every
 component of the flowsheet (most of them zero in any one stream); here they are plain dicts and
-one small class. Each stream becomes a line with :func:`boresize.line_from_stream` and is sized.
+one small class. Each stream becomes a line with :func:`boresize.line_from_stream` (``si=True``: the
+caller states the export is SI; a bare number of unknown unit is refused) and is sized.
 
 Run: ``python examples/flowsheet_streams.py [--no-plugins]``
 """
@@ -60,7 +61,7 @@ def main(argv: list[str] | None = None) -> int:
     worst = 0
     for stream in STREAMS:
         tag = str(stream_value(stream, "tag"))
-        line = boresize.line_from_stream(stream, **LINE_DATA[tag])
+        line = boresize.line_from_stream(stream, si=True, **LINE_DATA[tag])  # this export is SI
         result = boresize.size(line, plugins=plugins)
         if result.status == "error":
             print(f"{tag:6s} error: {result.error}")

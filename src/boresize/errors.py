@@ -8,6 +8,8 @@ added by the engine when the error is tied to a line.
 
 from __future__ import annotations
 
+from boresize.report.printable import printable as printable  # how a message is shown on a terminal (the CLI's)
+
 __all__ = [
     "BoresizeError",
     "InputError",

@@ -18,9 +18,11 @@ from boresize.api.calls import (
 )
 from boresize.api.output import OUTPUT_SUFFIXES, check_output, check_outputs
 from boresize.api.result import RatedResult, SizingResult
-from boresize.api.run import Run, read_lines, roughness_value, run_lines, size_dataframe, size_rows
+from boresize.api.run import (SLOW_CRITERION_SECONDS, SLOW_CRITERION_SHARE, CriterionTime, Run, read_lines,
+                              roughness_value, run_lines, size_dataframe, size_rows)
 from boresize.io.csv_reader import LineList
 
-__all__ = ["OUTPUT_SUFFIXES", "PROCESS_THRESHOLD", "SI_UNITS", "LineList", "RatedResult", "Run", "SizingResult",
+__all__ = ["OUTPUT_SUFFIXES", "PROCESS_THRESHOLD", "SI_UNITS", "SLOW_CRITERION_SECONDS", "SLOW_CRITERION_SHARE",
+           "CriterionTime", "LineList", "RatedResult", "Run", "SizingResult",
            "check", "check_output", "check_outputs", "default_sizer", "make_line", "quantity_text", "read_lines",
            "roughness_value", "run_lines", "size", "size_dataframe", "size_many", "size_rows"]

@@ -16,6 +16,7 @@ from __future__ import annotations
 
 import hashlib
 import sys
+import time
 from collections.abc import Callable, Iterable, Sequence
 from concurrent.futures import Executor
 from dataclasses import dataclass, replace
@@ -38,10 +39,26 @@ if TYPE_CHECKING:
     from boresize.io.line_items import Cells
     from boresize.sizing.engine import Sizer
 
-__all__ = ["LineSource", "Run", "read_lines", "roughness_value", "run_lines", "size_dataframe", "size_rows"]
+__all__ = ["SLOW_CRITERION_SECONDS", "SLOW_CRITERION_SHARE", "CriterionTime", "LineSource", "Run", "read_lines", "roughness_value", "run_lines", "size_dataframe", "size_rows"]
 
 #: What :func:`run_lines` reads lines from.
 LineSource = Union[str, Path, IO[str], IO[bytes], "pd.DataFrame", LineList, Iterable[LineItem]]
+
+
+#: A criterion is noted as slow (``boresize size`` on stderr) when its evaluate took more than this many
+#: seconds in all over the run ...
+SLOW_CRITERION_SECONDS = 1.0
+#: ... and more than this share of the sizing time (the run's wall time times its worker processes).
+SLOW_CRITERION_SHARE = 0.2
+
+
+@dataclass(frozen=True)
+class CriterionTime:
+    """The seconds one criterion's evaluate took over a run, summed over its calls and processes."""
+
+    ident: str
+    plugin: str  #: the plugin (or source) that provides it
+    seconds: float
 
 
 @dataclass(frozen=True)
@@ -52,12 +69,29 @@ class Run:
     :param line_list: the line list as read (headers, units, source, SHA-256); no rows when given Lines
     :param trace: the traceability record (versions, backends, criteria set, input digest, date)
     :param headrooms: each line's headroom at its size, when asked for
+    :param criterion_times: the seconds each criterion's evaluate took (in the order the criteria were first
+        timed); empty when the run did not time them
+    :param sizing_seconds: the sizing time the shares of :meth:`slow_criteria` are of: the run's wall time
+        times its worker processes
     """
 
     results: tuple[SizingResult, ...]
     line_list: LineList
     trace: Traceability
     headrooms: tuple[Headroom, ...] | None = None
+    criterion_times: tuple[CriterionTime, ...] = ()
+    sizing_seconds: float = 0.0
+
+    @property
+    def criterion_seconds(self) -> dict[str, float]:
+        """Criterion id -> seconds its evaluate took over the run (the JSON summary's ``criterion_seconds``)."""
+        return {t.ident: t.seconds for t in self.criterion_times}
+
+    def slow_criteria(self) -> list[CriterionTime]:
+        """The criteria whose time is over :data:`SLOW_CRITERION_SECONDS` and :data:`SLOW_CRITERION_SHARE` of
+        the sizing time, slowest first."""
+        limit = max(SLOW_CRITERION_SECONDS, SLOW_CRITERION_SHARE * self.sizing_seconds)
+        return sorted((t for t in self.criterion_times if t.seconds > limit), key=lambda t: -t.seconds)
 
     @property
     def passed(self) -> bool:
@@ -74,7 +108,8 @@ class Run:
         from boresize.sizing.headroom import headroom_to_dict
 
         doc = document(self.results, criteria_source=self.trace.criteria_source,
-                       lines_source=self.line_list.source, traceability=self.trace.to_dict())
+                       lines_source=self.line_list.source, traceability=self.trace.to_dict(),
+                       criterion_seconds=self.criterion_seconds)
         for entry, room in zip(doc["lines"], self.headrooms or ()):
             entry.update(headroom_to_dict(room))
         return doc
@@ -129,13 +164,26 @@ def run_lines(lines: LineSource, criteria: str | Path | None = None, *, workers:
     spec = spec_for(criteria, plugins, roughness, every_size=every_size)
     line_list, items, cells = _read(lines, units_row, mode)
     sizer = default_sizer(spec)
+    seconds: dict[str, float] = {}
+    start = time.perf_counter()
     results = run_items(items, spec, sizer=sizer, executor=executor, workers=workers, progress=progress,
-                        retry_hint="one process (workers=1, or --workers 1 on the command line)")
+                        retry_hint="one process (workers=1, or --workers 1 on the command line)",
+                        criterion_seconds=seconds)
+    wall = (time.perf_counter() - start) * (workers if executor is None else 1)
+    times = tuple(CriterionTime(ident, _owner(sizer, ident), spent) for ident, spent in seconds.items())
     if cells is not None:
         results = [_with_cells(result, own) for result, own in zip(results, cells)]
     rooms = tuple(_headroom(sizer, r) for r in results) if headroom else None
     trace = _trace(sizer, spec, line_list, str(criteria) if criteria else sizer.config.origin)
-    return Run(tuple(SizingResult.of(r) for r in results), line_list, trace, rooms)
+    return Run(tuple(SizingResult.of(r) for r in results), line_list, trace, rooms, times, wall)
+
+
+def _owner(sizer: Sizer, ident: str) -> str:
+    """The plugin that provides criterion ``ident`` ("?" for an id no plugin registered)."""
+    try:
+        return sizer.host.criteria.owner(ident)
+    except (KeyError, LookupError):
+        return "?"
 
 
 def size_rows(rows: Iterable[tuple[Any, Any]], *, sizer: Sizer | None = None,

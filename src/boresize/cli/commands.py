@@ -9,7 +9,7 @@ from pathlib import Path
 from boresize import api
 from boresize.api import tools
 from boresize.cli.fields import SINGLE_LINE_FIELDS, print_json
-from boresize.errors import InputError, UsageError
+from boresize.errors import InputError, UsageError, printable
 
 __all__ = ["UsageError", "run_size", "run_criteria", "run_pipes", "run_diff"]
 
@@ -53,7 +53,7 @@ def _check_outputs(paths: list[str], lines: str | api.LineList) -> list[Path] | 
     outputs: list[Path] = []
     for checked in api.check_outputs(paths, [lines] if isinstance(lines, str) else []):
         if isinstance(checked, InputError):
-            print(f"boresize: error: {checked}", file=sys.stderr)
+            print(f"boresize: error: {printable(str(checked), newlines=True)}", file=sys.stderr)
         else:
             outputs.append(checked)
     return outputs if len(outputs) == len(paths) else None
@@ -66,11 +66,20 @@ def _write_outputs(run: api.Run, outputs: list[Path]) -> bool:
         try:
             run.write(path)
         except InputError as exc:
-            print(f"boresize: error: {exc}", file=sys.stderr)
+            print(f"boresize: error: {printable(str(exc), newlines=True)}", file=sys.stderr)
             written = False
         else:
-            print(f"boresize: wrote {path}", file=sys.stderr)
+            print(f"boresize: wrote {printable(str(path))}", file=sys.stderr)
     return written
+
+
+def _note_slow_criteria(run: api.Run) -> None:
+    """A note on stderr for each criterion over the slow limits (see :meth:`boresize.api.Run.slow_criteria`)."""
+    for slow in run.slow_criteria():
+        share = slow.seconds / run.sizing_seconds if run.sizing_seconds > 0 else 1.0
+        print(f"boresize: note: criterion {printable(slow.ident)} (plugin {printable(slow.plugin)}) "
+              f"took {slow.seconds:.1f} s, "
+              f"{share:.0%} of the {run.sizing_seconds:.1f} s of sizing", file=sys.stderr)
 
 
 def run_size(args: argparse.Namespace) -> int:
@@ -85,6 +94,7 @@ def run_size(args: argparse.Namespace) -> int:
                         corroded_roughness=roughness, plugins=not args.no_plugins, progress=args.progress,
                         headroom=args.headroom, bare_pressure=args.bare_pressure)
     written = _write_outputs(run, outputs)
+    _note_slow_criteria(run)
     if args.json:
         print_json(run.document())
         print(f"boresize: {run.summary()}", file=sys.stderr)
@@ -102,12 +112,13 @@ def run_diff(args: argparse.Namespace) -> int:
     if args.json:
         print_json(diff.to_dict())
     else:
-        sys.stdout.write(tools.diff_text(diff, args.old, args.new))
+        sys.stdout.write(printable(tools.diff_text(diff, args.old, args.new), newlines=True))
     return 0 if diff.empty else 1
 
 
 def run_criteria(args: argparse.Namespace) -> int:
-    sys.stdout.write(tools.criteria_text(args.criteria, plugins=not args.no_plugins))
+    listing = tools.criteria_text(args.criteria, plugins=not args.no_plugins)
+    sys.stdout.write(printable(listing, newlines=True))
     return 0
 
 
@@ -115,5 +126,6 @@ def run_pipes(args: argparse.Namespace) -> int:
     if args.nps:
         sys.stdout.write(tools.nps_text(args.nps))
     else:
-        sys.stdout.write(tools.pipe_classes_text(args.criteria, plugins=not args.no_plugins))
+        classes = tools.pipe_classes_text(args.criteria, plugins=not args.no_plugins)
+        sys.stdout.write(printable(classes, newlines=True))
     return 0

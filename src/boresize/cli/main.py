@@ -14,7 +14,7 @@ from collections.abc import Sequence
 
 from boresize import __version__
 from boresize.cli.fields import SINGLE_LINE_FIELDS
-from boresize.errors import BoresizeError, UsageError
+from boresize.errors import BoresizeError, UsageError, printable
 
 __all__ = ["main", "build_parser"]
 
@@ -91,13 +91,14 @@ def main(argv: Sequence[str] | None = None) -> int:
     try:
         return _dispatch(build_parser(), argv)
     except (UsageError, BoresizeError) as exc:
-        print(f"boresize: error: {exc}", file=sys.stderr)
+        print(f"boresize: error: {printable(str(exc), newlines=True)}", file=sys.stderr)
         return 2
     except KeyboardInterrupt:
         print("boresize: interrupted", file=sys.stderr)
         return 130
     except Exception as exc:  # the last guard: no traceback reaches the user
-        print(f"boresize: internal error {type(exc).__name__}: {exc}\nPlease report it with the input that "
+        print(f"boresize: internal error {type(exc).__name__}: {printable(str(exc), newlines=True)}\n"
+              f"Please report it with the input that "
               f"caused it; run with BORESIZE_DEBUG=1 for the traceback.", file=sys.stderr)
         if os.environ.get("BORESIZE_DEBUG"):
             raise

@@ -134,8 +134,13 @@ def _record(result: LineResult) -> dict[str, Any]:
 
 
 def document(results: Sequence[LineResult], *, criteria_source: str, lines_source: str,
-             traceability: Mapping[str, Any] | None = None) -> dict[str, Any]:
-    """The whole JSON document: lines in input order, a summary, the caution and (given) the traceability."""
+             traceability: Mapping[str, Any] | None = None,
+             criterion_seconds: Mapping[str, float] | None = None) -> dict[str, Any]:
+    """The whole JSON document: lines in input order, a summary, the caution and (given) the traceability.
+
+    Given ``criterion_seconds`` (criterion id -> seconds its evaluate took over the run), the summary holds them
+    as ``criterion_seconds``, rounded to the microsecond.
+    """
     counts = {status: sum(1 for r in results if r.status == status) for status in ("pass", "fail", "error")}
     doc: dict[str, Any] = {
         "boresize_version": __version__,
@@ -144,6 +149,8 @@ def document(results: Sequence[LineResult], *, criteria_source: str, lines_sourc
         "summary": {"lines": len(results), **counts, "bare_pressure": bare_pressure_count(results)},
         "caution": CAUTION,
     }
+    if criterion_seconds is not None:
+        doc["summary"]["criterion_seconds"] = {ident: round(t, 6) for ident, t in criterion_seconds.items()}
     if traceability is not None:
         doc["traceability"] = dict(traceability)
     doc["lines"] = [result_to_dict(r) for r in results]

@@ -1,4 +1,8 @@
-"""The sized line list as a plain-text table, with errors and the caution below it."""
+"""The sized line list as a plain-text table, with errors and the caution below it.
+
+Every echoed text (tag, service, fluid source, messages) is shown with its control and format characters
+escaped (:func:`boresize.report.printable.printable`): the table is for a terminal. The other outputs keep it exact.
+"""
 
 from __future__ import annotations
 
@@ -6,6 +10,7 @@ from collections.abc import Sequence
 
 from boresize.io.document import CAUTION
 from boresize.model import LineResult, bare_pressure_text
+from boresize.report.printable import printable
 from boresize.sizing.selection import controlling_utilisation
 
 __all__ = ["render_table"]
@@ -38,7 +43,7 @@ def _controlling(r: LineResult) -> str:
 
 def render_table(results: Sequence[LineResult], criteria_source: str, criteria_set: str) -> str:
     """The table, the summary naming the criteria file and set, failures, errors and notes, the caution."""
-    rows = [COLUMNS] + [_row(r) for r in results]
+    rows = [COLUMNS] + [tuple(printable(cell) for cell in _row(r)) for r in results]
     widths = [max(len(row[i]) for row in rows) for i in range(len(COLUMNS))]
     out = ["  ".join(cell.ljust(w) for cell, w in zip(row, widths)).rstrip() for row in rows]
     out.insert(1, "  ".join("-" * w for w in widths))
@@ -46,17 +51,17 @@ def render_table(results: Sequence[LineResult], criteria_source: str, criteria_s
     out.append("")
     out.append(f"{len(results)} lines: {counts['pass']} pass, {counts['fail']} fail, {counts['error']} error"
                f"{bare_pressure_text(results)}   "
-               f"(criteria: {criteria_source}, set {criteria_set})")
+               f"(criteria: {printable(criteria_source)}, set {printable(criteria_set)})")
     details = [r for r in results if r.status != "pass" or r.notes]
     for r in details:
         if r.error:
-            out.append(f"  ERROR {r.error}")
+            out.append(f"  ERROR {printable(r.error)}")
             continue
         failing = [v for v in (r.selected.verdicts if r.selected else ()) if v.status in ("fail", "error")]
         for v in failing:
-            out.append(f"  {r.status.upper()} {r.tag}: {v.criterion}: {v.reason}")
+            out.append(printable(f"  {r.status.upper()} {r.tag}: {v.criterion}: {v.reason}"))
         for note in r.notes:
-            out.append(f"  note {r.tag}: {note}")
+            out.append(printable(f"  note {r.tag}: {note}"))
     out.append("")
     out.append("CAUTION: " + CAUTION)
     return "\n".join(out) + "\n"

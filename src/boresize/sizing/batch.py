@@ -183,10 +183,31 @@ def _init_worker(spec: SizerSpec) -> None:
     shared_sizer(spec)
 
 
+class TimedResults(list):  # type: ignore[type-arg]
+    """A chunk's results, with the seconds its lines spent in each criterion (``criterion_seconds``)."""
+
+    criterion_seconds: dict[str, float]
+
+
 def _run_chunk(spec: SizerSpec, chunk: Sequence[Item]) -> list[LineResult]:
-    """A worker's task: size a chunk of lines with the worker's own sizer (plain LineResults travel back)."""
+    """A worker's task: size a chunk of lines with the worker's own sizer (plain LineResults travel back, with
+    the chunk's seconds per criterion)."""
     sizer = shared_sizer(spec)
-    return [size_item(sizer, item) for item in chunk]
+    before = sizer.criterion_seconds()
+    done = TimedResults(size_item(sizer, item) for item in chunk)
+    done.criterion_seconds = _since(before, sizer.criterion_seconds())
+    return done
+
+
+def _since(before: dict[str, float], after: dict[str, float]) -> dict[str, float]:
+    return {ident: seconds - before.get(ident, 0.0) for ident, seconds in after.items()
+            if seconds > before.get(ident, 0.0)}
+
+
+def _add(total: dict[str, float] | None, more: dict[str, float]) -> None:
+    if total is not None:
+        for ident, seconds in more.items():
+            total[ident] = total.get(ident, 0.0) + seconds
 
 
 def _chunks(items: Sequence[Item], workers: int, size: int | None) -> list[Sequence[Item]]:
@@ -231,7 +252,7 @@ def _progress(total: int, show: bool | None, stream: TextIO | None) -> Iterator[
 def run_items(items: Sequence[Item], spec: SizerSpec | None = None, *, sizer: Sizer | None = None,
               executor: Executor | None = None, workers: int = 1, progress: bool | None = None,
               chunk_size: int | None = None, progress_stream: TextIO | None = None,
-              retry_hint: str = "--workers 1") -> list[LineResult]:
+              retry_hint: str = "--workers 1", criterion_seconds: dict[str, float] | None = None) -> list[LineResult]:
     """Size or check every line; one result per item, in input order.
 
     :param items: the lines (see :data:`Item`), e.g. :func:`boresize.io.line_items.line_items`'s
@@ -243,6 +264,8 @@ def run_items(items: Sequence[Item], spec: SizerSpec | None = None, *, sizer: Si
     :param progress: True/False to force the progress bar on or off; None shows it on a terminal for long runs
     :param chunk_size: lines per task (default: about eight tasks per worker, 1 to 64 lines each)
     :param retry_hint: how the caller asks for one process, for the message when a worker dies
+    :param criterion_seconds: given, the seconds spent in each criterion's evaluate over these lines are added
+        to it (criterion id -> seconds, summed over every process)
     :raises InputError: a parallel run given a ``sizer`` but no ``spec`` (workers could not rebuild it)
     """
     parallel = executor is not None or workers > 1
@@ -256,19 +279,25 @@ def run_items(items: Sequence[Item], spec: SizerSpec | None = None, *, sizer: Si
 
     if not parallel:
         engine = sizer or spec.build()
+        before = engine.criterion_seconds()
         results: list[LineResult] = []
         with _COLLECTOR_PAUSE, bar() as advance:
             for item in items:
                 results.append(size_item(engine, item))
                 advance(1)
+        _add(criterion_seconds, _since(before, engine.criterion_seconds()))
         return results
-    head = [size_item(sizer, items[0])] if sizer is not None and executor is None and items else []
+    head: list[LineResult] = []
+    if sizer is not None and executor is None and items:
+        before = sizer.criterion_seconds()
+        head = [size_item(sizer, items[0])]
+        _add(criterion_seconds, _since(before, sizer.criterion_seconds()))
     rest = items[len(head):]
     if not rest:
         return head
     return head + run_chunks(_run_chunk, spec, _chunks(rest, workers, chunk_size), executor=executor,
                              workers=workers, retry_hint=retry_hint, progress=bar, already_done=len(head),
-                             lost=_lost)
+                             lost=_lost, criterion_seconds=criterion_seconds)
 
 
 def _lost(item: Item, cause: str) -> LineResult:
@@ -281,7 +310,8 @@ def _lost(item: Item, cause: str) -> LineResult:
 def run_chunks(task: Callable[[SizerSpec, Any], list[Any]], spec: SizerSpec, chunks: Sequence[Sequence[Any]], *,
                executor: Executor | None, workers: int, retry_hint: str,
                progress: Callable[[], AbstractContextManager[Callable[[int], None]]] | None = None,
-               already_done: int = 0, lost: Callable[[Any, str], Any] | None = None) -> list[Any]:
+               already_done: int = 0, lost: Callable[[Any, str], Any] | None = None,
+               criterion_seconds: dict[str, float] | None = None) -> list[Any]:
     """Run ``task(spec, chunk)`` for every chunk on ``executor`` (or on ``workers`` processes started here and
     shut down after); results come back in chunk order, whatever order the chunks finish in.
 
@@ -292,6 +322,7 @@ def run_chunks(task: Callable[[SizerSpec, Any], list[Any]], spec: SizerSpec, chu
     :param lost: the result of one item whose worker process died (given the item and the cause); with it, the
         chunks a dead worker left unfinished are run again one by one on a fresh process, and an item that ends
         that process too gets ``lost``'s result
+    :param criterion_seconds: given, each chunk's seconds per criterion (a :class:`TimedResults`') are added to it
     :raises BoresizeError: a worker process died and no ``lost`` was given
     """
     pool = executor or process_pool(workers, spec)
@@ -304,16 +335,18 @@ def run_chunks(task: Callable[[SizerSpec, Any], list[Any]], spec: SizerSpec, chu
                 step(already_done)
                 for future in as_completed(futures):
                     try:
-                        done[futures[future]] = future.result()
+                        done[futures[future]] = chunk = future.result()
                     except BrokenProcessPool:
                         if lost is None:
                             raise
                         continue
+                    _add(criterion_seconds, getattr(chunk, "criterion_seconds", {}))
                     step(len(chunks[futures[future]]))
                 left = [i for i, chunk in enumerate(done) if chunk is None]
                 if lost is not None and left:
                     for i, results in zip(left, _isolated(task, spec, [chunks[i] for i in left], lost)):
                         done[i] = results
+                        _add(criterion_seconds, getattr(results, "criterion_seconds", {}))
                         step(len(results))
     except BrokenProcessPool as exc:
         raise BoresizeError(f"a worker process stopped unexpectedly ({exc}); run again with {retry_hint} to "
