@@ -73,7 +73,7 @@ def _cli(tmp_path: Path, service: str) -> subprocess.CompletedProcess[str]:
     src = str(Path(__file__).resolve().parents[1] / "src")
     env = {**os.environ, "PYTHONPATH": os.pathsep.join([str(tmp_path), src])}
     return subprocess.run([sys.executable, "-m", "boresize", "size", "lines.csv", "--criteria", "criteria.toml",
-                           "--json"], cwd=tmp_path, env=env, capture_output=True, text=True, timeout=120)
+                           "--json", "--timings"], cwd=tmp_path, env=env, capture_output=True, text=True, timeout=120)
 
 
 def test_a_slow_plugin_is_noted_with_its_time_and_a_fast_builtin_is_not(tmp_path: Path) -> None:
@@ -93,6 +93,8 @@ def test_fast_builtins_get_no_note(tmp_path: Path) -> None:
     assert "note: criterion" not in done.stderr
     seconds = json.loads(done.stdout)["summary"]["criterion_seconds"]
     assert "velocity" in seconds and "sleepy" not in seconds  # only criteria that judged a line are timed
+    assert re.search(r"^boresize: time: criterion velocity \(plugin boresize\.criteria\.builtin\) \d+\.\d{3} s$",
+                     done.stderr, re.M), done.stderr
 
 
 class _Slow(Criterion):

@@ -52,10 +52,8 @@ def test_json_mode_puts_the_summary_on_stderr(capsys):
                  "--json", "--no-plugins", "--progress"])
     captured = capsys.readouterr()
     assert code == 0
-    summary = json.loads(captured.out)["summary"]
-    seconds = summary.pop("criterion_seconds")  # each criterion's time in evaluate over the run
-    assert summary == {"lines": 1, "pass": 1, "fail": 0, "error": 0, "bare_pressure": 0}
-    assert "velocity" in seconds and all(t >= 0 for t in seconds.values())
+    # no timings unless asked for (--timings): the same input gives the same document
+    assert json.loads(captured.out)["summary"] == {"lines": 1, "pass": 1, "fail": 0, "error": 0, "bare_pressure": 0}
     assert "1 lines: 1 pass, 0 fail, 0 error" in captured.err
     assert "1/1" in captured.err  # the progress bar, asked for
 

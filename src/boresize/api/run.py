@@ -84,7 +84,8 @@ class Run:
 
     @property
     def criterion_seconds(self) -> dict[str, float]:
-        """Criterion id -> seconds its evaluate took over the run (the JSON summary's ``criterion_seconds``)."""
+        """Criterion id -> seconds its evaluate took over the run (in the JSON summary's ``criterion_seconds`` only
+        when :meth:`document` is asked for timings: a document without them is the same for the same input)."""
         return {t.ident: t.seconds for t in self.criterion_times}
 
     def slow_criteria(self) -> list[CriterionTime]:
@@ -102,14 +103,18 @@ class Run:
         """One line: how many lines were sized or checked, passed, failed and had errors."""
         return summary(self.results)
 
-    def document(self) -> dict[str, Any]:
-        """The JSON document (``boresize size --json``), with each line's headroom when asked for."""
+    def document(self, timings: bool = False) -> dict[str, Any]:
+        """The JSON document (``boresize size --json``), with each line's headroom when asked for.
+
+        :param timings: add each criterion's seconds (``summary.criterion_seconds``; they differ from run to run,
+            so a document without them is byte-identical for the same input)
+        """
         from boresize.io.document import document
         from boresize.sizing.headroom import headroom_to_dict
 
         doc = document(self.results, criteria_source=self.trace.criteria_source,
                        lines_source=self.line_list.source, traceability=self.trace.to_dict(),
-                       criterion_seconds=self.criterion_seconds)
+                       criterion_seconds=self.criterion_seconds if timings else None)
         for entry, room in zip(doc["lines"], self.headrooms or ()):
             entry.update(headroom_to_dict(room))
         return doc

@@ -95,8 +95,12 @@ def run_size(args: argparse.Namespace) -> int:
                         headroom=args.headroom, bare_pressure=args.bare_pressure)
     written = _write_outputs(run, outputs)
     _note_slow_criteria(run)
+    if args.timings:
+        for spent in sorted(run.criterion_times, key=lambda t: -t.seconds):
+            print(f"boresize: time: criterion {printable(spent.ident)} (plugin {printable(spent.plugin)}) "
+                  f"{spent.seconds:.3f} s", file=sys.stderr)
     if args.json:
-        print_json(run.document())
+        print_json(run.document(timings=args.timings))
         print(f"boresize: {run.summary()}", file=sys.stderr)
     else:
         sys.stdout.write(run.table())

@@ -79,6 +79,9 @@ def _add_run_options(size: argparse.ArgumentParser) -> None:
                       help="how a pressure in a bare unit (9 psi, 0.5 bar, a header's [bar]: neither g nor a) is read: "
                            "absolute (the default, as documented), gauge (101.325 kPa added) or error (the line is an "
                            "error naming the field); each such line has a note and the summary counts them")
+    size.add_argument("--timings", action="store_true",
+                      help="print the seconds each criterion took on stderr (and, with --json, in the summary's "
+                           "criterion_seconds); a criterion over 1 s and 20%% of the sizing gets a note regardless")
     size.add_argument("--every-size", action="store_true",
                       help="rate every size of the pipe class from the smallest, instead of walking from the "
                            "first-guess diameter (same selection, slower; the record shows every size below)")
