@@ -181,7 +181,8 @@ class AqueousBackend:
         todo = ("give the line's density and viscosity (and vapour_pressure), or name a backend "
                 "(backend thermo: a cubic equation of state)")
         if not low_w - 1e-9 <= solution.mass_fraction <= high_w + 1e-9:
-            raise PropertyError(f"aqueous: {solution.label} is outside the Melinder correlation's range "
+            raise PropertyError(f"aqueous: {name} {solution.mass_fraction * 100:.6g} wt% in water is outside the "
+                                f"Melinder correlation's range "
                                 f"INCOMP::{solution.code} ({name} {low_w * 100:g} to {high_w * 100:g} wt% in water); "
                                 f"{todo}")
         freezing, top = incompressible.trivial_keyed_output(CP.iT_freeze), incompressible.Tmax()

@@ -2,7 +2,8 @@
 
 Order matters for the automatic choice (the first backend whose ``handles(line)`` is true serves a
 line that names no backend): line list values, then CoolProp for pure fluids it knows, then water with an
-alcohol or glycol (``aqueous``), then CoolProp incompressible liquids and brines, then thermo for mixtures and the pure components CoolProp lacks.
+alcohol or glycol (``aqueous``), then CoolProp incompressible liquids and brines, then thermo for mixtures
+and the pure components CoolProp lacks.
 """
 
 from __future__ import annotations
