@@ -202,3 +202,8 @@ def test_flashing_on_an_aqueous_line_uses_the_bubble_pressure(sizer: Any, backen
     # the bubble pressure lies above water's own 0.0738 bar abs at 40 degC (IAPWS-95 through CoolProp): a
     # check against water alone would have passed a line that flashes
     assert bubble.bubble_pressure is not None and bubble.bubble_pressure > 0.0738e5
+    from boresize.io.document import result_to_dict
+
+    entry = result_to_dict(result)
+    assert entry["property_family"] == "aqueous solution" and entry["property_source"] == "aqueous"
+    assert entry["property_validity"].startswith("ethanol 0 to 60 wt% in water; at 30 wt% from -20.14 degC")

@@ -26,7 +26,6 @@ boils there: these are liquid models).
 from __future__ import annotations
 
 import functools
-import importlib.metadata
 import math
 import threading
 from dataclasses import dataclass
@@ -117,19 +116,26 @@ def _solution(code: str, fraction: float, note: str | None) -> Solution:
 
 
 class AqueousBackend:
-    """Aqueous alcohols and glycols: Melinder density and viscosity, modified UNIFAC bubble pressure."""
+    """Aqueous alcohols and glycols: Melinder density and viscosity, modified UNIFAC bubble pressure.
+
+    :param cache_size: number of (solution, pressure, temperature) results kept [-]
+    """
 
     id = "aqueous"
     title = "aqueous solutions (Melinder correlations through CoolProp, modified UNIFAC bubble pressure)"
 
-    def __init__(self) -> None:
+    def __init__(self, cache_size: int = 4096) -> None:
         self._lock = threading.RLock()
         self._states: dict[str, Any] = {}
         self._liquids: dict[str, Any] = {}
+        self._cached = functools.lru_cache(maxsize=cache_size)(self._state)
 
     def version(self) -> str:
         """CoolProp's and thermo's versions (no import)."""
-        return f"CoolProp {importlib.metadata.version('CoolProp')}, thermo {importlib.metadata.version('thermo')}"
+        from boresize.properties.coolprop import _coolprop_version
+        from boresize.properties.thermo_phases import thermo_version
+
+        return f"CoolProp {_coolprop_version()}, thermo {thermo_version()}"
 
     def handles(self, line: Line) -> bool:
         """True for water with one solute of :data:`SOLUTIONS`, unless the line gives density and viscosity."""
@@ -162,7 +168,7 @@ class AqueousBackend:
                              field="fluid", value=line.fluid,
                              expected="e.g. 'mass: water 0.7, ethanol 0.3' or 'MEG 30%'")
         with self._lock:
-            return self._state(solution, float(pressure), float(temperature))
+            return self._cached(solution, float(pressure), float(temperature))
 
     def bubble_pressure(self, solution: Solution, temperature: float) -> float:
         """Bubble pressure [Pa abs] of ``solution`` at ``temperature`` [K] (modified UNIFAC, ideal gas)."""
