@@ -207,3 +207,16 @@ def test_flashing_on_an_aqueous_line_uses_the_bubble_pressure(sizer: Any, backen
     entry = result_to_dict(result)
     assert entry["property_family"] == "aqueous solution" and entry["property_source"] == "aqueous"
     assert entry["property_validity"].startswith("ethanol 0 to 60 wt% in water; at 30 wt% from -20.14 degC")
+
+
+def test_npsh_on_an_aqueous_pump_suction_uses_the_bubble_pressure(sizer: Any, backend: AqueousBackend) -> None:
+    row = {"tag": "EW-2", "fluid": "MEG 30%", "flow": "5 t/h", "pressure": "1.2 bar", "temperature": "60 degC",
+           "service": "pump-suction", "source_pressure": "1.2 bar", "liquid_level": "3 m", "npsh_required": "2 m"}
+    result = sizer.run(line_from_row(row))
+    npsh = next(v for v in result.selected.verdicts if v.criterion == "npsh-margin")
+    bubble = backend.state(make_line("MEG 30%", 1.2e5, T0 + 60.0), 1.2e5, T0 + 60.0).bubble_pressure
+    assert bubble is not None and f"vapour pressure {bubble / 1e5:.4g} bar abs" in npsh.reason
+    # NPSHa = (P_source - P_bubble) / (rho g) + level - losses (Hydraulic Institute definition; g = 9.80665 m/s2)
+    hyd, rho = result.selected.hydraulics, result.state.density
+    losses = hyd.drop + hyd.fittings_drop + hyd.fixed_drop
+    assert npsh.value == pytest.approx((1.2e5 - bubble - losses) / (rho * 9.80665) + 3.0, rel=1e-6)
