@@ -46,8 +46,10 @@ STREAMS: list[object] = [
 ]
 LINE_DATA = {  # tag -> line-list fields the simulation does not know
     "S-301": {"service": "liquid", "length": "80 m"},
-    "S-302": {"service": "liquid", "length": "40 m"},
-    "S-303": {"service": "liquid", "length": "60 m"},
+    # S-302 (99 wt% methanol) and S-303 (105 degC) lie outside the aqueous backend's Melinder correlations
+    # (0-60 wt%, up to 40 degC for methanol), which refuse them: thermo's cubic equation of state is named instead.
+    "S-302": {"service": "liquid", "length": "40 m", "backend": "thermo"},
+    "S-303": {"service": "liquid", "length": "60 m", "backend": "thermo"},
     "S-304": {"service": "gas", "length": "120 m"},
     "S-305": {"service": "cooling-water", "length": "200 m"},
 }

@@ -183,7 +183,7 @@ ROWS = [
      "temperature": "20 degC"},
     {"tag": "X-SUM", "fluid": "methane:0.8, ethane:0.1", "flow": "1 t/h", "pressure": "10 bar",
      "temperature": "20 degC"},
-    {"tag": "B-1", "fluid": "MEG 30%", "flow": "30 m3/h", "pressure": "5 barg", "temperature": "20 degC"},
+    {"tag": "B-1", "fluid": "NaCl 10%", "flow": "30 m3/h", "pressure": "5 barg", "temperature": "20 degC"},
     {"tag": "X-FLASH", "fluid": "water", "flow": "10 t/h", "pressure": "1 bar", "temperature": "120 degC",
      "phase": "liquid"},
     {"tag": "P-2", "fluid": "water", "flow": "50 t/h", "pressure": "5 barg", "temperature": "25 degC"},

@@ -355,7 +355,7 @@ def test_a_given_vapour_pressure_lets_flashing_judge_a_line_of_its_own_values(si
 def test_a_brine_takes_its_vapour_pressure_from_the_line(sizer):
     from boresize.io.rows import line_from_row
 
-    brine = {"tag": "B-1", "fluid": "MEG 30%", "flow": "20 t/h", "pressure": "3 barg", "temperature": "20 degC"}
+    brine = {"tag": "B-1", "fluid": "NaCl 10%", "flow": "20 t/h", "pressure": "3 barg", "temperature": "20 degC"}
     assert sizer.run(line_from_row(brine)).status == "error"  # CoolProp's brines carry no vapour pressure
     judged = sizer.run(line_from_row({**brine, "vapour_pressure": "0.02 bar"}))
     assert judged.status == "pass" and judged.state is not None and judged.state.vapour_pressure == 2000.0

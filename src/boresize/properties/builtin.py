@@ -1,13 +1,15 @@
 """The built-in property backends, registered through the same hook a third-party plugin uses.
 
 Order matters for the automatic choice (the first backend whose ``handles(line)`` is true serves a
-line that names no backend): line list values, then CoolProp for pure fluids it knows, then CoolProp
-incompressible liquids and brines, then thermo for mixtures and the pure components CoolProp lacks.
+line that names no backend): line list values, then CoolProp for pure fluids it knows, then water with an
+alcohol or glycol (``aqueous``), then CoolProp incompressible liquids and brines, then thermo for mixtures
+and the pure components CoolProp lacks.
 """
 
 from __future__ import annotations
 
 from boresize.hookspecs import hookimpl
+from boresize.properties.aqueous import AqueousBackend
 from boresize.properties.coolprop import CoolPropBackend
 from boresize.properties.coolprop_mixture import CoolPropMixtureBackend
 from boresize.properties.given import TableBackend
@@ -19,5 +21,6 @@ from boresize.registry import BackendRegistry
 def boresize_register_property_backends(register: BackendRegistry) -> None:
     register.add(TableBackend())
     register.add(CoolPropBackend())
+    register.add(AqueousBackend())
     register.add(CoolPropMixtureBackend())
     register.add(ThermoBackend())

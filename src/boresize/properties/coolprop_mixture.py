@@ -9,7 +9,8 @@ Incompressible spellings (the fraction is by mass, as CoolProp defines these sol
 ``INCOMP::MEG-30%``, ``INCOMP::MEG[0.3]``, a pure heat-transfer fluid ``INCOMP::T66``, or the friendly
 ``MEG 30%``, ``30 % ethylene glycol``, ``propylene glycol 40 wt%``, ``NaCl 10%``: the solutes of
 :data:`SOLUTES` (ethylene and propylene glycol, glycerol, methanol, ethanol, ammonia, NaCl, CaCl2,
-MgCl2, K2CO3, LiCl in water). Always liquid; no vapour pressure.
+MgCl2, K2CO3, LiCl in water). Always liquid; no vapour pressure. Water with an alcohol or glycol goes to
+the ``aqueous`` backend first (:mod:`boresize.properties.aqueous`: the same fits, plus a bubble pressure).
 
 Guards on HEOS mixture states (each a :class:`~boresize.errors.PropertyError` naming the backend and
 the value): compressibility factor Z <= 0, or outside 0.05..2 for a gas (Z = 163 for methane/n-decane

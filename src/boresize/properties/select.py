@@ -4,7 +4,8 @@ A line that names a backend (``backend`` column: ``coolprop``, ``thermo``, ``coo
 ``table`` or a plugin's id) gets that one. Otherwise a line that gives both density and viscosity uses
 them (backend ``table``, recorded as the source); otherwise the first registered backend whose
 ``handles(line)`` is true serves it: with the built-ins, a pure fluid CoolProp knows -> ``coolprop``;
-a CoolProp incompressible liquid or brine (``MEG 30%``) -> ``coolprop-mixture``; a mixture
+water with an alcohol or glycol (``mass: water 0.7, ethanol 0.3``, ``MEG 30%``) -> ``aqueous``; another
+CoolProp incompressible liquid or brine (``NaCl 10%``) -> ``coolprop-mixture``; a mixture
 (``methane:0.9, ethane:0.1``) or a component only the chemicals database knows -> ``thermo``.
 
 A standard-volume flow (Sm3/h, Nm3/h, scf, MMSCFD) becomes a mass flow with the density that the

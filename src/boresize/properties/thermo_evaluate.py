@@ -73,8 +73,28 @@ def evaluate_mixture(package: ThermoPackage, fluid: Fluid, eos: str, pressure: f
     if split.label == "VL":
         return _two_phase(package, fluid, eos, pressure, temperature, split.vapour_fraction,
                           split.gas_zs, split.liquid_zs, own)
+    if split.label.count("L") >= 2:
+        raise _two_liquids(fluid, pressure, temperature, split.label)
     raise PropertyError(f"thermo: unexpected phase {split.label!r} for {fluid.label} at "
                         f"{describe_conditions(pressure, temperature)}")
+
+
+def _two_liquids(fluid: Fluid, pressure: float, temperature: float, label: str) -> InputError:
+    """The refusal of a state thermo's flash splits into two liquid phases ("LL", "VLL"): this backend
+    models one liquid, and a one-liquid average of two liquids is a plausible wrong number."""
+    from chemicals.elements import simple_formula_parser
+    from chemicals.identifiers import search_chemical
+
+    others = [(name, cas) for name, cas in zip(fluid.names, fluid.cas) if cas != "7732-18-5"]
+    hydrocarbons = all(set(simple_formula_parser(search_chemical(cas).formula)) == {"C", "H"} for _, cas in others)
+    if len(others) < len(fluid.cas):
+        pair = "water and hydrocarbon" if hydrocarbons else f"water and {', '.join(name for name, _ in others)}"
+    else:
+        pair = "two liquids of " + ", ".join(fluid.names)
+    return InputError(f"two liquid phases ({pair}) in {fluid.label} at {describe_conditions(pressure, temperature)}: "
+                      f"thermo's flash finds {label!r} and this backend models one liquid, so its density and "
+                      f"viscosity would be wrong", field="fluid", value=fluid.label,
+                      expected="each liquid phase's line sized separately, or the line's own density and viscosity")
 
 
 def liquid_direct(package: ThermoPackage, fluid: Fluid, eos: str, pressure: float, temperature: float,
