@@ -261,4 +261,6 @@ def _resolve(text: str, basis: Basis | None) -> Fluid:
         fractions = mole_fractions(fractions, [c.molar_mass for c in components])
     names = tuple(c.name for c in components)
     label = names[0] if len(names) == 1 else ", ".join(f"{n} {z:.4g}" for n, z in zip(names, fractions))
-    return Fluid(label, names, tuple(merged), fractions, composition.note)
+    notes = [composition.note] if composition.note else []
+    notes += [c.note for c in components if c.note]  # a name read through a database synonym: say as what
+    return Fluid(label, names, tuple(merged), fractions, "; ".join(notes) or None)
