@@ -6,6 +6,8 @@ thermo's Peng-Robinson EOS (``thermo.eos.PR`` with the chemicals database's cons
 
 from __future__ import annotations
 
+from dataclasses import replace
+
 import CoolProp
 import CoolProp.CoolProp as CP
 import pytest
@@ -16,7 +18,7 @@ import boresize.criteria.property_crosscheck as crosscheck
 from boresize.criteria.base import parse_options
 from boresize.criteria.property_crosscheck import PropertyCrosscheck
 from boresize.errors import CriteriaFileError, InputError
-from boresize.model import Flow, Line
+from boresize.model import Flow, FluidState, Line
 from boresize.plugin import NoSecondOpinion, backend_state, independent_backend
 from boresize.testing import run_criterion, size_line
 from criteria_context import make_context
@@ -132,8 +134,6 @@ def test_no_second_backend_is_an_error_saying_why(row, words):
 
 
 def test_a_plugin_reaches_the_second_opinion_through_boresize_plugin():
-    from boresize.model import FluidState
-
     state = FluidState(density=1.0, viscosity=1e-5, phase="gas", source="acme-gas", model="acme")
     with pytest.raises(NoSecondOpinion, match="backend 'acme-gas' has no independent second backend"):
         independent_backend(METHANE, state)
@@ -155,3 +155,28 @@ def test_options_out_of_range_are_errors_naming_the_option(given, message):
     with pytest.raises(CriteriaFileError, match=message.replace("(", r"\(")) as info:
         parse_options(PropertyCrosscheck(), given, WHERE)
     assert info.value.field.startswith(WHERE)
+
+
+def test_a_thermo_aqueous_alcohol_is_checked_with_melinder():
+    # 30 wt% methanol in water at 10 degC: thermo serves the composition; the second opinion is CoolProp's
+    # incompressible solution (Melinder), computed here. thermo's logarithmic viscosity mixing is far too low.
+    line = {"tag": "A-1", "fluid": "mass: water 0.7, methanol 0.3", "flow": "1 t/h", "pressure": "3 bar",
+            "temperature": "10 degC"}
+    result = run_criterion(PropertyCrosscheck(), line, "2")
+    melinder = CP.AbstractState("INCOMP", "MMA")
+    melinder.set_mass_fractions([0.3])
+    melinder.update(CP.PT_INPUTS, 3e5, 283.15)
+    assert result.status == "fail" and result.reason.startswith("viscosity differs by ")
+    assert f"against {melinder.viscosity() * 1e3:.5g} mPa s from coolprop-mixture (CoolProp {CoolProp.__version__} " \
+           "INCOMP::MMA-30%" in result.reason
+
+
+def test_a_mole_composition_maps_to_the_solutions_mass_fraction():
+    # water/ethanol 80/20 mol: mass fraction 0.2 M_EtOH / (0.2 M_EtOH + 0.8 M_water), molar masses from chemicals
+    line = Line(tag="A-2", fluid="water:0.8, ethanol:0.2", flow=Flow("mass", 1.0), pressure=3e5, temperature=298.15)
+    state = FluidState(990.0, 2e-3, "liquid", "thermo", "x")
+    backend, fluid = independent_backend(line, state)
+    ethanol, water = 0.2 * MW("64-17-5"), 0.8 * MW("7732-18-5")
+    assert backend == "coolprop-mixture" and fluid.startswith("INCOMP::MEA[") and fluid.endswith("]")
+    assert float(fluid[len("INCOMP::MEA["):-1]) == pytest.approx(ethanol / (ethanol + water), rel=1e-4)
+    assert independent_backend(replace(line, fluid="water:0.5, acetone:0.5"), state)[1] == "water:0.5, acetone:0.5"

@@ -28,6 +28,11 @@ SECOND_OPINION_BACKENDS = ("coolprop", "coolprop-mixture", "thermo")
 _SOLUTE_NAMES = {"MEG": "ethylene glycol", "MPG": "propylene glycol", "MGL": "glycerol", "MMA": "methanol",
                  "MEA": "ethanol", "MAM": "ammonia"}
 
+#: Molar masses [g/mol] of water and those solutes (IUPAC atomic weights), for a composition given in moles.
+_MOLAR_MASSES = {"water": 18.015, "MEG": 62.068, "MPG": 76.095, "MGL": 92.094, "MMA": 32.042, "MEA": 46.069,
+                 "MAM": 17.031}
+_WATER = ("water", "h2o", "7732-18-5")
+
 _lock = threading.Lock()
 _backends: dict[str, Any] = {}
 
@@ -104,7 +109,7 @@ def independent_backend(line: Line, state: FluidState) -> tuple[str, str]:
         return "thermo", _thermo_fluid(line.fluid)
     if source == "thermo":
         if is_mixture(line.fluid):
-            return "coolprop-mixture", line.fluid
+            return "coolprop-mixture", _aqueous_solution(line) or line.fluid
         if _builtin("coolprop")._known_name(line.fluid) is None:
             raise NoSecondOpinion(f"CoolProp has no equation for {line.fluid!r}, so thermo's state has no "
                                   "independent second opinion")
@@ -125,3 +130,27 @@ def _thermo_fluid(fluid: str) -> str:
         raise NoSecondOpinion(f"{fluid!r} is a CoolProp incompressible fluid ({code}) with no component model in "
                               f"thermo: no independent second opinion")
     return f"mass: water {1.0 - fraction:.6g}, {_SOLUTE_NAMES[code]} {fraction:.6g}"
+
+
+def _aqueous_solution(line: Line) -> str | None:
+    """A water + alcohol, glycol or ammonia composition as CoolProp's incompressible solution
+    (``INCOMP::MEG[0.3]``, Melinder's correlations), else None (other mixtures: CoolProp HEOS)."""
+    from boresize.properties.composition import basis_of, parse_composition
+    from boresize.properties.coolprop_mixture import SOLUTES
+
+    try:
+        composition = parse_composition(line.fluid, basis=basis_of(line.extra))
+    except InputError:
+        return None
+    names = [" ".join(name.lower().split()) for name in composition.components]
+    if len(names) != 2 or sum(name in _WATER for name in names) != 1:
+        return None
+    solute = names[1] if names[0] in _WATER else names[0]
+    code = SOLUTES.get(solute)
+    if code not in _SOLUTE_NAMES:
+        return None
+    fraction = composition.fractions[names.index(solute)]
+    if composition.basis == "mole":
+        solute_mass = fraction * _MOLAR_MASSES[code]
+        fraction = solute_mass / (solute_mass + (1.0 - fraction) * _MOLAR_MASSES["water"])
+    return f"INCOMP::{code}[{fraction:.6f}]"
