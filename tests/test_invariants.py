@@ -42,7 +42,7 @@ BUDGETS = [pytest.param(QUICK, id="quick"), pytest.param(SWEEP, id="sweep", mark
 REL = 1e-9  # "beyond rounding": a few units in the last place, through a chain of conversions
 
 #: Options of criteria that no shipped service uses (values: common practice, for the test only).
-EXAMPLE_OPTIONS: dict[str, dict[str, Any]] = {"outlet-pressure": {"max_drop": "100 kPa"}}
+EXAMPLE_OPTIONS: dict[str, dict[str, Any]] = {"outlet-pressure": {"max_drop": "100 kPa"}, "property-crosscheck": {}}
 #: (criterion, option) -> +1 when a larger value is looser, -1 when a smaller value is looser.
 LOOSER: dict[tuple[str, str], int] = {
     ("velocity", "max"): +1, ("velocity", "min"): -1, ("drop-per-length", "max"): +1, ("drop-per-length", "min"): -1,
@@ -50,6 +50,7 @@ LOOSER: dict[tuple[str, str], int] = {
     ("noise-velocity", "a"): +1, ("noise-velocity", "cap"): +1, ("gravity-drain", "max_froude"): +1,
     ("npsh-margin", "ratio"): -1, ("npsh-margin", "min_margin"): -1, ("flashing", "margin"): -1,
     ("outlet-pressure", "min"): -1, ("outlet-pressure", "max_drop"): +1,
+    ("property-crosscheck", "warn"): +1, ("property-crosscheck", "fail"): +1,
 }
 #: Options that are not a limit (a flag, a display band, or an exponent whose sense depends on the density).
 NOT_A_LIMIT = {("flashing", "warn_only"), ("npsh-margin", "at_bubble_point"), ("gravity-drain", "clearing_froude"),

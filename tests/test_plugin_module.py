@@ -13,7 +13,7 @@ EXPECTED = {
     "CriterionProtocol", "Criterion", "CriterionContext", "OptionSpec", "QuantityKind", "KNOWN_PHASES",
     "parse_options", "verdict", "Verdict", "VerdictStatus",
     "Line", "FluidState", "Candidate", "Hydraulics", "Phase",
-    "PropertyBackend", "check_plausible", "describe_conditions",
+    "PropertyBackend", "check_plausible", "describe_conditions", "backend_state", "independent_backend", "NoSecondOpinion",
     "PipeClass", "pipe_class_from_table", "NPS_LABELS", "normalise_nps", "nps_value",
     "BoresizeError", "InputError", "UnitError", "CriteriaFileError", "CatalogueError", "PropertyError", "PluginError",
 }

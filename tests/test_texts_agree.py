@@ -92,6 +92,13 @@ TEMPLATES: dict[str, list[tuple[str, dict[str, tuple[Getter, str]]]]] = {
                          {"total": (lambda r, c, v: c.hydraulics.total_drop / _BAR, ".4g")}),
                         (rf"?friction (?P<f>{N})", {"f": (lambda r, c, v: c.hydraulics.drop / _BAR, ".3g")}),
                         (rf"?static (?P<s>{N})", {"s": (lambda r, c, v: c.hydraulics.static_drop / _BAR, ".3g")})],
+    "property-crosscheck": [(rf"^(?:density|viscosity|vapour pressure|bubble pressure) differs by (?P<v>{N}) %",
+                             {"v": (_V, ".3g")}),
+                            (rf"?above the fail limit (?P<limit>{N}) %", {"limit": (_L, ".3g")}),
+                            (rf"?^density differs by {N} %, [^:]*: (?P<rho>{N}) kg/m3 from",
+                             {"rho": (_RHO, ".5g")}),
+                            (rf"?^viscosity differs by {N} %, [^:]*: (?P<mu>{N}) mPa s from",
+                             {"mu": (lambda r, c, v: r.state.viscosity * 1e3 if r.state else None, ".5g")})],
     "gravity-drain": [(rf"^Froude number (?P<fr>{N}) on the full bore: .* \(self-venting up to (?P<lim>{N}),",
                        {"fr": (_V, ".3g"), "lim": (_L, ".3g")}),
                       (rf"the line carries (?P<q>{N}) m3/h$",
@@ -128,6 +135,12 @@ def results(sizer: Sizer, tmp_path_factory: pytest.TempPathFactory) -> dict[str,
     criteria.write_text('[service.gas]\nphase = "gas"\noutlet-pressure = {}\n', encoding="utf-8")
     choking = {"tag": "gas-marched-choked", **METHANE, "flow": "20 t/h", "length": "2 km", "nps": "3"}
     out["gas-marched-choked"] = Sizer(sizer.host, criteria_file=criteria).run(line_from_row(choking))
+    # property-crosscheck is in no shipped service (opt-in): a service of its own.
+    checked = tmp_path_factory.mktemp("criteria") / "crosschecked.toml"
+    checked.write_text('[service.checked]\nphase = "liquid"\nvelocity = { max = "3 m/s" }\n'
+                       'property-crosscheck = {}\n', encoding="utf-8")
+    crosschecked = {"tag": "crosschecked", **WATER, "flow": "60 t/h", "service": "checked"}
+    out["crosschecked"] = Sizer(sizer.host, criteria_file=checked).run(line_from_row(crosschecked))
     for name, result in out.items():
         assert result.status in ("pass", "fail"), (name, result.error)
     return out

@@ -37,6 +37,7 @@ from boresize.hookspecs import hookimpl
 from boresize.model import Candidate, FluidState, Hydraulics, Line, Phase, Verdict, VerdictStatus
 from boresize.pipes import NPS_LABELS, PipeClass, normalise_nps, nps_value, pipe_class_from_table
 from boresize.properties.base import PropertyBackend, check_plausible, describe_conditions
+from boresize.properties.second_opinion import NoSecondOpinion, backend_state, independent_backend
 from boresize.registry import BackendRegistry, CriterionRegistry, PipeClassRegistry
 from boresize.units import QuantityKind
 
@@ -67,6 +68,9 @@ __all__ = [
     "PropertyBackend",
     "check_plausible",
     "describe_conditions",
+    "backend_state",
+    "independent_backend",
+    "NoSecondOpinion",
     # pipe classes
     "PipeClass",
     "pipe_class_from_table",

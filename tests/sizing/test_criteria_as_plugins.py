@@ -87,6 +87,7 @@ COMPANY_TRAITS = {
     "npsh-margin": ("larger-passes", False),
     "flashing": ("larger-passes", False),
     "outlet-pressure": ("larger-passes", False),
+    "property-crosscheck": ("larger-passes", False),
 }
 
 

@@ -12,6 +12,7 @@ from boresize.criteria.mach import MachLimit
 from boresize.criteria.momentum import Momentum
 from boresize.criteria.npsh import NpshMargin
 from boresize.criteria.outlet_pressure import OutletPressure
+from boresize.criteria.property_crosscheck import PropertyCrosscheck
 from boresize.criteria.velocity import VelocityLimits
 from boresize.hookspecs import hookimpl
 from boresize.registry import CriterionRegistry
@@ -29,4 +30,5 @@ def boresize_register_criteria(register: CriterionRegistry) -> None:
     register.add(NoiseVelocity())
     register.add(MachLimit())
     register.add(OutletPressure())
+    register.add(PropertyCrosscheck())
     register.add(LineFeasibility())
