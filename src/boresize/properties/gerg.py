@@ -203,7 +203,11 @@ class GergBackend:
                 text = ", ".join(f"{cas}:{z!r}" for cas, z in zip(fluid.cas, fluid.zs))
                 probe = Line(tag="gerg-2008 phase", fluid=text, flow=Flow("mass", 1.0), pressure=pressure,
                              temperature=temperature)
-                decided = self._thermo.state(probe, pressure, temperature)
+                try:
+                    decided = self._thermo.state(probe, pressure, temperature)
+                except PropertyError as exc:
+                    raise PropertyError(f"gerg-2008: the GERG-2008 phase envelope does not decide the phase of {where}; thermo's "
+                                        f"flash, which then decides the phase, failed ({exc})") from None
                 if decided.phase in ("gas", "supercritical"):
                     how = "gas phase imposed: thermo's Peng-Robinson flash found one gas phase"
                     return self._single(fluid, state, envelope, "gas", pressure, temperature, notes + (how,))
