@@ -199,7 +199,7 @@ def batch(sizer: Any) -> dict[str, Any]:
 def test_mixed_line_list_sizes_the_good_lines_and_records_each_source(batch: dict[str, Any], sizer: Any) -> None:
     from boresize.report.terminal import render_table
 
-    expected = {"P-1": "coolprop", "G-1": "thermo", "L-1": "thermo", "F-1": "table", "B-1": "coolprop-mixture",
+    expected = {"P-1": "coolprop", "G-1": "gerg-2008", "L-1": "gerg-2008", "F-1": "table", "B-1": "coolprop-mixture",
                 "P-2": "coolprop"}
     table = render_table(list(batch.values()), sizer.config.origin, sizer.config.version)
     unjudged = {"F-1", "B-1"}  # line-list values and CoolProp's brines give no vapour pressure: flashing says error
@@ -227,7 +227,7 @@ def test_natural_gas_in_mmscfd_converts_with_the_eos_at_60_degf(batch: dict[str,
 
 @pytest.mark.parametrize(("tag", "field", "message"), [
     ("X-2P", "temperature", r"line X-2P: temperature: propane 0.6, butane 0.4 is two-phase at 20 degC and 4 bar abs "
-                            r"\(thermo, vapour mass fraction 0.9\d+, bubble pressure 5.\d+ bar abs, dew pressure "
+                            r"\(gerg-2008, vapour mass fraction 0.9\d+, bubble pressure 5.\d+ bar abs, dew pressure "
                             r"3.\d+ bar abs\); single-phase sizing does not apply. Screen only, not a sizing: "
                             r"homogeneous density \d+.\d+ kg/m3, API RP 14E mixture erosional velocity \d+.\d+ m/s "
                             r"\(C = 100, US units\)"),
@@ -260,7 +260,7 @@ def test_a_failed_flash_in_a_batch_names_line_backend_and_conditions(sizer: Any,
 
     monkeypatch.setattr(package, "flash", failing)
     rows = [dict(ROWS[0], tag="OK-1"), {"tag": "X-FAIL", "fluid": "propane:0.6, n-butane:0.4", "flow": "5 t/h",
-                                        "pressure": "33 bar", "temperature": "31 degC"}, dict(ROWS[0], tag="OK-2")]
+                                        "pressure": "33 bar", "temperature": "31 degC", "backend": "thermo"}, dict(ROWS[0], tag="OK-2")]
     results = size_rows([(row, {}) for row in rows], sizer=sizer)
     assert [r.status for r in results][0] != "error" and results[2].status != "error"
     assert results[1].status == "error" and results[1].error_field == "fluid"
@@ -288,13 +288,13 @@ def test_a_toml_line_list_gives_a_composition_as_a_table_or_a_list(sizer: Any) -
     results = size_rows(lines_from_document(document).pairs(), sizer=sizer)
     densities = {r.state.density for r in results}
     assert [r.status for r in results] == ["pass"] * 3 and len(densities) == 1
-    assert results[0].state.source == "thermo"
+    assert results[0].state.source == "gerg-2008"  # GERG-2008 components only: chosen automatically
 
 
 def test_every_state_records_backend_version_and_state_point(batch: dict[str, Any]) -> None:
     import importlib.metadata
 
-    for tag, library in (("P-1", "CoolProp"), ("G-1", "thermo"), ("B-1", "CoolProp")):
+    for tag, library in (("P-1", "CoolProp"), ("G-1", "CoolProp"), ("B-1", "CoolProp")):
         state = batch[tag].state
         assert state.backend_version.startswith(importlib.metadata.version(library))  # the installed distribution
         assert state.pressure == batch[tag].line.pressure and state.temperature == batch[tag].line.temperature

@@ -2,8 +2,9 @@
 
 Order matters for the automatic choice (the first backend whose ``handles(line)`` is true serves a
 line that names no backend): line list values, then CoolProp for pure fluids it knows, then water with an
-alcohol or glycol (``aqueous``), then CoolProp incompressible liquids and brines, then thermo for mixtures
-and the pure components CoolProp lacks.
+alcohol or glycol (``aqueous``), then CoolProp incompressible liquids and brines, then GERG-2008 through
+CoolProp for mixtures of the 21 GERG-2008 components (natural gas), then thermo for other mixtures and the pure
+components CoolProp lacks.
 """
 
 from __future__ import annotations
@@ -12,6 +13,7 @@ from boresize.hookspecs import hookimpl
 from boresize.properties.aqueous import AqueousBackend
 from boresize.properties.coolprop import CoolPropBackend
 from boresize.properties.coolprop_mixture import CoolPropMixtureBackend
+from boresize.properties.gerg import GergBackend
 from boresize.properties.given import TableBackend
 from boresize.properties.thermo import ThermoBackend
 from boresize.registry import BackendRegistry
@@ -23,4 +25,5 @@ def boresize_register_property_backends(register: BackendRegistry) -> None:
     register.add(CoolPropBackend())
     register.add(AqueousBackend())
     register.add(CoolPropMixtureBackend())
+    register.add(GergBackend())
     register.add(ThermoBackend())

@@ -2,8 +2,9 @@
 liquids and brines. Backend id ``coolprop-mixture``.
 
 Incompressibles are chosen automatically; HEOS mixtures only when the line says ``backend =
-coolprop-mixture`` (mixtures go to the thermo backend otherwise: a CoolProp mixture flash costs
-12-100 ms and its states need the guards below).
+coolprop-mixture`` (a CoolProp mixture flash costs 12-100 ms and its states need the guards below;
+mixtures of GERG-2008 components go to :mod:`boresize.properties.gerg`, which decides the phase from the
+envelope and imposes it, others to the thermo backend).
 
 Incompressible spellings (the fraction is by mass, as CoolProp defines these solutions):
 ``INCOMP::MEG-30%``, ``INCOMP::MEG[0.3]``, a pure heat-transfer fluid ``INCOMP::T66``, or the friendly

@@ -1,12 +1,13 @@
 """Choosing the property backend for a line, and turning its flow into a mass flow.
 
-A line that names a backend (``backend`` column: ``coolprop``, ``thermo``, ``coolprop-mixture``,
+A line that names a backend (``backend`` column: ``coolprop``, ``gerg-2008``, ``thermo``, ``coolprop-mixture``,
 ``table`` or a plugin's id) gets that one. Otherwise a line that gives both density and viscosity uses
 them (backend ``table``, recorded as the source); otherwise the first registered backend whose
 ``handles(line)`` is true serves it: with the built-ins, a pure fluid CoolProp knows -> ``coolprop``;
 water with an alcohol or glycol (``mass: water 0.7, ethanol 0.3``, ``MEG 30%``) -> ``aqueous``; another
-CoolProp incompressible liquid or brine (``NaCl 10%``) -> ``coolprop-mixture``; a mixture
-(``methane:0.9, ethane:0.1``) or a component only the chemicals database knows -> ``thermo``.
+CoolProp incompressible liquid or brine (``NaCl 10%``) -> ``coolprop-mixture``; a mixture of GERG-2008
+components only (``methane:0.9, ethane:0.1``) -> ``gerg-2008``; another mixture or a component only the
+chemicals database knows -> ``thermo``.
 
 A standard-volume flow (Sm3/h, Nm3/h, scf, MMSCFD) becomes a mass flow with the density that the
 same backend gives at the unit's reference conditions, so a mixture's standard volume uses its EOS.
