@@ -87,7 +87,7 @@ def test_a_coolprop_line_is_checked_with_thermo():
 def test_a_thermo_mixture_is_checked_with_coolprop_heos():
     # Methane/ethane 90/10 mol at 50 bar abs, 20 degC: thermo serves it, CoolProp HEOS (GERG-2008 parameters) checks.
     line = {"tag": "NG-1", "fluid": "methane:0.9, ethane:0.1", "flow": "1 t/h", "pressure": "50 bar",
-            "temperature": "20 degC"}
+            "temperature": "20 degC", "backend": "thermo"}
     result = run_criterion(PropertyCrosscheck(), line, "4")
     heos = CP.AbstractState("HEOS", "Methane&Ethane")
     heos.set_mole_fractions([0.9, 0.1])
@@ -98,6 +98,19 @@ def test_a_thermo_mixture_is_checked_with_coolprop_heos():
     assert f"against {heos.rhomass():.5g} kg/m3 from coolprop-mixture (CoolProp {CoolProp.__version__} HEOS" \
         in result.reason
     assert result.status == "pass"
+
+
+def test_a_gerg_2008_line_is_checked_with_thermo():
+    # The same gas by default goes to GERG-2008 through CoolProp; thermo's Peng-Robinson is its second opinion.
+    line = {"tag": "NG-2", "fluid": "methane:0.9, ethane:0.1", "flow": "1 t/h", "pressure": "50 bar",
+            "temperature": "20 degC"}
+    result = run_criterion(PropertyCrosscheck(), line, "4")
+    heos = CP.AbstractState("HEOS", "Methane&Ethane")
+    heos.set_mole_fractions([0.9, 0.1])
+    heos.specify_phase(CP.iphase_gas)
+    heos.update(CP.PT_INPUTS, 50e5, 293.15)
+    assert result.status == "pass" and result.reason.startswith("density differs by "), result.reason
+    assert f"{heos.rhomass():.5g} kg/m3 from gerg-2008" in result.reason and "from thermo" in result.reason
 
 
 def test_the_second_evaluation_runs_once_per_line(monkeypatch, tmp_path):
@@ -161,7 +174,7 @@ def test_a_thermo_aqueous_alcohol_is_checked_with_melinder():
     # 30 wt% methanol in water at 10 degC: thermo serves the composition; the second opinion is CoolProp's
     # incompressible solution (Melinder), computed here. thermo's logarithmic viscosity mixing is far too low.
     line = {"tag": "A-1", "fluid": "mass: water 0.7, methanol 0.3", "flow": "1 t/h", "pressure": "3 bar",
-            "temperature": "10 degC"}
+            "temperature": "10 degC", "backend": "thermo"}  # by default the aqueous backend (Melinder) serves it
     result = run_criterion(PropertyCrosscheck(), line, "2")
     melinder = CP.AbstractState("INCOMP", "MMA")
     melinder.set_mass_fractions([0.3])

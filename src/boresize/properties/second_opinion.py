@@ -105,7 +105,7 @@ def independent_backend(line: Line, state: FluidState) -> tuple[str, str]:
         raise NoSecondOpinion("the line gives its own density and viscosity (backend table): there is no model to "
                               "check; give the fluid by name without density and viscosity, or use a service "
                               "without property-crosscheck")
-    if source.startswith("coolprop"):
+    if source.startswith("coolprop") or source in ("gerg-2008", "aqueous"):  # CoolProp's equations -> thermo's
         return "thermo", _thermo_fluid(line.fluid)
     if source == "thermo":
         if is_mixture(line.fluid):
