@@ -117,23 +117,29 @@ def families() -> list[Family]:
               for p in (2, 20) for t in (293.15, 353.15)]
     aqueous = [Point(f"mass: water {1 - w:g}, {solute} {w:g}", 3e5, t, _incompressible(code, w),
                      f"{solute} {w * 100:g} wt%") for solute, code, w in AQUEOUS for t in (283.15, 298.15, 313.15)]
-    return [
+    chosen = [
         Family("pure fluids", "CoolProp reference EOS (PropsSI)", "water, methane, nitrogen, propane, CO2, ammonia, "
                "toluene; 3-20 bar, 20-80 degC", pure),
-        Family("pure fluids, backend = thermo", "CoolProp reference EOS (PropsSI)", "the same points",
-               [Point(q.fluid, q.pressure, q.temperature, q.reference, q.label, "thermo") for q in pure]),
         Family("natural gas", "CoolProp HEOS, GERG-2008 mixing parameters", "3 gases (CH4 80-95 %, to n-C4, N2, "
                "CO2); 10-100 bar, 5-40 degC", gas),
-        Family("hydrocarbon liquids", "CoolProp HEOS mixture (its viscosity an estimate)", "n-C6/n-C7 50/50, n-C5/n-C8 30/70 mol; 2-20 bar, "
-               "20-80 degC", liquid),
+        Family("hydrocarbon liquids", "CoolProp HEOS mixture (its viscosity an estimate)", "n-C6/n-C7 50/50, "
+               "n-C5/n-C8 30/70 mol; 2-20 bar, 20-80 degC", liquid),
         Family("aqueous alcohols and glycols", "CoolProp incompressibles (Melinder)", "ethanol, methanol 10 and 30 "
                "wt%, MEG 30 and 50 wt%; 3 bar, 10-40 degC", aqueous),
     ]
+    # Where the automatic model is the reference's own library, its row reads 0 %; the same points with
+    # backend = thermo (the second opinion property-crosscheck uses) show how far an independent model lies.
+    second = [Family(f"{f.family}, backend = thermo", f.reference, "the same points",
+                     [Point(q.fluid, q.pressure, q.temperature, q.reference, q.label, "thermo") for q in f.points])
+              for f in chosen]
+    return [row for pair in zip(chosen, second) for row in pair]
 
 
 def _model_name(state: FluidState) -> str:
     """The backend and its model, without library versions (the table stays true across upgrades)."""
-    model = re.sub(r"^[A-Za-z]+ [0-9.]+(?: \+ [a-z]+ [0-9.]+)?:? ", "", state.model.split(";")[0])
+    model = re.sub(r"^[A-Za-z]+ [0-9.]+(?:(?: \+|,) [a-z]+ [0-9.]+)?:? ", "", state.model.split(";")[0])
+    model = re.sub(r" \(CoolProp incompressible [^)]*\)", "", model)  # one row per family, not per solution
+    model = re.sub(r"\b(CoolProp|thermo|chemicals) [0-9][0-9.]*", r"\1", model)
     return f"{state.source}: {model}" + (f" ({state.family})" if state.family else "")
 
 
