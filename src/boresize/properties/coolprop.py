@@ -296,7 +296,9 @@ def _result(state: Any, name: str, limits: _Limits, found: tuple[Phase, float | 
         density=state.rhomass(), viscosity=state.viscosity(), phase=phase, source="coolprop", model=model,
         vapour_fraction=fraction, vapour_pressure=vapour_pressure, speed_of_sound=state.speed_sound(),
         molar_mass=limits.molar_mass, fluid_name=name, backend_version=_coolprop_version(),
-        pressure=point[0], temperature=point[1], saturation_temperature=t_sat,
+        pressure=point[0], temperature=point[1], saturation_temperature=t_sat, family="pure fluid",
+        validity=(f"{name} reference equation of state in CoolProp: {limits.t_triple:.6g} to {limits.t_max:.6g} K, up "
+                  f"to {limits.p_max / 1e6:.6g} MPa"),
     )
 
 

@@ -170,7 +170,10 @@ class CoolPropMixtureBackend:
                  f"at {describe_conditions(pressure, temperature)}")
         return FluidState(density=density, viscosity=viscosity, phase="liquid", source=self.id, model=model,
                           vapour_fraction=0.0, fluid_name=f"INCOMP::{label}", backend_version=_coolprop_version(),
-                          eos="INCOMP", pressure=pressure, temperature=temperature)
+                          eos="INCOMP", pressure=pressure, temperature=temperature,
+                          family="incompressible liquid or brine",
+                          validity=f"CoolProp's fit of INCOMP::{code}: {state.Tmin() - 273.15:.4g} to "
+                                   f"{state.Tmax() - 273.15:.4g} degC (CoolProp refuses a state outside it)")
 
     # -- HEOS mixtures ----------------------------------------------------------------------------
     def _mixture(self, names: tuple[str, ...], fractions: tuple[float, ...], basis: str, note: str | None,
@@ -200,7 +203,9 @@ class CoolPropMixtureBackend:
                           model=model, vapour_fraction=point.quality, speed_of_sound=point.speed_of_sound,
                           molar_mass=state.molar_mass(), fluid_name=label, backend_version=_coolprop_version(),
                           eos="HEOS", pressure=pressure, temperature=temperature,
-                          composition=tuple(zip(names, zs)), notes=notes)
+                          composition=tuple(zip(names, zs)), notes=notes, family="mixture (CoolProp HEOS, named)",
+                          validity="CoolProp's multi-fluid model where its binary parameters are fitted (GERG-2008 "
+                                   "pairs); estimated elsewhere")
 
     def _heos_phases(self, names: tuple[str, ...]) -> Any:
         """A second AbstractState of the same components, for the phases of a two-phase state."""

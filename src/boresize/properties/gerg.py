@@ -44,7 +44,7 @@ import threading
 from dataclasses import dataclass, replace
 from typing import Any
 
-from boresize.errors import InputError, PropertyError
+from boresize.errors import BoresizeError, InputError, PropertyError
 from boresize.model import Flow, FluidState, Line, Phase
 from boresize.properties.base import ZERO_CELSIUS, check_plausible, describe_conditions, is_mixture
 from boresize.properties.coolprop_heos import GAS_Z_RANGE
@@ -215,6 +215,8 @@ class GergBackend:
                     how = "liquid phase imposed: thermo's Peng-Robinson flash found one liquid phase"
                     return self._single(fluid, state, envelope, "liquid", pressure, temperature, notes + (how,),
                                         decided.bubble_pressure or decided.vapour_pressure)
+            except BoresizeError:
+                raise  # already names the line's fault (two liquid phases, a range): not CoolProp's
             except ValueError as exc:
                 raise PropertyError(f"gerg-2008: CoolProp failed for {where}: {exc}") from None
         return replace(decided, family=_family(fluid), validity=VALIDITY,

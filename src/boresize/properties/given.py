@@ -63,6 +63,8 @@ class TableBackend:
             phase=phase,
             source=self.id,
             model=f"line list values ({rule})",
+            family="given values",
+            validity="the line's own values, taken as valid at its pressure and temperature",
             fluid_name=line.fluid or None,
             vapour_fraction=None if phase == "two-phase" else 0.0 if phase == "liquid" else 1.0,
             backend_version=_boresize_version(),
