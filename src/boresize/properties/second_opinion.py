@@ -14,9 +14,9 @@ import threading
 from dataclasses import replace
 from typing import Any
 
-from boresize.errors import BoresizeError, InputError, PropertyError
+from boresize.errors import BoresizeError, InputError
 from boresize.model import FluidState, Line
-from boresize.properties.base import check_plausible, is_mixture
+from boresize.properties.base import is_mixture
 
 __all__ = ["SECOND_OPINION_BACKENDS", "NoSecondOpinion", "backend_state", "independent_backend"]
 
@@ -79,19 +79,9 @@ def backend_state(backend: Any, line: Line, pressure: float, temperature: float,
     bare = replace(line, fluid=fluid if fluid is not None else line.fluid, backend=None, eos=None, density=None,
                    viscosity=None, vapour_pressure=None)
     name = getattr(chosen, "id", type(chosen).__name__)
-    try:
-        state = chosen.state(bare, pressure, temperature)
-    except InputError as exc:
-        raise (exc if exc.tag else exc.for_line(line.tag)) from None
-    except BoresizeError:
-        raise
-    except Exception as exc:  # a plugin's backend: its fault named, never a bare traceback
-        raise PropertyError(f"property backend {name!r} raised {type(exc).__name__}: {exc}") from exc
-    if not isinstance(state, FluidState):
-        raise PropertyError(f"property backend {name!r} returned {type(state).__name__}, not a FluidState")
-    check_plausible(state.density, state.viscosity, backend=name, fluid=bare.fluid, pressure=pressure,
-                    temperature=temperature)
-    return state
+    from boresize.properties.select import checked_state
+
+    return checked_state(chosen, bare, pressure, temperature, f"property backend {name!r}")
 
 
 def independent_backend(line: Line, state: FluidState) -> tuple[str, str]:

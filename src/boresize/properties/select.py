@@ -23,7 +23,7 @@ from boresize.model import FluidState, Line
 from boresize.plugins import PluginHost
 from boresize.properties.base import check_plausible
 
-__all__ = ["choose_backend", "fluid_state", "mass_flow_of"]
+__all__ = ["checked_state", "choose_backend", "fluid_state", "mass_flow_of"]
 
 _PHASES = ("liquid", "gas", "two-phase", "supercritical", "dense")
 
@@ -85,8 +85,16 @@ def fluid_state(host: PluginHost, line: Line) -> FluidState:
 
 
 def _state_of(host: PluginHost, backend: Any, line: Line, pressure: float, temperature: float) -> FluidState:
+    """``backend.state`` at ``pressure`` [Pa abs] and ``temperature`` [K], checked (:func:`checked_state`) and
+    recorded whole."""
+    state = checked_state(backend, line, pressure, temperature, _who(host, backend))
+    return _recorded(state, backend, pressure, temperature)
+
+
+def checked_state(backend: Any, line: Line, pressure: float, temperature: float, who: str) -> FluidState:
     """``backend.state`` at ``pressure`` [Pa abs] and ``temperature`` [K], with a plugin's fault named: an
-    exception outside boresize's tree, a wrong type or an implausible value is a PropertyError naming it."""
+    exception outside boresize's tree, a wrong type, an unknown phase or an implausible value is a PropertyError
+    naming ``who`` (the backend, and its plugin where known)."""
     try:
         state = backend.state(line, pressure, temperature)
     except InputError as exc:
@@ -94,14 +102,14 @@ def _state_of(host: PluginHost, backend: Any, line: Line, pressure: float, tempe
     except BoresizeError:
         raise
     except Exception as exc:  # a plugin's fault: named, and the batch goes on
-        raise PropertyError(f"{_who(host, backend)} raised {type(exc).__name__}: {exc}") from exc
+        raise PropertyError(f"{who} raised {type(exc).__name__}: {exc}") from exc
     if not isinstance(state, FluidState):
-        raise PropertyError(f"{_who(host, backend)} returned {type(state).__name__}, not a FluidState")
+        raise PropertyError(f"{who} returned {type(state).__name__}, not a FluidState")
     if state.phase not in _PHASES:
-        raise PropertyError(f"{_who(host, backend)} returned phase {state.phase!r}, not one of {', '.join(_PHASES)}")
-    check_plausible(state.density, state.viscosity, backend=backend.id, fluid=line.fluid, pressure=pressure,
-                    temperature=temperature)
-    return _recorded(state, backend, pressure, temperature)
+        raise PropertyError(f"{who} returned phase {state.phase!r}, not one of {', '.join(_PHASES)}")
+    check_plausible(state.density, state.viscosity, backend=getattr(backend, "id", type(backend).__name__),
+                    fluid=line.fluid, pressure=pressure, temperature=temperature)
+    return state
 
 
 def _who(host: PluginHost, backend: Any) -> str:
