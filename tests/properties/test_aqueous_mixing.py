@@ -145,5 +145,14 @@ def test_refusals_name_the_range(backend: AqueousMixingBackend) -> None:
     # 30 wt% MEA at 60 degC boils near water's 0.199 bar abs (IAPWS-95): 0.05 bar abs is below its bubble pressure
     with pytest.raises(PropertyError, match=r"boils at 0.05 bar abs, 60 degC: its bubble pressure is 0\.1"):
         at(backend, "mass: water 0.7, MEA 0.3", 0.05e5, 60.0)
+    # DEA's viscosity correlation (DIPPR, thermo) starts at 20 degC: below it the line says it is extrapolated
+    from thermo import ViscosityLiquid
+
+    dippr = ViscosityLiquid(CASRN="111-42-2")
+    low = dippr.T_limits["DIPPR_PERRY_8E"][0]
+    cold = at(backend, "mass: water 0.5, DEA 0.5", 4e5, low - T0 - 10.0)
+    assert any("extrapolated below the range of" in n and "DEA ViscosityLiquid DIPPR_PERRY_8E" in n for n in cold.notes)
+    warm = at(backend, "mass: water 0.5, DEA 0.5", 4e5, low - T0 + 10.0)
+    assert not any("ViscosityLiquid" in n for n in warm.notes)
     with pytest.raises(InputError, match=r"eos"):
         backend.state(make_line("mass: water 0.5, TEG 0.5", eos="PR"), 4e5, T0 + 20.0)

@@ -218,7 +218,7 @@ class AqueousMixingBackend:
                     f"correlations, no correlation made for this solution; liquid above its bubble pressure")
         if not low <= temperature <= high:
             raise PropertyError(f"aqueous-mixing: {solution.label} at {where} is outside the mixing rule's range "
-                                f"({_celsius(low)} to {_celsius(high)} degC, the pure correlations' range); {todo}")
+                                f"({_celsius(low)} to {_celsius(high)} degC); {todo}")
         self._check_parameters(solution)
         density, viscosity = self.liquid_properties(solution, temperature)
         check_plausible(density, viscosity, backend=self.id, fluid=solution.label, pressure=pressure,
@@ -230,7 +230,7 @@ class AqueousMixingBackend:
             raise PropertyError(f"aqueous-mixing: {solution.label} boils at {where}: its bubble pressure is "
                                 f"{bubble / 1e5:.4g} bar abs ({_EOS}); these models are for the liquid: raise the "
                                 f"pressure, or name backend thermo for a two-phase line")
-        notes = tuple(n for n in (solution.note, _NOTE) if n)
+        notes = tuple(n for n in (solution.note, _NOTE, self._extrapolated(solution, temperature)) if n)
         versions = self.version()
         model = (f"{versions}: density Amagat (ideal volumes) and viscosity ln mu = sum w_i ln mu_i over "
                  f"{self._methods(solution)}; bubble pressure {_EOS}, thermo DOUFIP2016 parameters, ideal gas; at "
@@ -264,6 +264,19 @@ class AqueousMixingBackend:
             raise PropertyError(f"aqueous-mixing: thermo has no liquid density or viscosity of {_name(cas)} at "
                                 f"{_celsius(temperature)} degC ({molar_volume!r}, {mu!r})")
         return float(molar_volume), float(mu)
+
+    def _extrapolated(self, solution: MixedSolution, temperature: float) -> str | None:
+        """A note naming the pure correlations used below their lower limit (a subcooled solute), else None."""
+        below = []
+        for cas in solution.cas:
+            for correlation in self._pure_correlations(cas):
+                if correlation is not None and temperature < correlation.T_limits[correlation.method][0]:
+                    low = correlation.T_limits[correlation.method][0]
+                    below.append(f"{_name(cas)} {type(correlation).__name__} {correlation.method} (from "
+                                 f"{_celsius(low)} degC)")
+        if not below:
+            return None
+        return f"extrapolated below the range of {', '.join(below)}: more uncertain"
 
     def _methods(self, solution: MixedSolution) -> str:
         parts = []
