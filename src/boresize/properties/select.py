@@ -4,7 +4,8 @@ A line that names a backend (``backend`` column: ``coolprop``, ``gerg-2008``, ``
 ``table`` or a plugin's id) gets that one. Otherwise a line that gives both density and viscosity uses
 them (backend ``table``, recorded as the source); otherwise the first registered backend whose
 ``handles(line)`` is true serves it: with the built-ins, a pure fluid CoolProp knows -> ``coolprop``;
-water with an alcohol or glycol (``mass: water 0.7, ethanol 0.3``, ``MEG 30%``) -> ``aqueous``; another
+water with an alcohol or glycol (``mass: water 0.7, ethanol 0.3``, ``MEG 30%``) -> ``aqueous``; water with TEG, DEG,
+MEA, DEA, MDEA or several solutes -> ``aqueous-mixing``; another
 CoolProp incompressible liquid or brine (``NaCl 10%``) -> ``coolprop-mixture``; a mixture of GERG-2008
 components only (``methane:0.9, ethane:0.1``) -> ``gerg-2008``; another mixture or a component only the
 chemicals database knows -> ``thermo``.
