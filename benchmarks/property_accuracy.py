@@ -132,7 +132,11 @@ def families() -> list[Family]:
     second = [Family(f"{f.family}, backend = thermo", f.reference, "the same points",
                      [Point(q.fluid, q.pressure, q.temperature, q.reference, q.label, "thermo") for q in f.points])
               for f in chosen]
-    return [row for pair in zip(chosen, second) for row in pair]
+    mixing = Family("aqueous glycols, backend = aqueous-mixing", "CoolProp incompressibles (Melinder)",
+                    "MEG 30 and 50 wt%; 3 bar, 10-40 degC (its mixing rule, used for TEG, DEG and amines)",
+                    [Point(q.fluid, q.pressure, q.temperature, q.reference, q.label, "aqueous-mixing")
+                     for q in aqueous if "glycol" in q.label])
+    return [row for pair in zip(chosen, second) for row in pair] + [mixing]
 
 
 def _model_name(state: FluidState) -> str:

@@ -89,9 +89,10 @@ def _name(cas: str) -> str:
 
 
 @functools.lru_cache(maxsize=1024)
-def mixed_solution_of(text: str, basis: Basis | None) -> MixedSolution | None:
+def mixed_solution_of(text: str, basis: Basis | None, named: bool = False) -> MixedSolution | None:
     """The solution ``text`` names when this backend serves it (water with one of TEG, DEG, MEA, DEA, MDEA,
-    or with two or more of :data:`SOLUTES`), else None.
+    or with two or more of :data:`SOLUTES`; with ``named``, the line names this backend, also water with one
+    Melinder solute, which backend aqueous serves by default), else None.
 
     :raises InputError: an unreadable composition or an unknown component (field "fluid")
     """
@@ -107,7 +108,7 @@ def mixed_solution_of(text: str, basis: Basis | None) -> MixedSolution | None:
         return None
     if not all(c in SOLUTES for c in solutes):
         return None
-    if len(solutes) == 1 and solutes[0] not in _NEW:
+    if len(solutes) == 1 and solutes[0] not in _NEW and not named:
         return None  # water + one Melinder solute: backend aqueous
     order = sorted(range(len(cas)), key=lambda i: cas[i] != WATER_CAS)
     masses = [components[i].molar_mass for i in order]
@@ -174,7 +175,7 @@ class AqueousMixingBackend:
             if not (math.isfinite(value) and value > 0.0):
                 raise InputError(f"{value:g} is not above zero", field=field, value=value,
                                  expected=f"an absolute {field} above zero")
-        solution = mixed_solution_of(line.fluid, basis_of(line.extra))
+        solution = mixed_solution_of(line.fluid, basis_of(line.extra), named=True)
         if solution is None:
             raise InputError(f"{line.fluid!r} is not water with {', '.join(sorted(set(SOLUTES.values())))}",
                              field="fluid", value=line.fluid, expected="e.g. 'mass: water 0.5, TEG 0.5'")
