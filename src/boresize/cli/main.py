@@ -100,7 +100,7 @@ def main(argv: Sequence[str] | None = None) -> int:
         print("boresize: interrupted", file=sys.stderr)
         return 130
     except Exception as exc:  # the last guard: no traceback reaches the user
-        from boresize.optional import missing_module
+        from boresize.errors import missing_module
 
         missing = missing_module(exc, None) if isinstance(exc, ModuleNotFoundError) else None
         if missing is not None:  # an optional module an output imports outside boresize.optional.needs
