@@ -123,5 +123,5 @@ def missing_module(exc: ImportError, output: str | None) -> MissingModuleError |
     if module not in OPTIONAL_MODULES:
         return None
     what = output or "this output"
-    return MissingModuleError(f"{what} needs the Python module '{module}', which is not installed: "
+    return MissingModuleError(f"the Python module '{module}' is not installed, and {what} needs it: "
                               f"pip install {OPTIONAL_MODULES[module]}", module)

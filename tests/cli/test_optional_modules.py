@@ -30,7 +30,7 @@ def test_a_missing_module_of_a_report_is_a_boresize_error(monkeypatch):
     monkeypatch.setitem(__import__("sys").modules, "jinja2", None)
     from boresize.report.html import render_html
 
-    with pytest.raises(MissingModuleError, match=r"the HTML report needs the Python module 'jinja2'.*pip install jinja2"):
+    with pytest.raises(MissingModuleError, match=r"module 'jinja2' is not installed, and the HTML report needs it: pip install jinja2"):
         render_html([], trace={}, title="t")
 
 
