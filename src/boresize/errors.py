@@ -12,6 +12,9 @@ from boresize.report.printable import printable as printable  # how a message is
 
 __all__ = [
     "BoresizeError",
+    "MissingModuleError",
+    "OPTIONAL_MODULES",
+    "missing_module",
     "InputError",
     "UnitError",
     "CatalogueError",
@@ -99,3 +102,26 @@ class PluginError(BoresizeError, RuntimeError):
 
 class UsageError(BoresizeError, ValueError):
     """The command line asks for something that cannot be done (exit code 2)."""
+
+
+#: import name -> the package pip installs it from
+OPTIONAL_MODULES: dict[str, str] = {"matplotlib": "matplotlib", "openpyxl": "openpyxl", "jinja2": "jinja2",
+                                    "rich": "rich"}
+
+
+class MissingModuleError(BoresizeError, ImportError):
+    """An optional module an output needs is not installed; ``module`` names it."""
+
+    def __init__(self, message: str, module: str) -> None:
+        super().__init__(message)
+        self.module = module
+
+
+def missing_module(exc: ImportError, output: str | None) -> MissingModuleError | None:
+    """The clear error for ``exc`` when it is one of :data:`OPTIONAL_MODULES` missing, else None."""
+    module = (exc.name or "").split(".")[0]
+    if module not in OPTIONAL_MODULES:
+        return None
+    what = output or "this output"
+    return MissingModuleError(f"the Python module '{module}' is not installed, and {what} needs it: "
+                              f"pip install {OPTIONAL_MODULES[module]}", module)

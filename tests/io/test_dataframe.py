@@ -15,7 +15,7 @@ from fluids.piping import nearest_pipe
 from boresize import InputError, read_dataframe, results_dataframe, size_dataframe
 from boresize.io.csv_reader import parse_csv_text, read_csv
 from boresize.io.csv_writer import csv_cell, write_csv
-from boresize.io.dataframe import lines_dataframe
+from boresize.io.dataframe import lines_dataframe, result_columns
 from boresize.api import size_rows
 
 LINES_CSV = """tag,fluid,flow,pressure [barg],temperature [degC],length [m],service,nps,case
@@ -87,9 +87,10 @@ def test_the_results_frame_holds_the_cells_of_the_csv_results_file(tmp_path, csv
     frame = results_dataframe(results, csv_list.headers)
     write_csv(tmp_path / "results.csv", results, csv_list.headers)
     written = pd.read_csv(tmp_path / "results.csv", dtype=str, keep_default_na=False, encoding="utf-8-sig")
-    assert list(frame.columns) == list(written.columns)
+    # the same cells; the result columns named as the JSON keys (velocity_m_s), not as the CSV's headings
+    assert list(frame.columns) == list(csv_list.headers) + result_columns(csv_list.headers)
     assert [[_cell(v) for v in row] for row in frame.itertuples(index=False)] == written.values.tolist()
-    back = read_dataframe(frame)  # the result.* columns are skipped, as the CSV reader skips them
+    back = read_dataframe(frame)  # the result columns are skipped, as the CSV reader skips result.*
     assert (back.rows, back.units) == (csv_list.rows, csv_list.units)
 
 
@@ -98,12 +99,69 @@ def test_size_dataframe_sizes_every_row_with_outside_checks():
                           "pressure [barg]": [9, 9], "temperature [degC]": [30, 30]})
     table = size_dataframe(frame, plugins=False)
     assert list(table["tag"]) == ["W-1", "bad"]
-    assert list(table["result.status"]) == ["pass", "error"]
-    assert "flow" in table["result.error"][1] and "'-1' is not above zero" in table["result.error"][1]
+    assert list(table["status"]) == ["pass", "error"]
+    assert "flow" in table["error"][1] and "'-1' is not above zero" in table["error"][1]
     # Velocity of 12.5 kg/s of water (CoolProp IAPWS-95 density) in the selected Sch 40 size (fluids' ASME table).
-    _, di, _, _ = nearest_pipe(NPS=float(table["result.nps"][0]), schedule="40")
+    _, di, _, _ = nearest_pipe(NPS=float(table["result_nps"][0]), schedule="40")
     rho = PropsSI("D", "T", 303.15, "P", 1001325.0, "Water")
-    assert table["result.velocity [m/s]"][0] == pytest.approx(12.5 / rho / (math.pi * di**2 / 4), rel=1e-5)
+    assert table["velocity_m_s"][0] == pytest.approx(12.5 / rho / (math.pi * di**2 / 4), rel=1e-5)
+
+
+REORDERED_CSV = """tag,fluid,flow,pressure [barg],temperature [degC],service,case
+W-2,water,80 t/h,6,25,pump-discharge,normal
+W-1,water,45 t/h,9,30,liquid,
+W-2,water,96 t/h,6.5,25,pump-discharge,maximum
+X-9,unobtainium,1 t/h,2,3,,
+"""
+
+
+@pytest.fixture(scope="module")
+def reordered():
+    frame = pd.read_csv(io.StringIO(REORDERED_CSV), dtype=str, keep_default_na=False)
+    frame.index = pd.Index([101, 7, 55, 3], name="row")
+    return frame, size_dataframe(frame, plugins=False)
+
+
+def test_the_input_index_and_row_order_are_kept(reordered):
+    frame, table = reordered  # W-2's two cases are one line, sized together, yet come back on their own rows
+    assert table.index.equals(frame.index) and table.index.name == "row"
+    assert list(table["tag"]) == ["W-2", "W-1", "W-2", "X-9"] and list(table["case"]) == ["normal", "", "maximum", ""]
+    assert list(table["status"])[3] == "error" and list(table["line_status"])[:3] == ["pass"] * 3
+    assert read_dataframe(table).rows == read_dataframe(frame).rows  # out and in again, result columns skipped
+
+
+def test_result_columns_are_the_json_keys(reordered):
+    frame, table = reordered
+    assert "velocity_m_s" in table.columns and not any(" " in c or "[" in c for c in table.columns[len(frame.columns):])
+    assert [c for c in table.columns if c.startswith("result_")] == ["result_nps", "result_schedule", "result_service"]
+    from boresize.api import run_lines
+    from boresize.io.sheet_rows import case_rows
+
+    cases = {(c.tag, c.line.case if c.line else ""): c for r in run_lines(frame, plugins=False).results
+             for c in case_rows(r)}
+    entry = cases[("W-1", None)].to_dict() if ("W-1", None) in cases else cases[("W-1", "")].to_dict()
+    row = table[table["tag"] == "W-1"].iloc[0]
+    for column in result_columns(list(frame.columns)):
+        key = column.removeprefix("result_")
+        if key in entry and not isinstance(entry[key], (list, dict)):
+            assert row[column] == entry[key] or (entry[key] is None and pd.isna(row[column])), column
+
+
+@pytest.mark.parametrize("name", ["tag", "line_no", None])
+def test_a_frame_indexed_by_tag_takes_its_tags_from_the_index(name):
+    frame = pd.DataFrame({"fluid": ["water", "water"], "flow [t/h]": [45, 20], "pressure [barg]": [9, 9],
+                          "temperature [degC]": [30, 30]}, index=pd.Index(["P-1", "P-2"], name=name))
+    assert [row["tag"] for row in read_dataframe(frame).rows] == ["P-1", "P-2"]
+    table = size_dataframe(frame, plugins=False)
+    assert table.index.equals(frame.index) and "tag" not in table.columns and "line_no" not in table.columns
+    assert list(table["status"]) == ["pass", "pass"]
+
+
+def test_a_numbered_index_does_not_supply_tags():
+    frame = pd.DataFrame({"fluid": ["water"], "flow": ["45 t/h"], "pressure": ["9 barg"], "temperature": ["30 degC"]},
+                         index=[5])
+    with pytest.raises(InputError, match="no column 'tag'"):
+        read_dataframe(frame)
 
 
 @pytest.mark.parametrize(("frame", "field", "pattern"), [
@@ -121,3 +179,13 @@ def test_bad_frames_raise_errors_naming_the_field(frame, field, pattern):
     with pytest.raises(InputError, match=pattern) as info:
         read_dataframe(frame)
     assert info.value.field == field
+
+
+def test_a_frame_column_named_as_a_result_key_stays_the_frames():
+    frame = pd.DataFrame({"tag": ["A", "A"], "velocity_m_s": [1, 2], "fluid": ["water", "water"],
+                          "flow [t/h]": [45, 45], "pressure [barg]": [9, 9], "temperature [degC]": [30, 30]},
+                         index=["p", "q"])
+    table = size_dataframe(frame, plugins=False)  # the second A is an error (tag given twice): its row keeps its label
+    assert list(table.index) == ["p", "q"] and list(table["status"]) == ["pass", "error"]
+    assert list(table["velocity_m_s"]) == ["1", "2"] and table["result_velocity_m_s"].iloc[0] > 0
+    assert [row["velocity_m_s"] for row in read_dataframe(table).rows] == ["1", "2"]

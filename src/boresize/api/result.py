@@ -5,9 +5,11 @@ they do with the base class) that adds, for the selected size (the closest one w
 
 * plain floats named as in the JSON contract: ``velocity_m_s``, ``dp_kpa_per_100m``,
   ``inside_diameter_mm``, ``density_kg_m3``, ``viscosity_mpa_s``, ``total_drop_kpa`` ...
-* the same values as pint Quantities of boresize's registry (:func:`boresize.units.registry`):
-  ``velocity``, ``drop_per_length``, ``inside_diameter``, ``density``, ``viscosity`` ... To move one to
-  another registry, pass its magnitude and unit name (``other.Quantity(q.magnitude, str(q.units))``);
+* the same values as pint Quantities of pint's application registry (``pint.get_application_registry()``, the one
+  ``pint.set_application_registry`` set; boresize adds the units it lacks, :func:`boresize.units.quantities.application_registry`):
+  ``velocity``, ``drop_per_length``, ``inside_diameter``, ``density``, ``viscosity`` ... They add to your own
+  quantities of that registry; for another registry pass the magnitude and unit name
+  (``other.Quantity(q.magnitude, str(q.units))``);
 * ``to_dict()`` (the JSON entry of :func:`boresize.io.document.result_to_dict`), a short ``repr`` and
   ``_repr_html_`` for notebooks, and ``raise_for_error()``.
 
@@ -23,6 +25,7 @@ result for a type checker::
 from __future__ import annotations
 
 import html
+import math
 from collections.abc import Callable
 from dataclasses import dataclass, fields
 from typing import TYPE_CHECKING, Any, TypeVar, overload
@@ -59,7 +62,7 @@ class _Float:
 
 
 class _Quantity:
-    """The same value as a pint Quantity of boresize's registry; None for an error result."""
+    """The same value as a pint Quantity of the application registry; None for an error result."""
 
     def __init__(self, number: str, unit: str, doc: str) -> None:
         self._number, self._unit = number, unit
@@ -76,9 +79,12 @@ class _Quantity:
         value = getattr(obj, self._number)
         if value is None:
             return None
-        from boresize.units import registry
+        from boresize.units.quantities import application_registry
 
-        return registry().Quantity(value, self._unit)
+        ureg = application_registry()
+        if self._unit == "kPa_per_100m" and not math.isclose(ureg.Quantity(1.0, self._unit).to("Pa/m").magnitude, 10.0):
+            return ureg.Quantity(value, "kPa/hm")  # the caller's own kPa_per_100m means something else: theirs stays
+        return ureg.Quantity(value, self._unit)
 
 
 def _sel(read: Callable[[CandidateResult], float | None]) -> Callable[[LineResult], float | None]:

@@ -338,12 +338,16 @@ def _headroom_text(rooms: Sequence[Headroom]) -> str:
 def size_dataframe(frame: pd.DataFrame, *, criteria: str | Path | None = None, plugins: bool = True,
                    executor: Executor | None = None, workers: int = 1, units_row: bool | None = None) -> pd.DataFrame:
     """Size (or check) every line of a DataFrame of streams; the results as
-    :func:`boresize.io.dataframe.results_dataframe` lays them out (input columns, then ``result.*``).
+    :func:`boresize.io.dataframe.results_dataframe` lays them out (input columns, then the result columns named as
+    the JSON keys, ``velocity_m_s`` ...), one row per input row in input order, under the input frame's index (a
+    frame indexed by tag keeps that index, which supplies the tag column).
 
     Rows are grouped into lines (operating cases) as a CSV line list's are; a bad row gives an
     ``error`` row and the others go on. ``executor`` and ``workers`` as in :func:`run_lines`.
     """
-    from boresize.io.dataframe import results_dataframe
+    from boresize.io.dataframe import in_input_order, results_dataframe, size_frame_rows
 
-    run = run_lines(frame, criteria, plugins=plugins, executor=executor, workers=workers, units_row=units_row)
-    return results_dataframe(run.results, run.line_list.headers)
+    line_list, positions, from_index = size_frame_rows(frame, units_row)
+    run = run_lines(line_list, criteria, plugins=plugins, executor=executor, workers=workers)
+    table = results_dataframe(run.results, run.line_list.headers)
+    return in_input_order(table, run.results, run.line_list, positions, frame, from_index)

@@ -100,6 +100,12 @@ def main(argv: Sequence[str] | None = None) -> int:
         print("boresize: interrupted", file=sys.stderr)
         return 130
     except Exception as exc:  # the last guard: no traceback reaches the user
+        from boresize.errors import missing_module
+
+        missing = missing_module(exc, None) if isinstance(exc, ModuleNotFoundError) else None
+        if missing is not None:  # an optional module an output imports outside boresize.optional.needs
+            print(f"boresize: error: {missing}", file=sys.stderr)
+            return 2
         print(f"boresize: internal error {type(exc).__name__}: {printable(str(exc), newlines=True)}\n"
               f"Please report it with the input that "
               f"caused it; run with BORESIZE_DEBUG=1 for the traceback.", file=sys.stderr)

@@ -5,9 +5,16 @@ plain number whose unit the column gives: in the header (``"flow [t/h]"``), in a
 (``pd.read_csv(..., header=[0, 1])``), or in a first row of units (tag and fluid empty, ``t/h`` under
 flow). Cells may also be pint Quantities. Empty cells (None, NaN) are empty.
 
-The frame out has the rows and columns of the CSV results file (:mod:`boresize.io.sheet_rows`): the input
-columns as given, then ``result.*`` columns. Read back with :func:`read_dataframe` the result columns
-are skipped, as the CSV reader skips them, so a frame goes out and in like a CSV file.
+A frame without a tag column whose index is named ``tag`` (or a tag heading such as ``line_no``), or holds
+text, takes its tags from the index.
+
+The frame out has one row per input row (units row and empty rows left out), in input order, under the input
+frame's index: the input columns as given, then the result columns, named by :func:`result_columns`: the keys
+of the case's JSON entry (:func:`boresize.io.document.result_to_dict`: ``status``, ``nps``, ``velocity_m_s``,
+``dp_kpa_per_100m`` ...) plus ``line_status`` (the line's own status over its cases) and ``governs`` (the cases
+whose result set the line's size), each with a ``result_`` prefix only where it is also the name of a line-list
+column (``result_nps``, ``result_schedule``, ``result_service``) or of one of the frame's own columns. Read back with :func:`read_dataframe` the result columns are
+skipped, so a frame goes out and in like a CSV file.
 """
 
 from __future__ import annotations
@@ -21,14 +28,18 @@ from typing import TYPE_CHECKING
 from boresize.errors import InputError
 from boresize.io.csv_reader import RESULT_PREFIX, LineList, check_header, surplus_cells
 from boresize.io.safety import restore
-from boresize.io.rows import parse_header
+from boresize.io.rows import COLUMNS, parse_header
+from boresize.io.sheet_rows import RESULT_COLUMNS
 from boresize.model import LineResult
 
 if TYPE_CHECKING:
     import pandas as pd
 
-__all__ = ["lines_dataframe", "read_dataframe", "results_dataframe"]
+__all__ = ["lines_dataframe", "read_dataframe", "result_columns", "results_dataframe"]
 
+RESULT_PREFIX_SNAKE = "result_"  # before a result column's name that is also an input column's
+
+_RESULT_KEYS = tuple(key for _, key in RESULT_COLUMNS)
 _UNNAMED = re.compile(r"^Unnamed: \d+(_level_\d+)?$")  # what pandas names a blank header cell
 
 
@@ -40,14 +51,41 @@ def read_dataframe(frame: pd.DataFrame, *, units_row: bool | None = None, source
     :raises InputError: field "header" for a missing, doubled or misspelt column; field "lines" for a
         frame without lines
     """
+    return _read(frame, units_row, source)[0]
+
+
+def _read(frame: pd.DataFrame, units_row: bool | None, source: str) -> tuple[LineList, list[int], bool]:
+    """The line list, the position in ``frame`` of each of its rows, and whether the tags came from the index."""
+    frame, from_index = _tags_from_index(frame)
     headers = [_header_text(column) for column in frame.columns]
     records = [list(row) for row in frame.itertuples(index=False, name=None)]
     if units_row is None:
         units_row = _looks_like_units(headers, records)
+    first = 0
     if units_row and records:
         headers = [_with_unit(head, _text(unit)) for head, unit in zip(headers, records[0])]
-        records = records[1:]
-    return _line_list(headers, records, source)
+        first = 1
+    line_list, kept = _line_list(headers, records[first:], source)
+    return line_list, [first + k for k in kept], from_index
+
+
+def _tags_from_index(frame: pd.DataFrame) -> tuple[pd.DataFrame, bool]:
+    """``frame`` with its index as the tag column, when it has no tag column and its index is named as one
+    (``tag``, ``line_no`` ...) or is unnamed text; else ``frame`` unchanged."""
+    import pandas as pd
+
+    if any(parse_header(_header_text(c)).field == "tag" for c in frame.columns) or isinstance(frame.index, pd.MultiIndex):
+        return frame, False
+    name = frame.index.name
+    if name is not None:
+        if parse_header(str(name)).field != "tag":
+            return frame, False
+    elif isinstance(frame.index, pd.RangeIndex) or not all(isinstance(v, str) for v in frame.index):
+        return frame, False
+    tags = [_text(v) for v in frame.index]
+    frame = frame.copy()
+    frame.insert(0, "tag" if name is None else str(name), tags)
+    return frame.reset_index(drop=True), True
 
 
 def _header_text(column: object) -> str:
@@ -76,28 +114,40 @@ def _looks_like_units(headers: list[str], records: list[list[object]]) -> bool:
     return bool(flow) and not re.match(r"\s*[+-]?(\d|\.\d)", flow)
 
 
-def _line_list(headers: list[str], records: list[list[object]], source: str) -> LineList:
+def _line_list(headers: list[str], records: list[list[object]], source: str) -> tuple[LineList, list[int]]:
+    """The line list, and the index in ``records`` of each of its rows (empty records are left out)."""
     parsed = [parse_header(h) for h in headers]
-    names = ["" if h.field.startswith(RESULT_PREFIX) else h.field for h in parsed]
+    fields = {h.field for h in parsed}
+    ours = set(_RESULT_KEYS) <= {f.removeprefix(RESULT_PREFIX_SNAKE) for f in fields}  # a results frame read back
+    skipped = [h.field.startswith(RESULT_PREFIX) or (ours and _is_result_column(h.field, fields)) for h in parsed]
+    names = ["" if skip else h.field for h, skip in zip(parsed, skipped)]
     doubled = sorted({n for n in names if n and names.count(n) > 1})
     if doubled:
         raise InputError(f"column {doubled[0]!r} appears twice in {source}", field="header", value=doubled[0],
                          expected="each column once")
     check_header(names, headers, source)
-    rows = []
-    for record in records:
+    rows, kept = [], []
+    for position, record in enumerate(records):
         cells = [_text(value) for value in record]
         if not any(cells):
             continue
+        kept.append(position)
         row = {name: cell for name, cell in zip(names, cells) if name}
         row.update(surplus_cells([h if n else "" for h, n in zip(headers, names)],
-                                 [c if not h.field.startswith(RESULT_PREFIX) else "" for c, h in zip(cells, parsed)]))
+                                 [c if not skip else "" for c, skip in zip(cells, skipped)]))
         rows.append(row)
     if not rows:
         raise InputError(f"{source} has a header but no lines", field="lines", value=source,
                          expected="one row per line case")
     units = {h.field: h.unit for h, name in zip(parsed, names) if name}
-    return LineList(rows=rows, units=units, source=source, headers=[h for h, n in zip(headers, names) if n])
+    return LineList(rows=rows, units=units, source=source, headers=[h for h, n in zip(headers, names) if n]), kept
+
+
+def _is_result_column(field: str, fields: set[str]) -> bool:
+    """A result column of a results frame read back; a key beside its ``result_`` form is the frame's own column."""
+    if field.startswith(RESULT_PREFIX_SNAKE):
+        return field.removeprefix(RESULT_PREFIX_SNAKE) in _RESULT_KEYS
+    return field in _RESULT_KEYS and field not in COLUMNS and RESULT_PREFIX_SNAKE + field not in fields
 
 
 def _text(value: object) -> str:
@@ -139,8 +189,17 @@ def lines_dataframe(line_list: LineList) -> pd.DataFrame:
     return pd.DataFrame([[row.get(f, "") for f in fields] for row in line_list.rows], columns=list(line_list.headers))
 
 
+def result_columns(input_headers: Sequence[str]) -> list[str]:
+    """The names of the result columns beside ``input_headers``: the JSON keys (module docstring), each with a
+    ``result_`` prefix where it is a line-list column's name (``result_nps``, ``result_schedule``,
+    ``result_service``, whether or not the frame has that column) or an input column's."""
+    taken = set(COLUMNS) | {parse_header(h).field for h in input_headers} | {str(h).strip() for h in input_headers}
+    return [RESULT_PREFIX_SNAKE + key if key in taken else key for key in _RESULT_KEYS]
+
+
 def results_dataframe(results: Sequence[LineResult], headers: Sequence[str] | None = None) -> pd.DataFrame:
-    """Results as the CSV results file lays them out: input columns, then ``result.*`` columns.
+    """Results as a frame: one row per input row (a line's operating cases one each, in the order of the results),
+    the input columns, then the result columns of :func:`result_columns`.
 
     :param headers: the input headers as written (default: the fields the results' rows hold)
     """
@@ -149,4 +208,38 @@ def results_dataframe(results: Sequence[LineResult], headers: Sequence[str] | No
     from boresize.io.sheet_rows import result_rows
 
     head, rows = result_rows(results, headers)
-    return pd.DataFrame(rows, columns=head)
+    shown = head[:len(head) - len(_RESULT_KEYS)]
+    return pd.DataFrame(rows, columns=shown + result_columns(shown))
+
+
+def size_frame_rows(frame: pd.DataFrame, units_row: bool | None) -> tuple[LineList, list[int], bool]:
+    """For :func:`boresize.api.size_dataframe`: the line list, each row's position in ``frame``, and whether the
+    tags came from the index."""
+    return _read(frame, units_row, "<DataFrame>")
+
+
+def in_input_order(table: pd.DataFrame, results: Sequence[LineResult], line_list: LineList, positions: list[int],
+                   frame: pd.DataFrame, from_index: bool) -> pd.DataFrame:
+    """``table`` (rows in the order of ``results``) in the input frame's row order, under its index labels; the tag
+    column dropped when the tags came from the index (the index holds them)."""
+    from boresize.io.sheet_rows import case_rows
+
+    def cells(row: dict[str, str]) -> tuple[tuple[str, str], ...]:  # the marks a run adds ("(tag given before)") left out
+        return tuple(sorted((k, v) for k, v in row.items() if not k.startswith("(")))
+
+    waiting: dict[tuple[tuple[str, str], ...], list[int]] = {}
+    for k, row in enumerate(line_list.rows):
+        waiting.setdefault(cells(row), []).append(k)
+    order: list[int | None] = []
+    for line in results:
+        for case in case_rows(line):
+            queue = waiting.get(cells(case.raw))
+            order.append(queue.pop(0) if queue else None)
+    if len(order) != len(table) or None in order or len(order) != len(line_list.rows):
+        return table  # a row the results do not give back as read: the results' order, a fresh index
+    ranked = sorted(range(len(order)), key=lambda i: order[i])  # type: ignore[arg-type, return-value]
+    out = table.iloc[ranked]
+    out.index = frame.index[[positions[order[i]] for i in ranked]]  # type: ignore[index]
+    if from_index:
+        out = out.drop(columns=[c for c in out.columns[:1] if parse_header(str(c)).field == "tag"])
+    return out

@@ -41,9 +41,11 @@ def cell_text(value: Any) -> str:
 
 
 def _open(path: str | Path, data_only: bool) -> Any:
-    from openpyxl import load_workbook
+    from boresize.optional import needs
 
-    from openpyxl.utils.exceptions import InvalidFileException
+    with needs("reading a .xlsx line list"):
+        from openpyxl import load_workbook
+        from openpyxl.utils.exceptions import InvalidFileException
 
     try:
         return load_workbook(path, read_only=True, data_only=data_only)
@@ -160,7 +162,10 @@ def _fill(sheet: Any, head: Sequence[str], rows: Sequence[Sequence[Any]]) -> Non
 
 def write_xlsx(path: str | Path, results: Sequence[LineResult], headers: Sequence[str] | None = None) -> None:
     """Write sheet ``lines`` (input columns, then results) and sheet ``candidates``."""
-    from openpyxl import Workbook
+    from boresize.optional import needs
+
+    with needs(f"the .xlsx workbook {path}"):
+        from openpyxl import Workbook
 
     book = Workbook()
     lines = book.active

@@ -148,7 +148,10 @@ def render_html(results: Sequence[LineResult], *, trace: Mapping[str, Any], titl
                 headers: Sequence[str] | None = None, units: Mapping[str, str | None] | None = None,
                 max_plots: int = MAX_PLOTS) -> str:
     """The report as one HTML string (no external files, scripts or fonts)."""
-    from jinja2 import Environment, StrictUndefined
+    from boresize.optional import needs
+
+    with needs("the HTML report"):
+        from jinja2 import Environment, StrictUndefined
 
     from boresize.report.html_template import TEMPLATE
 

@@ -88,8 +88,11 @@ def line_plot_svg(result: LineResult) -> str | None:
     series: Series = [(c.line.case if c.line and c.line.case else "", c.candidates) for c in cases if c.candidates]
     if not series:
         return None
-    import matplotlib
-    from matplotlib.figure import Figure
+    from boresize.optional import needs
+
+    with needs("the plots of the HTML report"):
+        import matplotlib
+        from matplotlib.figure import Figure
 
     labels, series = _window(result, series)
     chosen = result.selected.candidate.nps if result.selected else None

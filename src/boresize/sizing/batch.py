@@ -237,9 +237,12 @@ def _progress(total: int, show: bool | None, stream: TextIO | None) -> Iterator[
     if not show:
         yield lambda n: None
         return
-    from rich.console import Console
-    from rich.progress import BarColumn, MofNCompleteColumn, Progress, TextColumn, TimeElapsedColumn, \
-        TimeRemainingColumn
+    from boresize.optional import needs
+
+    with needs("the progress bar (--progress)"):
+        from rich.console import Console
+        from rich.progress import BarColumn, MofNCompleteColumn, Progress, TextColumn, TimeElapsedColumn, \
+            TimeRemainingColumn
 
     console = Console(file=out, force_terminal=out.isatty() or None)
     columns = (TextColumn("sizing"), BarColumn(), MofNCompleteColumn(), TextColumn("lines"), TimeElapsedColumn(),

@@ -9,6 +9,7 @@ from boresize.units.quantities import (
     ATMOSPHERE,
     STANDARD_CONDITIONS,
     QuantityKind,
+    application_registry,
     format_unit_help,
     parse_flow,
     parse_quantity,
@@ -16,5 +17,5 @@ from boresize.units.quantities import (
 )
 from boresize.units.bare import BARE_PRESSURE_MODES, BarePressure, bare_pressure_mode, parse_pressure, reread
 
-__all__ = ["ATMOSPHERE", "BARE_PRESSURE_MODES", "BarePressure", "bare_pressure_mode", "parse_pressure", "reread", "STANDARD_CONDITIONS", "QuantityKind", "format_unit_help", "parse_flow", "parse_quantity",
+__all__ = ["ATMOSPHERE", "BARE_PRESSURE_MODES", "BarePressure", "bare_pressure_mode", "parse_pressure", "reread", "STANDARD_CONDITIONS", "QuantityKind", "application_registry", "format_unit_help", "parse_flow", "parse_quantity",
            "registry"]

@@ -73,6 +73,7 @@ __all__ = [
     "QuantityKind",
     "STANDARD_CONDITIONS",
     "registry",
+    "application_registry",
     "parse_quantity",
     "parse_flow",
     "format_unit_help",
@@ -110,12 +111,52 @@ def registry() -> pint.UnitRegistry[float]:
         ureg: pint.UnitRegistry[float] = pint.UnitRegistry(cache_folder=":auto:")
     except OSError:  # cache folder not writable: build without it
         ureg = pint.UnitRegistry()
+    for line in _definition_lines():
+        ureg.define(line)
+    return ureg
+
+
+def _definition_lines() -> list[str]:
+    """boresize's unit definitions, in the order pint needs them."""
     lines = [line for line in _DEFINITIONS.splitlines() if line]
     for prefix in ("", "d", "c", "m", "u", "k"):  # explicit, or pint reads cm3 as centi-(m3)
         lines += [f"{prefix}m3 = {prefix}m**3", f"{prefix}m2 = {prefix}m**2"]
-    for line in lines:
-        ureg.define(line)
-    return ureg
+    return lines
+
+
+_PREPARED: list[object] = []  # the application registries that have boresize's units (kept alive: compared by identity)
+
+
+def application_registry() -> pint.UnitRegistry[float]:
+    """pint's application registry (``pint.get_application_registry()``, or the one the caller set with
+    ``pint.set_application_registry``), with boresize's extra units added once: the quantities the API returns
+    live there, so that they add to the caller's own (pint refuses to mix registries).
+
+    Only the units the registry lacks are defined: a name (or alias) the caller already defined stays theirs,
+    and nothing is redefined. The parser keeps its own registry (:func:`registry`): what a cell means does not
+    depend on the caller's definitions.
+    """
+    import pint
+
+    app = pint.get_application_registry()  # type: ignore[no-untyped-call]
+    ureg = app.get()
+    if not any(ureg is seen for seen in _PREPARED):
+        # which names are missing is decided before any is defined: once m3 is defined, "cm3" would read as centi-m3;
+        # asked through the application wrapper, which loads a lazy registry first
+        missing = [line for line in _definition_lines() if not any(name in app for name in _names(line))]
+        for line in missing:
+            try:
+                ureg.define(line)
+            except (pint.PintError, ValueError, KeyError):  # it leans on a unit of the caller's that differs: skip
+                continue
+        _PREPARED.append(ureg)
+    return ureg  # type: ignore[no-any-return]
+
+
+def _names(definition: str) -> list[str]:
+    """The unit name and aliases a definition line gives ("standard_cubic_metre = [...] = Sm3")."""
+    parts = [part.strip() for part in definition.split("=")]
+    return [parts[0], *parts[2:]]
 
 
 def format_unit_help(kind: QuantityKind) -> str:
