@@ -73,6 +73,9 @@ DUPLICATE_TAG = "(tag given before)"
 DEFAULT_LENGTH_M = 100.0
 #: Units an NPS header may name: the NPS is a size in inches, so ``NPS (mm)`` is refused, never read as inches.
 _NPS_UNITS = frozenset({"in", "inch", "inches", '"'})
+#: Headings of a DN column (ISO 6708): they feed ``nps`` with this unit, so a bare ``100`` is read as DN 100.
+_DN_HEADINGS = frozenset({"dn", "nominal_diameter"})
+DN_UNIT = "DN"
 _HEADER = re.compile(r"^\s*([^\[\]]*?)\s*(?:\[(.*)\])?\s*$")
 #: A unit in parentheses closing a header (``Length (m)``, ``Design Margin (%)``): read as in brackets.
 _PAREN_UNIT = re.compile(r"^\s*([^\[\]()]*?)\s*\(([^()]*)\)\s*$")
@@ -106,6 +109,8 @@ def parse_header(text: str) -> Header:
     name = (match.group(1) if match else text).strip().lower()
     name = re.sub(r"[\s\-]+", "_", name)
     unit = match.group(2).strip() if match and match.group(2) else None
+    if name in _DN_HEADINGS:  # a DN column feeds nps; its bare numbers are DN ("DN (mm)" is read the same way)
+        return Header(field="nps", unit=DN_UNIT if unit in (None, "mm") else f"{DN_UNIT} {unit}", text=text)
     return Header(field=ALIASES.get(name, name), unit=unit or None, text=text)
 
 
@@ -200,7 +205,13 @@ def line_from_row(row: Mapping[str, object], units: Mapping[str, str | None] | N
                              expected="a fraction of the flow such as '10 %' or 0.1")
         nps_raw, schedule = cells.get("nps"), cells.get("schedule")
         nps_unit = units.get("nps")
-        if nps_raw and nps_unit is not None and nps_unit.lower() not in _NPS_UNITS:
+        if nps_raw and nps_unit is not None and nps_unit.startswith(DN_UNIT):
+            if nps_unit != DN_UNIT:
+                raise InputError(f"a DN has no unit but mm, not {nps_unit[len(DN_UNIT):].strip()!r}", field="nps",
+                                 value=f"{nps_raw} [{nps_unit}]", expected="a heading 'DN' or 'DN (mm)', e.g. '100'")
+            if re.fullmatch(r"\d+(?:\.0*)?", nps_raw):
+                nps_raw = f"DN {nps_raw}"
+        elif nps_raw and nps_unit is not None and nps_unit.lower() not in _NPS_UNITS:
             raise InputError(f"an NPS is in inches, not {nps_unit!r}", field="nps", value=f"{nps_raw} [{nps_unit}]",
                              expected="the nominal pipe size in inches (a header 'NPS' or 'NPS (in)'), e.g. '6'")
         notes: list[BareReading] = []  # pressures in a bare unit (read in the order of the messages before)
