@@ -150,6 +150,41 @@ def _optional_quantity(cells: Mapping[str, str], units: Mapping[str, str | None]
     return _positive(value, name, raw, expected)
 
 
+_PREFIX = re.compile(r"^\s*(?P<prefix>[A-Za-z0-9&]+)\s*::\s*(?P<rest>.*?)\s*$")
+_TABULAR = frozenset({"BICUBIC&HEOS", "TTSE&HEOS"})
+
+
+def _coolprop_prefix(fluid: str, backend: str | None) -> tuple[str, str | None]:
+    """A fluid with CoolProp's ``HEOS::`` prefix is the fluid after it on the coolprop backend (coolprop-mixture for
+    a mixture); ``INCOMP::`` is read by that backend itself. Other prefixes are refused, each saying why."""
+    match = _PREFIX.match(fluid)
+    if match is None:
+        return fluid, backend
+    prefix, rest = match["prefix"].upper(), match["rest"]
+    if prefix == "INCOMP":
+        return fluid, backend
+    if prefix == "REFPROP":
+        raise InputError(f"{fluid!r}: REFPROP is not installed; boresize computes with CoolProp's own equations "
+                         "(HEOS), not NIST REFPROP", field="fluid", value=fluid,
+                         expected=f"the fluid without the prefix ('{rest}') or with CoolProp's 'HEOS::{rest}'")
+    if prefix in _TABULAR:
+        raise InputError(f"{fluid!r}: {match['prefix']} interpolates tables CoolProp builds from HEOS on first use; "
+                         "boresize computes HEOS directly", field="fluid", value=fluid,
+                         expected=f"'HEOS::{rest}' or '{rest}'")
+    if prefix != "HEOS":
+        raise InputError(f"{fluid!r}: unknown CoolProp backend prefix {match['prefix']!r}", field="fluid", value=fluid,
+                         expected=f"'HEOS::{rest}' (or '{rest}'), or INCOMP:: for an incompressible liquid")
+    if not rest:
+        raise InputError(f"{fluid!r}: no fluid after 'HEOS::'", field="fluid", value=fluid, expected="e.g. 'HEOS::Water'")
+    from boresize.properties.base import is_mixture  # no CoolProp import: a text test
+
+    wanted = "coolprop-mixture" if is_mixture(rest) else "coolprop"
+    if backend is not None and backend.lower() != wanted:
+        raise InputError(f"'HEOS::' names CoolProp's {wanted} backend, but the backend column says {backend!r}",
+                         field="backend", value=backend, expected=f"{wanted}, or no backend (or no 'HEOS::' prefix)")
+    return rest, wanted
+
+
 def _choice(cells: Mapping[str, str], name: str, allowed: tuple[str, ...]) -> str | None:
     raw = cells.get(name)
     if raw is None:
@@ -217,11 +252,12 @@ def line_from_row(row: Mapping[str, object], units: Mapping[str, str | None] | N
         notes: list[BareReading] = []  # pressures in a bare unit (read in the order of the messages before)
         bare: list[BareReading] = []
         optional = _optional_fields(cells, units, (bare_pressure, absolute), notes)
+        fluid, backend = _coolprop_prefix(cells["fluid"], cells.get("backend"))
         flow = _flow(cells["flow"], units.get("flow"))
         pressure = _pressure(cells["pressure"], "pressure", units, (bare_pressure, absolute), bare)
         line = Line(
             tag=tag,
-            fluid=cells["fluid"],
+            fluid=fluid,
             flow=flow,
             pressure=pressure,
             temperature=_temperature(cells, units, quality),
@@ -233,7 +269,7 @@ def line_from_row(row: Mapping[str, object], units: Mapping[str, str | None] | N
             viscosity=_optional_quantity(cells, units, "viscosity", "viscosity", "a viscosity above zero, e.g. '1.2 cP'"),
             design_margin=margin,
             phase=_choice(cells, "phase", ("liquid", "gas")),  # type: ignore[arg-type]
-            backend=cells.get("backend"),
+            backend=backend,
             eos=cells.get("eos"),
             fittings=parse_fittings(cells.get("fittings")),
             fittings_method=_fittings_method(cells.get("fittings_method")),
