@@ -35,7 +35,7 @@ PASSING_STATUSES = frozenset({"pass", "warn", "not-applicable"})
 #: fluid; ``supercritical``: above the critical point at or below the critical density, gas-like
 #: (:mod:`boresize.properties.coolprop` states the rule and its source).
 Phase = Literal["liquid", "gas", "two-phase", "supercritical", "dense"]
-FlowBasis = Literal["mass", "volume", "standard-volume"]
+FlowBasis = Literal["mass", "volume", "standard-volume", "molar"]
 #: ``size`` picks the smallest size that passes; ``check`` rates the size the line names.
 Mode = Literal["size", "check"]
 
@@ -45,7 +45,7 @@ class Flow:
     """A flow as the user gave it, in SI.
 
     :param basis: ``mass`` [kg/s], ``volume`` (actual, at line conditions) [m3/s] or
-        ``standard-volume`` [m3/s at the reference conditions]
+        ``standard-volume`` [m3/s at the reference conditions] or ``molar`` [mol/s]
     :param value: the flow in the SI unit of its basis
     :param reference_t: reference temperature of a standard volume [K]
     :param reference_p: reference pressure of a standard volume [Pa abs]

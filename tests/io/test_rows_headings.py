@@ -95,3 +95,27 @@ def test_toml_keys_take_the_aliases_and_a_key_given_twice_is_an_error(tmp_path):
         read_line_list(path)
     assert str(err.value) == ("line[1].Line No: line[1] gives 'tag' twice (as 'Line No' and as 'tag'); "
                               "expected one key for 'tag'")
+
+
+# DN headings (ISO 6708 designations; the NPS each maps to: ASME B36.10M-2018 Table 1)
+def test_a_dn_column_feeds_nps_and_reads_bare_numbers_as_dn():
+    text = ("tag,fluid,flow [t/h],pressure [barg],temperature [degC],DN\n"
+            "A,water,50,5,20,100\nB,water,50,5,20,DN 150\nC,water,50,5,20,25\n")
+    lines = parse_csv_text(text)
+    assert [line_from_row(row, lines.units).nps for row in lines.rows] == ["4", "6", "1"]
+
+
+@pytest.mark.parametrize(("heading", "cell", "nps"), [("DN (mm)", "80", "3"), ("dn", "80.0", "3"),
+                                                      ("Nominal Diameter", "300", "12"), ("NPS", "DN 300", "12")])
+def test_dn_headings(heading, cell, nps):
+    header = parse_header(heading)
+    line = line_from_row({"tag": "T", "fluid": "water", "flow": "1 kg/s", "pressure": "2 bar", "temperature": "20 degC",
+                          "nps": cell}, units={"nps": header.unit})
+    assert line.nps == nps
+
+
+def test_a_dn_heading_in_inches_is_refused():
+    header = parse_header("DN (in)")
+    with pytest.raises(InputError, match=r"a DN has no unit but mm, not 'in'"):
+        line_from_row({"tag": "T", "fluid": "water", "flow": "1 kg/s", "pressure": "2 bar", "temperature": "20 degC",
+                       "nps": "4"}, units={"nps": header.unit})

@@ -163,7 +163,7 @@ def test_nps_spellings(given: str | float, label: str) -> None:
     assert normalise_nps(given) == label
 
 
-@pytest.mark.parametrize("given", ["2.7", 2.7, "7", "1/0", "abc", "", True, None, float("nan"), "DN 50"])
+@pytest.mark.parametrize("given", ["2.7", 2.7, "7", "1/0", "abc", "", True, None, float("nan")])  # DN spellings: tests/pipes/test_dn.py
 def test_unknown_nps_names_the_value_and_lists_the_valid_ones(given: object) -> None:
     pattern = r"^line_nps: unknown NPS .*; expected one of 1/8, 1/4, 3/8, .*, 46, 48$"
     with pytest.raises(InputError, match=pattern) as info:

@@ -34,7 +34,7 @@ ATM = 101325.0  # Pa, exact (NIST SP 811 B.8, atmosphere, standard)
 PSI = 0.45359237 * 9.80665 / 0.0254**2  # Pa: pound (exact) * standard gravity (exact) / inch**2 (exact), NIST SP 811 B.9
 KGF_CM2 = 9.80665 / 1e-4  # Pa, exact (NIST SP 811 B.9, kilogram-force per square centimeter 9.80665 E+04)
 CUBIC_FOOT = 0.3048**3  # m3, exact (NIST SP 811 B.9, foot 0.3048 m)
-SI = {"mass_flow": "kg/s", "volume_flow": "m**3/s", "standard": "m**3/s", "pressure": "Pa",
+SI = {"molar": "mol/s", "mass_flow": "kg/s", "volume_flow": "m**3/s", "standard": "m**3/s", "pressure": "Pa",
       "pressure_difference": "Pa", "temperature": "K", "temperature_difference": "K", "length": "m",
       "density": "kg/m**3", "viscosity": "Pa*s", "velocity": "m/s", "drop_per_length": "Pa/m",
       "dimensionless": "dimensionless"}
@@ -101,6 +101,10 @@ SPELLINGS: list[tuple[str, str, Reference]] = [
     *[(u, "mass_flow", plain("metric_ton/hour", "mass_flow")) for u in ("t/h", "te/h", "tonne/h", "tonnes/h")],
     ("t/d", "mass_flow", plain("metric_ton/day", "mass_flow")),
     ("kg/s", "mass_flow", plain("kilogram/second", "mass_flow")),
+    # pound-mole: 453.59237 mol, from the exact avoirdupois pound (NIST SP 811 B.9)
+    *[(u, "molar", lambda x: x * 453.59237 / HOUR) for u in ("lbmol/h", "lbmole/h", "lbmoles/h")],
+    *[(u, "molar", plain("kilomole/hour", "molar")) for u in ("kmol/h", "kgmol/h", "kgmole/h", "Kmol/h", "KMOL/h",
+                                                              "kmole/h", "kmoles/h")],
     *[(u, "mass_flow", plain("pound/hour", "mass_flow")) for u in ("lb/h", "lbs/h", "lbm/h")],
     *[(u, "mass_flow", plain("kilopound/hour", "mass_flow")) for u in ("klb/h", "klbs/h")],
     # the trade's tonne (mt, MT), thousand (k, K, M) and million (MM) pounds: NIST SP 811 B.9, pound 0.45359237 kg
@@ -146,7 +150,7 @@ SPELLINGS: list[tuple[str, str, Reference]] = [
     *[(u, "velocity", plain(p, "velocity")) for u, p in (("m/s", "meter/second"), ("ft/s", "foot/second"))],
     *[(u, "dimensionless", plain("percent", "dimensionless")) for u in ("%", "pct", "percent")],
 ]
-FLOW_BASIS = {"mass_flow": "mass", "volume_flow": "volume", "standard": "standard-volume"}
+FLOW_BASIS = {"mass_flow": "mass", "volume_flow": "volume", "standard": "standard-volume", "molar": "molar"}
 
 
 def si_value(text: str, kind: str, default_unit: str | None = None) -> float:

@@ -73,6 +73,9 @@ DUPLICATE_TAG = "(tag given before)"
 DEFAULT_LENGTH_M = 100.0
 #: Units an NPS header may name: the NPS is a size in inches, so ``NPS (mm)`` is refused, never read as inches.
 _NPS_UNITS = frozenset({"in", "inch", "inches", '"'})
+#: Headings of a DN column (ISO 6708): they feed ``nps`` with this unit, so a bare ``100`` is read as DN 100.
+_DN_HEADINGS = frozenset({"dn", "nominal_diameter"})
+DN_UNIT = "DN"
 _HEADER = re.compile(r"^\s*([^\[\]]*?)\s*(?:\[(.*)\])?\s*$")
 #: A unit in parentheses closing a header (``Length (m)``, ``Design Margin (%)``): read as in brackets.
 _PAREN_UNIT = re.compile(r"^\s*([^\[\]()]*?)\s*\(([^()]*)\)\s*$")
@@ -106,6 +109,8 @@ def parse_header(text: str) -> Header:
     name = (match.group(1) if match else text).strip().lower()
     name = re.sub(r"[\s\-]+", "_", name)
     unit = match.group(2).strip() if match and match.group(2) else None
+    if name in _DN_HEADINGS:  # a DN column feeds nps; its bare numbers are DN ("DN (mm)" is read the same way)
+        return Header(field="nps", unit=DN_UNIT if unit in (None, "mm") else f"{DN_UNIT} {unit}", text=text)
     return Header(field=ALIASES.get(name, name), unit=unit or None, text=text)
 
 
@@ -143,6 +148,41 @@ def _optional_quantity(cells: Mapping[str, str], units: Mapping[str, str | None]
         return None
     value = parse_quantity(raw, name, kind, units.get(name))
     return _positive(value, name, raw, expected)
+
+
+_PREFIX = re.compile(r"^\s*(?P<prefix>[A-Za-z0-9&]+)\s*::\s*(?P<rest>.*?)\s*$")
+_TABULAR = frozenset({"BICUBIC&HEOS", "TTSE&HEOS"})
+
+
+def _coolprop_prefix(fluid: str, backend: str | None) -> tuple[str, str | None]:
+    """A fluid with CoolProp's ``HEOS::`` prefix is the fluid after it on the coolprop backend (coolprop-mixture for
+    a mixture); ``INCOMP::`` is read by that backend itself. Other prefixes are refused, each saying why."""
+    match = _PREFIX.match(fluid)
+    if match is None:
+        return fluid, backend
+    prefix, rest = match["prefix"].upper(), match["rest"]
+    if prefix == "INCOMP":
+        return fluid, backend
+    if prefix == "REFPROP":
+        raise InputError(f"{fluid!r}: REFPROP is not installed; boresize computes with CoolProp's own equations "
+                         "(HEOS), not NIST REFPROP", field="fluid", value=fluid,
+                         expected=f"the fluid without the prefix ('{rest}') or with CoolProp's 'HEOS::{rest}'")
+    if prefix in _TABULAR:
+        raise InputError(f"{fluid!r}: {match['prefix']} interpolates tables CoolProp builds from HEOS on first use; "
+                         "boresize computes HEOS directly", field="fluid", value=fluid,
+                         expected=f"'HEOS::{rest}' or '{rest}'")
+    if prefix != "HEOS":
+        raise InputError(f"{fluid!r}: unknown CoolProp backend prefix {match['prefix']!r}", field="fluid", value=fluid,
+                         expected=f"'HEOS::{rest}' (or '{rest}'), or INCOMP:: for an incompressible liquid")
+    if not rest:
+        raise InputError(f"{fluid!r}: no fluid after 'HEOS::'", field="fluid", value=fluid, expected="e.g. 'HEOS::Water'")
+    from boresize.properties.base import is_mixture  # no CoolProp import: a text test
+
+    wanted = "coolprop-mixture" if is_mixture(rest) else "coolprop"
+    if backend is not None and backend.lower() != wanted:
+        raise InputError(f"'HEOS::' names CoolProp's {wanted} backend, but the backend column says {backend!r}",
+                         field="backend", value=backend, expected=f"{wanted}, or no backend (or no 'HEOS::' prefix)")
+    return rest, wanted
 
 
 def _choice(cells: Mapping[str, str], name: str, allowed: tuple[str, ...]) -> str | None:
@@ -200,17 +240,24 @@ def line_from_row(row: Mapping[str, object], units: Mapping[str, str | None] | N
                              expected="a fraction of the flow such as '10 %' or 0.1")
         nps_raw, schedule = cells.get("nps"), cells.get("schedule")
         nps_unit = units.get("nps")
-        if nps_raw and nps_unit is not None and nps_unit.lower() not in _NPS_UNITS:
+        if nps_raw and nps_unit is not None and nps_unit.startswith(DN_UNIT):
+            if nps_unit != DN_UNIT:
+                raise InputError(f"a DN has no unit but mm, not {nps_unit[len(DN_UNIT):].strip()!r}", field="nps",
+                                 value=f"{nps_raw} [{nps_unit}]", expected="a heading 'DN' or 'DN (mm)', e.g. '100'")
+            if re.fullmatch(r"\d+(?:\.0*)?", nps_raw):
+                nps_raw = f"DN {nps_raw}"
+        elif nps_raw and nps_unit is not None and nps_unit.lower() not in _NPS_UNITS:
             raise InputError(f"an NPS is in inches, not {nps_unit!r}", field="nps", value=f"{nps_raw} [{nps_unit}]",
                              expected="the nominal pipe size in inches (a header 'NPS' or 'NPS (in)'), e.g. '6'")
         notes: list[BareReading] = []  # pressures in a bare unit (read in the order of the messages before)
         bare: list[BareReading] = []
         optional = _optional_fields(cells, units, (bare_pressure, absolute), notes)
+        fluid, backend = _coolprop_prefix(cells["fluid"], cells.get("backend"))
         flow = _flow(cells["flow"], units.get("flow"))
         pressure = _pressure(cells["pressure"], "pressure", units, (bare_pressure, absolute), bare)
         line = Line(
             tag=tag,
-            fluid=cells["fluid"],
+            fluid=fluid,
             flow=flow,
             pressure=pressure,
             temperature=_temperature(cells, units, quality),
@@ -222,7 +269,7 @@ def line_from_row(row: Mapping[str, object], units: Mapping[str, str | None] | N
             viscosity=_optional_quantity(cells, units, "viscosity", "viscosity", "a viscosity above zero, e.g. '1.2 cP'"),
             design_margin=margin,
             phase=_choice(cells, "phase", ("liquid", "gas")),  # type: ignore[arg-type]
-            backend=cells.get("backend"),
+            backend=backend,
             eos=cells.get("eos"),
             fittings=parse_fittings(cells.get("fittings")),
             fittings_method=_fittings_method(cells.get("fittings_method")),

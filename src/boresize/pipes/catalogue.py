@@ -7,6 +7,9 @@ computed as OD - 2 x wall when a row is read.
 
 Sources: ASME B36.10M-2018 "Welded and Seamless Wrought Steel Pipe", Table 1; ASME B36.19M-2018
 "Stainless Steel Pipe", Table 1.
+
+A size may be given as a DN (``"DN 100"``, ``"DN100"``): it is read as the NPS of the ISO 6708 / ASME B36.10M
+correspondence (:data:`DN_BY_NPS`) and handed out as that NPS.
 """
 
 from __future__ import annotations
@@ -25,7 +28,7 @@ from pathlib import Path
 from boresize.errors import CatalogueError, InputError
 
 __all__ = [
-    "DATA_FILES", "NPS_LABELS", "SCHEDULES", "Catalogue", "PipeSize", "load_catalogue", "normalise_nps",
+    "DATA_FILES", "DN_BY_NPS", "NPS_LABELS", "SCHEDULES", "Catalogue", "PipeSize", "load_catalogue", "normalise_nps",
     "normalise_schedule", "nps_value", "read_catalogue_file", "read_catalogue_text",
 ]
 
@@ -44,6 +47,16 @@ SCHEDULES: tuple[str, ...] = (
 DATA_FILES: tuple[str, ...] = ("asme_b36_10m.csv", "asme_b36_19m.csv")
 HEADER = ("nps", "od_mm", "schedule", "wall_mm")
 
+#: The DN (ISO 6708) of each NPS, as ASME B36.10M-2018 and B36.19M-2018 list them beside the NPS: DN 6, 8, 10,
+#: 15, 20, 25, 32, 40, 50, 65, 80, 90 up to NPS 3-1/2, then 25 x NPS (DN 100 = NPS 4 ... DN 1200 = NPS 48).
+#: The same pairs as the fluids library's ``fluids.piping.NPSS10`` / ``SS10DN`` (tests/pipes check them).
+DN_BY_NPS: dict[str, int] = {
+    **dict(zip(NPS_LABELS[:12], (6, 8, 10, 15, 20, 25, 32, 40, 50, 65, 80, 90))),
+    **{label: 25 * int(label) for label in NPS_LABELS[12:]},
+}
+_NPS_BY_DN = {dn: label for label, dn in DN_BY_NPS.items()}
+_DN_TEXT = re.compile(r"DN[\s\-]*(?P<dn>\d+)(?:\.0*)?", flags=re.IGNORECASE)
+_DN_ANYWHERE = re.compile(r"\bDN\b|\bDN\d|\d\s*DN\b|\bmm\b", flags=re.IGNORECASE)
 _UNICODE_FRACTIONS = {"½": "1/2", "¼": "1/4", "¾": "3/4", "⅛": "1/8", "⅜": "3/8", "⅝": "5/8", "⅞": "7/8"}
 _NPS_TEXT = re.compile(
     r"(?P<whole>\d+)(?:[\s-]+(?P<num>\d+)/(?P<den>\d+))?|(?P<fnum>\d+)/(?P<fden>\d+)|(?P<dec>\d*\.\d+)"
@@ -109,13 +122,33 @@ def normalise_nps(value: object, field: str = "nps") -> str:
         label = _LABEL_BY_TEXT.get(value)
         if label is not None:
             return label
-    number = _nps_fraction(value)
-    label = _NPS_BY_VALUE.get(number) if number is not None else None
+    dn = _DN_TEXT.fullmatch(value.strip()) if isinstance(value, str) else None
+    if dn is not None:
+        label = _nps_of_dn(int(dn["dn"]), value, field)
+    else:
+        number = _nps_fraction(value)
+        label = _NPS_BY_VALUE.get(number) if number is not None else None
     if label is None:
+        if isinstance(value, str) and _DN_ANYWHERE.search(value):
+            raise InputError(f"cannot read {value!r} as a DN or an NPS", field=field, value=value,
+                             expected="a DN written 'DN 100' or 'DN100', or an NPS in inches such as '4'")
         raise InputError(f"unknown NPS {value!r}", field=field, value=value, expected=_VALID_NPS)
     if type(value) is str:
         _remember(_LABEL_BY_TEXT, value, label)
     return label
+
+
+def _nps_of_dn(dn: int, value: object, field: str) -> str:
+    """The NPS of DN ``dn``; a DN without one raises InputError naming the nearest DN (or the two, if as near)."""
+    label = _NPS_BY_DN.get(dn)
+    if label is not None:
+        return label
+    gap = min(abs(known - dn) for known in _NPS_BY_DN)
+    nearest = " or ".join(f"DN {known} (NPS {_NPS_BY_DN[known]})" for known in sorted(_NPS_BY_DN)
+                          if abs(known - dn) == gap)
+    raise InputError(f"DN {dn} has no NPS in ASME B36.10M/B36.19M; nearest {nearest}", field=field, value=value,
+                     expected=f"a DN from {min(_NPS_BY_DN)} to {max(_NPS_BY_DN)} that pairs with an NPS, "
+                              "e.g. DN 100 (NPS 4)")
 
 
 def _remember(texts: dict[str, str], text: str, label: str) -> None:

@@ -12,6 +12,8 @@ chemicals database knows -> ``thermo``.
 
 A standard-volume flow (Sm3/h, Nm3/h, scf, MMSCFD) becomes a mass flow with the density that the
 same backend gives at the unit's reference conditions, so a mixture's standard volume uses its EOS.
+A molar flow (kmol/h, lbmol/h) becomes a mass flow with the molar mass of the line's state; the record says so
+(:func:`flow_note`).
 """
 
 from __future__ import annotations
@@ -24,7 +26,7 @@ from boresize.model import FluidState, Line
 from boresize.plugins import PluginHost
 from boresize.properties.base import check_plausible
 
-__all__ = ["checked_state", "choose_backend", "fluid_state", "mass_flow_of"]
+__all__ = ["checked_state", "choose_backend", "flow_note", "fluid_state", "mass_flow_of"]
 
 _PHASES = ("liquid", "gas", "two-phase", "supercritical", "dense")
 
@@ -133,6 +135,29 @@ def _recorded(state: FluidState, backend: Any, pressure: float, temperature: flo
                    temperature=state.temperature if state.temperature is not None else temperature)
 
 
+def _molar_mass(line: Line, state: FluidState) -> float:
+    """The state's molar mass [kg/mol], or an error naming what a molar flow needs."""
+    molar_mass = state.molar_mass
+    if molar_mass is None or not molar_mass > 0:
+        raise InputError(
+            f"a molar flow ({line.flow.value * 3.6:.6g} kmol/h) needs the stream's molar mass, which the "
+            f"{state.source} backend does not give"
+            + (" (the line's own density and viscosity)" if state.source == "table" else ""),
+            field="flow", value=f"{line.flow.value * 3.6:.6g} kmol/h",
+            expected="a mass or volume flow (kg/h, m3/h), or a fluid a property backend knows (its molar mass then "
+                     "converts the flow)").for_line(line.tag)
+    return molar_mass
+
+
+def flow_note(line: Line, state: FluidState) -> str | None:
+    """How a molar flow became a mass flow (the molar mass used and where it came from), else None."""
+    if line.flow.basis != "molar":
+        return None
+    molar_mass = _molar_mass(line, state)
+    return (f"molar flow {line.flow.value * 3.6:.6g} kmol/h read as {line.flow.value * molar_mass * 3600:.6g} kg/h "
+            f"with molar mass {molar_mass * 1000:.6g} kg/kmol ({state.fluid_name or line.fluid}, {state.source})")
+
+
 def mass_flow_of(host: PluginHost, line: Line, state: FluidState) -> float:
     """Mass flow [kg/s] from the line's flow: mass as is, actual volume times the line density,
     standard volume times the density at the stated reference conditions (same backend)."""
@@ -141,6 +166,8 @@ def mass_flow_of(host: PluginHost, line: Line, state: FluidState) -> float:
         return flow.value
     if flow.basis == "volume":
         return flow.value * state.density
+    if flow.basis == "molar":
+        return flow.value * _molar_mass(line, state)
     if flow.reference_p is None or flow.reference_t is None:
         raise InputError("standard volume flow without reference conditions", field="flow", value=flow,
                          expected="Sm3/h, Nm3/h, scf/h or MMSCFD").for_line(line.tag)

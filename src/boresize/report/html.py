@@ -26,7 +26,7 @@ __all__ = ["MAX_PLOTS", "render_html", "write_html"]
 MAX_PLOTS = 300
 
 
-_FLOW_UNITS = {"mass": "kg/h", "volume": "m3/h at line conditions", "standard-volume": "m3/h"}
+_FLOW_UNITS = {"mass": "kg/h", "volume": "m3/h at line conditions", "standard-volume": "m3/h", "molar": "kmol/h"}
 
 
 def _num(value: float | None, digits: int = 4) -> str:

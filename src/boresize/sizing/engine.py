@@ -29,7 +29,7 @@ from boresize.model import Candidate, CandidateResult, FluidState, Hydraulics, L
 from boresize.pipes import PipeClass
 from boresize.plugins import PluginHost
 from boresize.sizing.selection import build_result, error_result, error_verdict, internal_error, select, verdict_fault
-from boresize.properties.select import choose_backend, fluid_state, mass_flow_of
+from boresize.properties.select import choose_backend, flow_note, fluid_state, mass_flow_of
 from boresize.sizing.scan import RATED_ABOVE, criterion_trends, rated_span, start_diameter
 from boresize.sizing.service_phase import check_phase, default_service, phase_group
 
@@ -126,6 +126,8 @@ class Sizer:
         pipe_class = self.config.pipe_class(line.pipe_class or service.pipe_class)
         margin = line.design_margin if line.design_margin is not None else service.design_margin
         mass_flow = mass_flow_of(self.host, line, state) * (1.0 + margin)
+        converted = flow_note(line, state)
+        notes += (converted,) if converted else ()
         return _Prepared(line, state, service, pipe_class, mass_flow, margin, mode, notes,
                          start_diameter(service, line, state, mass_flow,
                                         line.roughness if line.roughness is not None else pipe_class.roughness),

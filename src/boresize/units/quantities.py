@@ -339,8 +339,9 @@ def parse_flow(value: object, field: str = "flow", default_unit: str | None = No
     """Parse a flow cell into a :class:`~boresize.model.Flow` with its basis.
 
     mass [kg/s] (kg/h, t/h, lb/h, klb/h, t/d ...), volume [m3/s at line conditions] (m3/h, l/min,
-    gpm, bbl/d, ft3/s ...) or standard-volume [m3/s at the reference state named by the unit,
-    see :data:`STANDARD_CONDITIONS`] (Sm3/h, Nm3/h, scfm, MMSCFD ...). A flow <= 0 is returned
+    gpm, bbl/d, ft3/s ...), standard-volume [m3/s at the reference state named by the unit,
+    see :data:`STANDARD_CONDITIONS`] (Sm3/h, Nm3/h, scfm, MMSCFD ...) or molar [mol/s] (kmol/h, mol/s,
+    lbmol/h, kmol/d ...; the line's molar mass makes it a mass flow). A flow <= 0 is returned
     as is (the line validator judges it); a wrong dimension raises :class:`UnitError`.
     """
     split = _plain_split(value, default_unit)
@@ -361,6 +362,7 @@ def parse_flow(value: object, field: str = "flow", default_unit: str | None = No
 # basis, SI unit in pint, (reference T [K], reference P [Pa abs], label) of each flow basis
 _FLOW_BASES: tuple[tuple[FlowBasis, str, tuple[float | None, float | None, str | None]], ...] = (
     ("mass", "kg/s", (None, None, None)), ("volume", "m**3/s", (None, None, None)),
+    ("molar", "mol/s", (None, None, None)),
     *(("standard-volume", si, STANDARD_CONDITIONS[name]) for name, si in _STANDARD_SI.items()))
 
 

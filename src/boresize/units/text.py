@@ -127,6 +127,9 @@ _ALIASES: dict[str, str] = {
     "mPas": "(mPa*s)", "Pas": "(Pa*s)", "pct": "percent", "%": "percent",
     "kpa": "kPa", "KPa": "kPa", "KPA": "kPa", "Kpa": "kPa", "Bar": "bar", "BAR": "bar",
     "PSI": "psi", "Psi": "psi",
+    # pound-mole: 453.59237 mol (the avoirdupois pound, exactly 0.45359237 kg, of a gram-mole)
+    "lbmol": "(453.59237*mol)", "lbmole": "(453.59237*mol)", "lbmoles": "(453.59237*mol)",
+    "kgmol": "kmol", "kgmole": "kmol", "Kmol": "kmol", "KMOL": "kmol", "kmole": "kmol", "kmoles": "kmol",
 }
 for _word in ("SCFD", "SCFH", "SCFM", "MSCF", "MMSCF", "MSCFD", "GPM", "USGPM", "LPM"):
     _ALIASES[_word] = _ALIASES[_word.lower()]
