@@ -287,3 +287,11 @@ def test_quiet_prints_no_table_no_summary_but_errors_and_one_caution_line(capsys
     monkeypatch.setattr(sys, "stdin", _Stdin(_ONE_CSV.encode()))
     code, out, err = _run(capsys, "-", "--quiet", "--json")
     assert code == 0 and json.loads(out)["summary"]["pass"] == 1 and len(err.splitlines()) == 1
+
+
+def test_a_csv_sniffed_as_toml_says_how_to_read_it_as_csv(capsys, monkeypatch):
+    monkeypatch.setattr(sys, "stdin", _Stdin(b"[tag],fluid,flow\nA,water,1 t/h\n"))
+    code, _, err = _run(capsys, "-")
+    assert code == 2 and err.startswith("boresize: error: lines: <stdin> is not valid TOML: ")
+    assert err.endswith("; expected a TOML line list (read as TOML because its first line starts with [; "
+                        "--format csv reads it as CSV)\n")

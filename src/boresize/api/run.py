@@ -273,7 +273,14 @@ def _from_stdin(read: str | bytes, format: str | None, parse_csv: Callable[[str,
     kind = format or sniff_format(data)
     if kind == "xlsx":
         return _xlsx_bytes(data, "<stdin>")
-    return _from_text(data, "<stdin>", parse_csv, toml=kind == "toml")
+    try:
+        return _from_text(data, "<stdin>", parse_csv, toml=kind == "toml")
+    except InputError as exc:
+        if format is None and kind == "toml" and exc.field == "lines":  # a CSV whose first cell starts with [
+            raise InputError(exc.message, field=exc.field, value=exc.value,
+                             expected=f"{exc.expected} (read as TOML because its first line starts with [; "
+                                      "--format csv reads it as CSV)") from None
+        raise
 
 
 def _xlsx_bytes(data: bytes, source: str) -> LineList:
