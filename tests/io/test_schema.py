@@ -79,3 +79,11 @@ def test_a_wrong_document_fails_validation(tmp_path):
     wrong = copy.deepcopy(doc)
     wrong["schema_version"] = "0.9"
     assert _problems(wrong)
+
+
+def test_one_results_to_dict_validates_as_a_line_entry():
+    line_schema = {"$schema": SCHEMA["$schema"], "$defs": SCHEMA["$defs"], "$ref": "#/$defs/line"}
+    line = api.make_line(tag="P-101", fluid="water", flow="45 t/h", pressure="9 barg", temperature="30 degC",
+                         length="120 m", service="pump-discharge")
+    for result in (api.size(line), api.check(line, nps="1")):
+        assert [e.message for e in Draft202012Validator(line_schema).iter_errors(result.to_dict())] == []
