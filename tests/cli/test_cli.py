@@ -211,3 +211,87 @@ def test_one_saturated_line_by_quality_and_one_with_its_vapour_pressure(capsys):
                         "--vapour-pressure", "0.02 bar", "--json")
     entry = json.loads(out)["lines"][0]
     assert code == 0 and entry["vapour_pressure_bar_abs"] == pytest.approx(0.02)
+
+
+_ONE_CSV = "tag,fluid,flow,pressure,temperature\nW-1,water,20 t/h,3 barg,25 degC\n"
+_ONE_TOML = '[[line]]\ntag = "W-1"\nfluid = "water"\nflow = "20 t/h"\npressure = "3 barg"\ntemperature = "25 degC"\n'
+
+
+class _Stdin:
+    """Standard input with a binary buffer, as a pipe gives."""
+
+    def __init__(self, data: bytes) -> None:
+        import io
+
+        self.buffer = io.BytesIO(data)
+
+
+def test_standard_input_sniffs_csv_toml_and_xlsx(capsys, monkeypatch, tmp_path):
+    for data in (_ONE_CSV.encode(), _ONE_TOML.encode(), b"# a comment first\n" + _ONE_TOML.encode()):
+        monkeypatch.setattr(sys, "stdin", _Stdin(data))
+        code, out, _ = _run(capsys, "-", "--json")
+        doc = json.loads(out)
+        assert (code, doc["lines_source"], [line["tag"] for line in doc["lines"]]) == (0, "<stdin>", ["W-1"])
+    csv = tmp_path / "lines.csv"
+    csv.write_text(_ONE_CSV, encoding="utf-8")
+    assert _run(capsys, str(csv), "-o", str(tmp_path / "lines.xlsx"))[0] == 0
+    data = (tmp_path / "lines.xlsx").read_bytes()
+    for extra in ([], ["--format", "xlsx"]):
+        monkeypatch.setattr(sys, "stdin", _Stdin(data))
+        code, out, _ = _run(capsys, "-", "--json", *extra)
+        doc = json.loads(out)
+        assert (code, doc["lines_source"], [line["tag"] for line in doc["lines"]]) == (0, "<stdin>", ["W-1"])
+        assert doc["traceability"]["lines_sha256"] == __import__("hashlib").sha256(data).hexdigest()
+
+
+def test_format_forces_the_reading_of_standard_input(capsys, monkeypatch):
+    monkeypatch.setattr(sys, "stdin", _Stdin(_ONE_TOML.encode()))
+    code, _, err = _run(capsys, "-", "--format", "csv")
+    assert code == 2 and err.startswith("boresize: error: header: ")  # TOML read as CSV has no such header
+    monkeypatch.setattr(sys, "stdin", _Stdin(_ONE_CSV.encode()))
+    code, _, err = _run(capsys, "-", "--format", "xlsx")
+    assert (code, err) == (2, "boresize: error: lines: <stdin> is not an XLSX workbook (it does not start as a zip "
+                              "file does, with PK); expected an .xlsx workbook's bytes, or --format csv or toml\n")
+
+
+def test_a_bad_format_is_a_usage_error(capsys, monkeypatch):
+    monkeypatch.setattr(sys, "stdin", _Stdin(_ONE_CSV.encode()))
+    with pytest.raises(SystemExit) as exit_:
+        main(["size", "-", "--format", "json"])
+    assert exit_.value.code == 2 and capsys.readouterr().err.endswith(
+        "boresize size: error: argument --format: invalid choice: 'json' (choose from 'csv', 'toml', 'xlsx')\n")
+    code, _, err = _run(capsys, str(DEMO / "lines.csv"), "--format", "csv")
+    assert (code, err) == (2, "boresize: error: --format csv is for a line list on standard input (-); a file's "
+                              "extension gives its format\n")
+
+
+@pytest.mark.parametrize("data", [b"", b"  \n\n", b"\r\n"])
+def test_empty_standard_input_is_named(data, capsys, monkeypatch):
+    monkeypatch.setattr(sys, "stdin", _Stdin(data))
+    code, out, err = _run(capsys, "-")
+    assert (code, out) == (2, "")
+    assert err == ("boresize: error: lines: standard input is empty: nothing to size; expected a line list (CSV, "
+                   "TOML or XLSX) piped in, e.g. boresize size - < lines.csv\n")
+
+
+def test_quiet_prints_no_table_no_summary_but_errors_and_one_caution_line(capsys, monkeypatch, tmp_path):
+    monkeypatch.setattr(sys, "stdin", _Stdin((_ONE_CSV + "B,water,10 bar,3 barg,20 degC\n").encode()))
+    code, out, err = _run(capsys, "-", "--quiet", "-o", str(tmp_path / "r.json"))
+    assert (code, out) == (1, "")
+    assert err.splitlines() == [
+        "boresize: error: line B: flow: '10 bar' is a pressure, not a flow; expected a mass flow (kg/h, t/h, kg/s, "
+        "lb/h), a volume flow (m3/h, l/min, gpm) or a standard gas volume flow (Sm3/h, Nm3/h, MMSCFD)",
+        "boresize: screening calculations: check them against the applicable codes and your company's standards "
+        "before use"]
+    assert json.loads((tmp_path / "r.json").read_text(encoding="utf-8"))["summary"]["error"] == 1
+    monkeypatch.setattr(sys, "stdin", _Stdin(_ONE_CSV.encode()))
+    code, out, err = _run(capsys, "-", "--quiet", "--json")
+    assert code == 0 and json.loads(out)["summary"]["pass"] == 1 and len(err.splitlines()) == 1
+
+
+def test_a_csv_sniffed_as_toml_says_how_to_read_it_as_csv(capsys, monkeypatch):
+    monkeypatch.setattr(sys, "stdin", _Stdin(b"[tag],fluid,flow\nA,water,1 t/h\n"))
+    code, _, err = _run(capsys, "-")
+    assert code == 2 and err.startswith("boresize: error: lines: <stdin> is not valid TOML: ")
+    assert err.endswith("; expected a TOML line list (read as TOML because its first line starts with [; "
+                        "--format csv reads it as CSV)\n")

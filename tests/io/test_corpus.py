@@ -135,3 +135,15 @@ def test_every_other_line_is_still_in_the_output_in_order(file: str) -> None:
         if (line["tag"], seen[line["tag"]]) not in bad:
             assert line["status"] in ("pass", "fail"), f"{file}: line {line['tag']}: {line.get('error')}"
             assert line["nps"], f"{file}: line {line['tag']} has no size"
+
+
+@pytest.mark.parametrize("file", ROW_FILES)
+def test_every_corpus_document_validates_against_the_shipped_schema(file: str) -> None:
+    from jsonschema import Draft202012Validator
+
+    from boresize.api import document_schema
+
+    code, out, _ = _run(file)
+    problems = [f"{list(e.absolute_path)}: {e.message}"
+                for e in Draft202012Validator(document_schema()).iter_errors(json.loads(out))]
+    assert problems == [], f"{file}: {problems[:3]}"

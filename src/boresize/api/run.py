@@ -219,19 +219,27 @@ def roughness_value(value: str | float, field: str = "corroded_roughness") -> fl
     return number
 
 
-def read_lines(lines: LineSource, units_row: bool | None = None) -> LineList:
-    """A line list from a path, ``"-"`` (standard input, CSV), an open file, a DataFrame or a LineList.
+STDIN_FORMATS = ("csv", "toml", "xlsx")
 
-    :raises InputError: (field "lines") something else, or an unreadable file
+
+def read_lines(lines: LineSource, units_row: bool | None = None, *, format: str | None = None) -> LineList:
+    """A line list from a path, ``"-"`` (standard input), an open file, a DataFrame or a LineList.
+
+    :param format: for ``"-"``: ``csv``, ``toml`` or ``xlsx``; None sniffs it (a zip, ``PK``, is XLSX; text whose
+        first line that is neither blank nor a ``#`` comment starts with ``[`` is TOML; anything else is CSV)
+    :raises InputError: (field "lines") something else, an unreadable file, empty standard input
     """
     from boresize.io import read_line_list
     from boresize.io.csv_reader import parse_csv_text
 
+    if format is not None and format not in STDIN_FORMATS:
+        raise InputError(f"format {format!r} is not known", field="format", value=format,
+                         expected=" or ".join(STDIN_FORMATS))
     if isinstance(lines, LineList):
         return lines
     if isinstance(lines, str) and lines == "-":
         stdin = getattr(sys.stdin, "buffer", sys.stdin)  # bytes where there are: a bad encoding is named, not raised
-        return _from_text(stdin.read(), "<stdin>", parse_csv_text)
+        return _from_stdin(stdin.read(), format, parse_csv_text)
     if isinstance(lines, (str, Path)):
         return read_line_list(lines)
     if hasattr(lines, "read"):
@@ -245,15 +253,70 @@ def read_lines(lines: LineSource, units_row: bool | None = None) -> LineList:
                      expected="a path, '-', an open file, a DataFrame, a LineList, or Lines")
 
 
-def _from_text(text: str | bytes, source: str, parse_csv: Callable[[str, str], LineList]) -> LineList:
-    """A line list from the text of a file: TOML when its name ends in .toml, else CSV; digest of its bytes."""
+def sniff_format(data: bytes) -> str:
+    """``xlsx`` for a zip (``PK``), ``toml`` when the first line neither blank nor a ``#`` comment starts with ``[``
+    (``[[line]]``, a table), else ``csv``."""
+    if data.startswith(b"PK"):
+        return "xlsx"
+    for raw in data.lstrip(b"\xef\xbb\xbf").splitlines():
+        text = raw.strip()
+        if text and not text.startswith(b"#"):
+            return "toml" if text.startswith(b"[") else "csv"
+    return "csv"
+
+
+def _from_stdin(read: str | bytes, format: str | None, parse_csv: Callable[[str, str], LineList]) -> LineList:
+    data = read if isinstance(read, bytes) else read.encode("utf-8")
+    if not data.strip():
+        raise InputError("standard input is empty: nothing to size", field="lines", value="-",
+                         expected="a line list (CSV, TOML or XLSX) piped in, e.g. boresize size - < lines.csv")
+    kind = format or sniff_format(data)
+    if kind == "xlsx":
+        return _xlsx_bytes(data, "<stdin>")
+    try:
+        return _from_text(data, "<stdin>", parse_csv, toml=kind == "toml")
+    except InputError as exc:
+        if format is None and kind == "toml" and exc.field == "lines":  # a CSV whose first cell starts with [
+            raise InputError(exc.message, field=exc.field, value=exc.value,
+                             expected=f"{exc.expected} (read as TOML because its first line starts with [; "
+                                      "--format csv reads it as CSV)") from None
+        raise
+
+
+def _xlsx_bytes(data: bytes, source: str) -> LineList:
+    """An XLSX line list from its bytes (read through a private temporary file; errors name ``source``)."""
+    import tempfile
+
+    from boresize.io.xlsx import read_xlsx
+
+    if not data.startswith(b"PK"):
+        raise InputError(f"{source} is not an XLSX workbook (it does not start as a zip file does, with PK)",
+                         field="lines", value=source, expected="an .xlsx workbook's bytes, or --format csv or toml")
+    with tempfile.TemporaryDirectory(prefix="boresize-stdin-") as folder:
+        path = Path(folder) / "stdin.xlsx"
+        path.write_bytes(data)
+        try:
+            line_list = read_xlsx(path)
+        except InputError as exc:
+            raise InputError(exc.message.replace(str(path), source), field=exc.field,
+                             value=source if exc.value == str(path) else exc.value, expected=exc.expected,
+                             tag=exc.tag) from None
+    line_list.source = source
+    line_list.digest = hashlib.sha256(data).hexdigest()
+    return line_list
+
+
+def _from_text(text: str | bytes, source: str, parse_csv: Callable[[str, str], LineList],
+               toml: bool | None = None) -> LineList:
+    """A line list from the text of a file: TOML when ``toml`` (None: when its name ends in .toml), else CSV;
+    digest of its bytes."""
     data = text if isinstance(text, bytes) else text.encode("utf-8")
     try:
         decoded = data.decode("utf-8-sig")
     except UnicodeDecodeError as exc:
         raise InputError(f"{source} is not UTF-8 text", field="lines", value=source,
                          expected="a line list saved as UTF-8") from exc
-    if source.lower().endswith(".toml"):
+    if source.lower().endswith(".toml") if toml is None else toml:
         import tomllib
 
         from boresize.io.toml_lines import lines_from_document

@@ -11,7 +11,11 @@ from boresize.api import tools
 from boresize.cli.fields import SINGLE_LINE_FIELDS, print_json
 from boresize.errors import InputError, UsageError, printable
 
-__all__ = ["UsageError", "run_size", "run_criteria", "run_pipes", "run_diff"]
+__all__ = ["UsageError", "run_size", "run_criteria", "run_pipes", "run_diff", "run_schema"]
+
+
+QUIET_CAUTION = ("screening calculations: check them against the applicable codes and your company's standards "
+                 "before use")
 
 
 def _single_row(args: argparse.Namespace) -> dict[str, str]:
@@ -22,13 +26,19 @@ def _single_row(args: argparse.Namespace) -> dict[str, str]:
 
 
 def _lines(args: argparse.Namespace) -> str | api.LineList:
-    """The line list to size: a file's path, ``-`` for standard input, or one line from the options."""
+    """The line list to size: a file's path, the list read from standard input (``-``), or one line from the
+    options."""
     single = _single_row(args)
     if args.lines and len(single) > 1:
         raise UsageError(f"give either a line list ({args.lines}) or one line's options, not both")
     if args.lines and args.lines != "-" and not Path(args.lines).is_file():
         raise UsageError(f"line list {args.lines!r} not found")
+    if args.format and args.lines != "-":
+        raise UsageError(f"--format {args.format} is for a line list on standard input (-); a file's extension "
+                         "gives its format")
     _check_criteria(args)
+    if args.lines == "-":
+        return api.read_lines("-", format=args.format)
     if args.lines:
         return str(args.lines)
     if len(single) > 1:
@@ -59,7 +69,7 @@ def _check_outputs(paths: list[str], lines: str | api.LineList) -> list[Path] | 
     return outputs if len(outputs) == len(paths) else None
 
 
-def _write_outputs(run: api.Run, outputs: list[Path]) -> bool:
+def _write_outputs(run: api.Run, outputs: list[Path], quiet: bool = False) -> bool:
     """Write every output it can: one that fails is reported with its path and the others still written."""
     written = True
     for path in outputs:
@@ -68,7 +78,8 @@ def _write_outputs(run: api.Run, outputs: list[Path]) -> bool:
         except InputError as exc:
             print(f"boresize: error: {printable(str(exc), newlines=True)}", file=sys.stderr)
             written = False
-        else:
+            continue
+        if not quiet:
             print(f"boresize: wrote {printable(str(path))}", file=sys.stderr)
     return written
 
@@ -90,10 +101,11 @@ def run_size(args: argparse.Namespace) -> int:
         return 2
     roughness = api.roughness_value(args.corroded_roughness, "corroded-roughness") if args.corroded_roughness \
         else None
+    progress = False if args.quiet and args.progress is None else args.progress
     run = api.run_lines(lines, args.criteria, workers=_workers(args), every_size=args.every_size,
-                        corroded_roughness=roughness, plugins=not args.no_plugins, progress=args.progress,
+                        corroded_roughness=roughness, plugins=not args.no_plugins, progress=progress,
                         headroom=args.headroom, bare_pressure=args.bare_pressure)
-    written = _write_outputs(run, outputs)
+    written = _write_outputs(run, outputs, args.quiet)
     _note_slow_criteria(run)
     if args.timings:
         for spent in sorted(run.criterion_times, key=lambda t: -t.seconds):
@@ -101,6 +113,12 @@ def run_size(args: argparse.Namespace) -> int:
                   f"{spent.seconds:.3f} s", file=sys.stderr)
     if args.json:
         print_json(run.document(timings=args.timings))
+    if args.quiet:
+        for result in run.results:
+            if result.error:
+                print(f"boresize: error: {printable(result.error)}", file=sys.stderr)
+        print(f"boresize: {QUIET_CAUTION}", file=sys.stderr)
+    elif args.json:
         print(f"boresize: {run.summary()}", file=sys.stderr)
     else:
         sys.stdout.write(run.table())
@@ -132,4 +150,10 @@ def run_pipes(args: argparse.Namespace) -> int:
     else:
         classes = tools.pipe_classes_text(args.criteria, plugins=not args.no_plugins)
         sys.stdout.write(printable(classes, newlines=True))
+    return 0
+
+
+def run_schema(args: argparse.Namespace) -> int:
+    """The JSON Schema of the results document, as shipped in the package."""
+    print_json(api.document_schema())
     return 0

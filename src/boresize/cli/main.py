@@ -31,8 +31,14 @@ def build_parser() -> argparse.ArgumentParser:
     sub = parser.add_subparsers(dest="command", metavar="COMMAND")
     size = sub.add_parser("size", help="size (or check) the lines of a line list, or one line from options",
                           epilog=CAUTION_SHORT)
-    size.add_argument("lines", nargs="?", help="line list: CSV, XLSX or TOML, or - for CSV on standard input "
+    size.add_argument("lines", nargs="?", help="line list: CSV, XLSX or TOML, or - to read it from standard input "
                                                "(omit to give one line with the options below)")
+    size.add_argument("--format", choices=("csv", "toml", "xlsx"),
+                      help="the format of the line list on standard input (-); default: sniffed (a zip is XLSX, "
+                           "text starting with [ is TOML, else CSV)")
+    size.add_argument("--quiet", "-q", action="store_true",
+                      help="no table and no summary; stderr keeps errors and one line of caution (screening "
+                           "calculations); the exit code says pass (0) or fail/error (1)")
     size.add_argument("--criteria", metavar="FILE.toml", help="criteria sets and pipe classes to use")
     size.add_argument("--json", action="store_true", help="print one JSON document instead of the table")
     size.add_argument("--no-plugins", action="store_true", help="use only boresize's built-in plugins")
@@ -47,6 +53,7 @@ def build_parser() -> argparse.ArgumentParser:
     pipes.add_argument("--criteria", metavar="FILE.toml", help="a criteria file whose pipe classes to list")
     pipes.add_argument("--nps", help="show every schedule of this NPS (ASME B36.10M / B36.19M)")
     pipes.add_argument("--no-plugins", action="store_true", help="use only boresize's built-in plugins")
+    sub.add_parser("schema", help="print the JSON Schema (draft 2020-12) of the results document (--json, .json)")
     _add_diff(sub.add_parser("diff", help="compare two revisions: result JSON files, or line lists (sized first)",
                              epilog="Exit code 0 when nothing changed, 1 when something did, 2 for a usage error."))
     return parser

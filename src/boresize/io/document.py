@@ -15,7 +15,7 @@ from typing import Any
 from boresize import __version__
 from boresize.model import CandidateResult, LineResult, Verdict, bare_pressure_count
 
-__all__ = ["CAUTION", "document", "dumps_strict", "result_to_dict", "verdict_to_dict", "candidate_to_dict"]
+__all__ = ["CAUTION", "SCHEMA_VERSION", "document", "document_schema", "dumps_strict", "result_to_dict", "verdict_to_dict", "candidate_to_dict"]
 
 CAUTION = (
     "boresize results are screening calculations. They must be checked by a competent engineer against the "
@@ -23,8 +23,25 @@ CAUTION = (
 )
 
 
+SCHEMA_VERSION = "1.0"
+"""The document's ``schema_version``: the major number changes when a key is removed or changes meaning, the minor
+number when one is added. The schema itself ships as ``boresize/schema/document.schema.json``."""
+
+
+def document_schema() -> dict[str, Any]:
+    """The JSON Schema (draft 2020-12) of the document, as shipped in the package (``boresize schema``)."""
+    from importlib.resources import files
+
+    text = files("boresize").joinpath("schema", "document.schema.json").read_text(encoding="utf-8")
+    schema: dict[str, Any] = json.loads(text)
+    return schema
+
+
 def _r(value: float | None, digits: int = 6) -> float | None:
-    """Round to ``digits`` significant figures so that the JSON reads well and compares byte for byte."""
+    """Round to ``digits`` significant figures so that the JSON reads well and compares byte for byte.
+
+    The rule of the whole document (the schema's description and README's "JSON document" say it too): physical
+    quantities to 6 significant figures, utilisation (and headroom percentages) to 4."""
     if value is None:
         return None
     return float(f"{value:.{digits}g}")
@@ -143,6 +160,7 @@ def document(results: Sequence[LineResult], *, criteria_source: str, lines_sourc
     """
     counts = {status: sum(1 for r in results if r.status == status) for status in ("pass", "fail", "error")}
     doc: dict[str, Any] = {
+        "schema_version": SCHEMA_VERSION,
         "boresize_version": __version__,
         "lines_source": lines_source,
         "criteria_source": criteria_source,
