@@ -29,6 +29,7 @@ from boresize.errors import (
     CatalogueError,
     CriteriaFileError,
     InputError,
+    MissingModuleError,
     PluginError,
     PropertyError,
     UnitError,
@@ -85,4 +86,5 @@ __all__ = [
     "CatalogueError",
     "PropertyError",
     "PluginError",
+    "MissingModuleError",
 ]
