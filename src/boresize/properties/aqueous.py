@@ -28,6 +28,7 @@ from __future__ import annotations
 import functools
 import math
 import threading
+from collections.abc import Sequence
 from dataclasses import dataclass
 from typing import Any
 
@@ -37,7 +38,8 @@ from boresize.properties.base import ZERO_CELSIUS, check_plausible, describe_con
 from boresize.properties.composition import Basis, basis_of, parse_composition
 from boresize.properties.saturation import refuse_quality
 
-__all__ = ["AqueousBackend", "SOLUTIONS", "Solution", "WATER_CAS"]
+__all__ = ["AqueousBackend", "SOLUTIONS", "Solution", "WATER_CAS", "check_liquid_inputs", "unifac_bubble_pressure",
+           "unifac_liquid"]
 
 WATER_CAS = "7732-18-5"
 #: CoolProp incompressible code -> (solute CAS number, solute name). CAS registry numbers (from memory;
@@ -154,14 +156,7 @@ class AqueousBackend:
         :raises PropertyError: a fraction or temperature outside the correlation's range, or a pressure
             below the bubble pressure
         """
-        refuse_quality(line, self.id)
-        if line.eos and line.eos.strip():
-            raise InputError(f"the aqueous backend has no equation of state {line.eos!r}", field="eos",
-                             value=line.eos, expected="eos left blank (backend thermo offers cubic EOS)")
-        for field, value in (("pressure", pressure), ("temperature", temperature)):
-            if not (math.isfinite(value) and value > 0.0):
-                raise InputError(f"{value:g} is not above zero", field=field, value=value,
-                                 expected=f"an absolute {field} above zero")
+        check_liquid_inputs(line, self.id, pressure, temperature)
         solution = solution_of(line.fluid, basis_of(line.extra))
         if solution is None:
             raise InputError(f"{line.fluid!r} is not water with one of {', '.join(n for _, n in SOLUTIONS.values())}",
@@ -173,8 +168,7 @@ class AqueousBackend:
     def bubble_pressure(self, solution: Solution, temperature: float) -> float:
         """Bubble pressure [Pa abs] of ``solution`` at ``temperature`` [K] (modified UNIFAC, ideal gas)."""
         with self._lock:
-            liquid = self._liquid(solution.code).to(T=temperature, P=101325.0, zs=list(solution.zs))
-            return math.fsum(z * g * p for z, g, p in zip(solution.zs, liquid.gammas(), liquid.Psats()))
+            return unifac_bubble_pressure(self._liquid(solution.code), solution.zs, temperature)
 
     # --- internals -----------------------------------------------------------------------------
     def _state(self, solution: Solution, pressure: float, temperature: float) -> FluidState:
@@ -240,16 +234,11 @@ class AqueousBackend:
         """thermo's GibbsExcessLiquid of water + the solute with modified UNIFAC (built once per solute)."""
         liquid = self._liquids.get(code)
         if liquid is None:
-            from thermo import GibbsExcessLiquid, VaporPressure
-            from thermo.unifac import DOUFIP2016, DOUFSG, UNIFAC, UNIFAC_group_assignment_DDBST
+            from thermo.unifac import UNIFAC_group_assignment_DDBST
 
             cas = (WATER_CAS, SOLUTIONS[code][0])
             groups = [UNIFAC_group_assignment_DDBST(c, "MODIFIED_UNIFAC") or dict(_GLYCEROL_GROUPS) for c in cas]
-            model = UNIFAC.from_subgroups(T=298.15, xs=[0.5, 0.5], chemgroups=groups, version=1,
-                                          interaction_data=DOUFIP2016, subgroups=DOUFSG)
-            pressures = [VaporPressure(CASRN=c) for c in cas]
-            liquid = self._liquids[code] = GibbsExcessLiquid(VaporPressures=pressures, GibbsExcessModel=model,
-                                                             T=298.15, P=101325.0, zs=[0.5, 0.5])
+            liquid = self._liquids[code] = unifac_liquid(cas, groups)
         return liquid
 
     def _vapour_methods(self, code: str) -> str:
@@ -260,3 +249,38 @@ class AqueousBackend:
 
 def _celsius(kelvin: float) -> str:
     return f"{kelvin - ZERO_CELSIUS:.4g}"
+
+
+def check_liquid_inputs(line: Line, backend: str, pressure: float, temperature: float) -> None:
+    """The refusals both aqueous backends share: a quality, an ``eos``, a pressure or temperature not above zero.
+
+    :raises InputError: naming the field, the value and what was expected
+    """
+    refuse_quality(line, backend)
+    if line.eos and line.eos.strip():
+        raise InputError(f"the {backend} backend has no equation of state {line.eos!r}", field="eos",
+                         value=line.eos, expected="eos left blank (backend thermo offers cubic EOS)")
+    for field, value in (("pressure", pressure), ("temperature", temperature)):
+        if not (math.isfinite(value) and value > 0.0):
+            raise InputError(f"{value:g} is not above zero", field=field, value=value,
+                             expected=f"an absolute {field} above zero")
+
+
+def unifac_liquid(cas: Sequence[str], groups: Sequence[dict[int, int]]) -> Any:
+    """thermo's GibbsExcessLiquid of the components ``cas`` with modified UNIFAC (Dortmund, DOUFIP2016), their
+    subgroups ``groups`` and thermo's vapour-pressure correlations."""
+    from thermo import GibbsExcessLiquid, VaporPressure
+    from thermo.unifac import DOUFIP2016, DOUFSG, UNIFAC
+
+    xs = [1.0 / len(cas)] * len(cas)
+    model = UNIFAC.from_subgroups(T=298.15, xs=xs, chemgroups=list(groups), version=1,
+                                  interaction_data=DOUFIP2016, subgroups=DOUFSG)
+    pressures = [VaporPressure(CASRN=c) for c in cas]
+    return GibbsExcessLiquid(VaporPressures=pressures, GibbsExcessModel=model, T=298.15, P=101325.0, zs=xs)
+
+
+def unifac_bubble_pressure(liquid: Any, zs: Sequence[float], temperature: float) -> float:
+    """Bubble pressure [Pa abs] at ``temperature`` [K] of the liquid of mole fractions ``zs``: sum z_i gamma_i
+    Psat_i (modified Raoult's law, ideal gas)."""
+    state = liquid.to(T=temperature, P=101325.0, zs=list(zs))
+    return math.fsum(z * g * p for z, g, p in zip(zs, state.gammas(), state.Psats()))

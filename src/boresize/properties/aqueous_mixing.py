@@ -43,10 +43,18 @@ from typing import Any
 
 from boresize.errors import InputError, PropertyError
 from boresize.model import FluidState, Line
-from boresize.properties.aqueous import _EOS, _GLYCEROL_GROUPS, SOLUTIONS, WATER_CAS
+from boresize.properties.aqueous import (
+    _EOS,
+    _GLYCEROL_GROUPS,
+    SOLUTIONS,
+    WATER_CAS,
+    _celsius,
+    check_liquid_inputs,
+    unifac_bubble_pressure,
+    unifac_liquid,
+)
 from boresize.properties.base import ZERO_CELSIUS, check_plausible, describe_conditions, is_mixture
 from boresize.properties.composition import Basis, basis_of, parse_composition
-from boresize.properties.saturation import refuse_quality
 
 __all__ = ["AqueousMixingBackend", "MixedSolution", "SOLUTES", "mixed_solution_of"]
 
@@ -167,14 +175,7 @@ class AqueousMixingBackend:
         :raises PropertyError: a temperature outside the range, a solute pair without UNIFAC parameters, or a
             pressure below the bubble pressure
         """
-        refuse_quality(line, self.id)
-        if line.eos and line.eos.strip():
-            raise InputError(f"the aqueous-mixing backend has no equation of state {line.eos!r}", field="eos",
-                             value=line.eos, expected="eos left blank (backend thermo offers cubic EOS)")
-        for field, value in (("pressure", pressure), ("temperature", temperature)):
-            if not (math.isfinite(value) and value > 0.0):
-                raise InputError(f"{value:g} is not above zero", field=field, value=value,
-                                 expected=f"an absolute {field} above zero")
+        check_liquid_inputs(line, self.id, pressure, temperature)
         solution = mixed_solution_of(line.fluid, basis_of(line.extra), named=True)
         if solution is None:
             raise InputError(f"{line.fluid!r} is not water with {', '.join(sorted(set(SOLUTES.values())))}",
@@ -185,8 +186,7 @@ class AqueousMixingBackend:
     def bubble_pressure(self, solution: MixedSolution, temperature: float) -> float:
         """Bubble pressure [Pa abs] of ``solution`` at ``temperature`` [K] (modified UNIFAC, ideal gas)."""
         with self._lock:
-            liquid = self._liquid(solution.cas).to(T=temperature, P=101325.0, zs=list(solution.zs))
-            return math.fsum(z * g * p for z, g, p in zip(solution.zs, liquid.gammas(), liquid.Psats()))
+            return unifac_bubble_pressure(self._liquid(solution.cas), solution.zs, temperature)
 
     def liquid_properties(self, solution: MixedSolution, temperature: float) -> tuple[float, float]:
         """Density [kg/m3] (Amagat) and viscosity [Pa s] (log-mass-fraction mixing) at ``temperature`` [K]."""
@@ -315,15 +315,7 @@ class AqueousMixingBackend:
         """thermo's GibbsExcessLiquid of the components with modified UNIFAC (built once per set)."""
         liquid = self._liquids.get(cas)
         if liquid is None:
-            from thermo import GibbsExcessLiquid, VaporPressure
-            from thermo.unifac import DOUFIP2016, DOUFSG, UNIFAC
-
-            xs = [1.0 / len(cas)] * len(cas)
-            model = UNIFAC.from_subgroups(T=298.15, xs=xs, chemgroups=[self._groups(c) for c in cas], version=1,
-                                          interaction_data=DOUFIP2016, subgroups=DOUFSG)
-            pressures = [VaporPressure(CASRN=c) for c in cas]
-            liquid = self._liquids[cas] = GibbsExcessLiquid(VaporPressures=pressures, GibbsExcessModel=model,
-                                                            T=298.15, P=101325.0, zs=xs)
+            liquid = self._liquids[cas] = unifac_liquid(cas, [self._groups(c) for c in cas])
         return liquid
 
 
@@ -345,7 +337,4 @@ def _mdea_volume(temperature: float) -> float:
     tc, scale, z_ra = _mdea_rackett()
     return float(scale * z_ra ** (1.0 + (1.0 - min(temperature / tc, 1.0)) ** (2.0 / 7.0)))
 
-
-def _celsius(kelvin: float) -> str:
-    return f"{kelvin - ZERO_CELSIUS:.4g}"
 
