@@ -20,6 +20,7 @@ __all__ = [
     "FluidState",
     "Candidate",
     "Hydraulics",
+    "TwoPhaseFlow",
     "Verdict",
     "CandidateResult",
     "LineResult",
@@ -118,6 +119,8 @@ class Line:
     :param quality: vapour mass fraction at the inlet [-] of a saturated pure fluid (1 saturated vapour,
         0 saturated liquid), or None; with it the pressure alone fixes the state and ``temperature`` is the
         saturation temperature at ``pressure`` (:func:`boresize.properties.saturated_line.saturated_line`)
+    :param two_phase_method: the two-phase pressure-drop correlation asked for (as the fluids library names it,
+        e.g. "Beggs-Brill"), None for the service's or the default
     :param bare_pressures: the pressure fields given in a bare unit (``9 psi``) and how each was read
     """
 
@@ -133,7 +136,7 @@ class Line:
     density: float | None = None
     viscosity: float | None = None
     design_margin: float | None = None
-    phase: Literal["liquid", "gas"] | None = None
+    phase: Literal["liquid", "gas", "two-phase"] | None = None
     backend: str | None = None
     eos: str | None = None
     elevation: float = 0.0
@@ -153,6 +156,7 @@ class Line:
     quality: float | None = None
     #: each pressure field given in a bare unit (``9 psi``: neither gauge nor absolute) and how it was read
     bare_pressures: tuple[BareReading, ...] = ()
+    two_phase_method: str | None = None
 
 
 @dataclass(frozen=True)
@@ -180,6 +184,12 @@ class FluidState:
     :param family: the fluid family the model was chosen for ("pure fluid", "natural gas", "aqueous solution",
         "hydrocarbon mixture", "given values", ...), None where the backend does not say
     :param validity: the chosen model's validity range as text ("90-450 K, up to 35 MPa"), None where not known
+    :param liquid_density: of a two-phase state, the liquid phase's density [kg/m3] (``density`` is then the
+        no-slip mixture's, 1/rho = x/rho_g + (1 - x)/rho_l); None for a single-phase state
+    :param gas_density: of a two-phase state, the vapour phase's density [kg/m3]
+    :param liquid_viscosity: of a two-phase state, the liquid phase's dynamic viscosity [Pa s]
+    :param gas_viscosity: of a two-phase state, the vapour phase's dynamic viscosity [Pa s]
+    :param surface_tension: of a two-phase state, the gas-liquid surface tension [N/m], None where not known
     """
 
     density: float
@@ -203,6 +213,11 @@ class FluidState:
     saturation_temperature: float | None = None
     family: str | None = None
     validity: str | None = None
+    liquid_density: float | None = None
+    gas_density: float | None = None
+    liquid_viscosity: float | None = None
+    gas_viscosity: float | None = None
+    surface_tension: float | None = None
 
 
 @dataclass(frozen=True)
@@ -224,6 +239,50 @@ class Candidate:
     inside_diameter: float
     roughness: float
     pipe_class: str = "default"
+
+
+@dataclass(frozen=True)
+class TwoPhaseFlow:
+    """The two-phase part of one candidate's hydraulics (all SI); ``Hydraulics.two_phase`` holds it.
+
+    :param method: the pressure-drop correlation as the fluids library names it ("Beggs-Brill", "Friedel"...)
+    :param vapour_fraction: vapour mass fraction at the inlet [-]
+    :param flow_regime: the flow regime at the inlet as the map names it ("stratified smooth", "slug"...)
+    :param regime_map: the published map the regime comes from ("Taitel-Dukler", "Mandhane-Gregory-Aziz")
+    :param liquid_holdup: in-situ liquid volume fraction from the correlation [-] (the elevation term uses it),
+        None where the correlation gives none
+    :param superficial_liquid_velocity: m (1 - x) / (rho_l A) [m/s]
+    :param superficial_gas_velocity: m x / (rho_g A) [m/s]
+    :param mixture_velocity: the sum of the superficial velocities [m/s] (``Hydraulics.velocity`` too)
+    :param mixture_density: the no-slip mixture density [kg/m3] the erosional limit uses
+    :param liquid_density: [kg/m3]; :param gas_density: [kg/m3]; :param liquid_viscosity: [Pa s];
+        :param gas_viscosity: [Pa s]; :param surface_tension: [N/m] (the inlet's, as the correlation used them)
+    :param fittings_method: how the fittings' two-phase drop was found (a named multiplier method)
+    :param segments: the number of segments the line was marched in (1: rated at inlet properties)
+    :param outlet_vapour_fraction: vapour mass fraction at the line end after the flash along it, None when
+        the line was not re-flashed
+    :param flash_point: distance from the inlet [m] at which a liquid line reached its bubble pressure and
+        became two-phase (a letdown line), None otherwise
+    """
+
+    method: str
+    vapour_fraction: float
+    flow_regime: str
+    regime_map: str
+    liquid_holdup: float | None
+    superficial_liquid_velocity: float
+    superficial_gas_velocity: float
+    mixture_velocity: float
+    mixture_density: float
+    liquid_density: float
+    gas_density: float
+    liquid_viscosity: float
+    gas_viscosity: float
+    surface_tension: float | None = None
+    fittings_method: str = ""
+    segments: int = 1
+    outlet_vapour_fraction: float | None = None
+    flash_point: float | None = None
 
 
 @dataclass(frozen=True)
@@ -251,6 +310,8 @@ class Hydraulics:
         line rated with one density (liquids, and gas lines within the simple method's limit), whose
         ``velocity`` holds all along. The velocity-type criteria judge this point.
     :param peak_mach: the highest Mach number along a marched gas line [-], at ``peak_mach_position`` [m]
+    :param two_phase: the two-phase details of a two-phase line (flow regime, holdup, superficial velocities,
+        each phase's properties), None for a single-phase line
     """
 
     mass_flow: float
@@ -281,6 +342,7 @@ class Hydraulics:
     peak_position: float | None = None  # that point's distance from the inlet [m] (a marched line)
     peak_mach: float | None = None  # highest Mach number along a marched line [-], None when not marched or no c
     peak_mach_position: float | None = None  # that point's distance from the inlet [m]
+    two_phase: TwoPhaseFlow | None = None
 
 
 @dataclass(frozen=True)

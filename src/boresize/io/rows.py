@@ -280,6 +280,7 @@ def line_from_row(row: Mapping[str, object], units: Mapping[str, str | None] | N
             extra=tuple((k, str(v)) for k, v in row.items() if k not in _COLUMN_SET and v not in (None, "")),
             quality=quality,
             bare_pressures=(*bare, *notes),
+            two_phase_method=None,  # not read from the line list yet
         )
         if quality is None:
             return line
