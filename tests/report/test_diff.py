@@ -122,3 +122,90 @@ def test_old_size_of_p002_fails_the_drop_limit_at_the_new_maximum_flow(revisions
     drop = friction_factor(Re=rho * v * di / mu, eD=4.5e-5 / di) / di * rho * v**2 / 2 / 10.0  # kPa/100 m
     assert drop > limit
     assert next(line for line in new["lines"] if line["tag"] == "140-P-002")["nps"] != entry["nps"]
+
+
+# --- changed inputs, also where the size held (issue 17) ------------------------------------------------------
+
+OLD_LIST = """tag,fluid,flow,pressure,temperature,length [m],service,case
+W-1,water,40 t/h,5 barg,30 degC,100,liquid,
+W-2,water,20 t/h,5 barg,30 degC,100,liquid,
+W-3,water,20 t/h,5 barg,30 degC,100,liquid,
+W-4,water,20 t/h,5 barg,30 degC,100,liquid,normal
+W-4,water,30 t/h,5 barg,30 degC,100,liquid,maximum
+W-5,water,20 t/h,5 barg,30 degC,100,liquid,
+"""
+# W-1 flow +25 %; W-2 temperature and length; W-3 the same; W-4 the maximum case's pressure; W-5 renamed W-6;
+# a new column (roughness) that only W-2 fills.
+NEW_LIST = """tag,fluid,flow,pressure,temperature,length [m],service,case,roughness
+W-1,water,50 t/h,5 barg,30 degC,100,liquid,,
+W-2,water,20 t/h,5 barg,40 degC,120,liquid,,0.05 mm
+W-3,water,20 t/h,5 barg,30 degC,100,liquid,,
+W-4,water,20 t/h,5 barg,30 degC,100,liquid,normal,
+W-4,water,30 t/h,6 barg,30 degC,100,liquid,maximum,
+W-6,water,20 t/h,5 barg,30 degC,100,liquid,,
+"""
+
+
+@pytest.fixture(scope="module")
+def known_lists(tmp_path_factory) -> tuple[Path, Path]:
+    folder = tmp_path_factory.mktemp("known")
+    (folder / "old.csv").write_text(OLD_LIST, encoding="utf-8")
+    (folder / "new.csv").write_text(NEW_LIST, encoding="utf-8")
+    return folder / "old.csv", folder / "new.csv"
+
+
+def test_diff_lists_every_changed_input_also_where_the_size_held(known_lists, capsys):
+    old, new = known_lists
+    code = main(["diff", str(old), str(new), "--no-plugins", "--json"])
+    report = json.loads(capsys.readouterr().out)
+    assert code == 1
+    assert (report["added"], report["removed"]) == (["W-6"], ["W-5"])
+    inputs = {item["tag"]: [(c["field"], c["old"], c["new"]) for c in item["inputs"]]
+              for item in report["inputs_changed"]}
+    assert inputs == {
+        "W-1": [("flow", "40 t/h", "50 t/h")],
+        "W-2": [("temperature", "30 degC", "40 degC"), ("length", "100", "120"), ("roughness", None, "0.05 mm")],
+        "W-4": [("maximum/pressure", "5 barg", "6 barg")],
+    }
+    # 40 -> 50 t/h of water keeps its size (the issue's case: a 25 % rise once counted as "unchanged")
+    assert report["size_changed"] == [] and report["changes"] == []
+    assert report["size_held_inputs_changed"] == ["W-1", "W-2", "W-4"]
+    assert report["unchanged"] == 1  # W-3 alone
+    main(["diff", str(old), str(new), "--no-plugins"])
+    text = capsys.readouterr().out
+    assert "  W-1 (size held): flow 40 t/h -> 50 t/h\n" in text
+    assert "  W-2 (size held): temperature 30 degC -> 40 degC; length 100 -> 120; roughness (none) -> 0.05 mm" in text
+    assert "3 line(s) kept their size though inputs changed: W-1, W-2, W-4" in text
+    assert "1 line(s) unchanged" in text
+
+
+def test_size_held_with_inputs_changed_is_counted_apart_from_unchanged():
+    old = {"lines": [_entry("A", "4", input={"tag": "A", "flow": "10 t/h", "fluid": "water"}),
+                     _entry("B", "4", input={"tag": "B", "flow": "10 t/h"})]}
+    new = {"lines": [_entry("A", "4", input={"tag": "A", "flow": "12.5 t/h", "fluid": "water"}),
+                     _entry("B", "4", input={"tag": "B", "flow": "10 t/h"})]}
+    diff = compare(old, new)
+    assert (diff.unchanged, diff.held, diff.changes) == (1, ["A"], [])
+    assert [c.text() for c in diff.inputs] == ["flow 10 t/h -> 12.5 t/h"]
+    assert not diff.empty
+    assert diff.to_dict()["inputs_changed"] == [
+        {"tag": "A", "size_held": True, "inputs": [{"field": "flow", "old": "10 t/h", "new": "12.5 t/h"}]}]
+
+
+def test_documents_without_input_cells_are_compared_on_resolved_values():
+    old = {"lines": [_entry("A", "4", fluid="water", sizing_mass_flow_kg_h=1000.0, service="liquid")]}
+    new = {"lines": [_entry("A", "4", fluid="water", sizing_mass_flow_kg_h=1250.0, service="pump-discharge")]}
+    diff = compare(old, new)
+    assert [(c.field, c.old, c.new) for c in diff.inputs] == [
+        ("sizing_mass_flow_kg_h", "1000.0", "1250.0"), ("service", "liquid", "pump-discharge")]
+
+
+@pytest.mark.parametrize("lines", [[1], ["x"], [{"nps": "4"}], [{"tag": ""}], [{"tag": 5}]])
+def test_a_document_line_without_a_tag_is_refused_by_name(tmp_path, capsys, lines):
+    good = tmp_path / "good.json"
+    good.write_text(json.dumps({"lines": [_entry("A", "4")]}), encoding="utf-8")
+    bad = tmp_path / "bad.json"
+    bad.write_text(json.dumps({"lines": lines}), encoding="utf-8")
+    assert main(["diff", str(good), str(bad)]) == 2
+    err = capsys.readouterr().err
+    assert "line 1 of 'lines' has no tag" in err and "Traceback" not in err

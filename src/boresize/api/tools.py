@@ -66,6 +66,12 @@ def read_revision(path: str | Path, *, criteria: str | Path | None = None, plugi
     if not isinstance(doc, dict) or not isinstance(doc.get("lines"), list):
         raise InputError(f"{path} is not a boresize results document (no 'lines' list)", field="revision",
                          value=str(path), expected="the JSON of 'boresize size --json'")
+    for number, entry in enumerate(doc["lines"], start=1):
+        if not isinstance(entry, dict) or not isinstance(entry.get("tag"), str) or not entry["tag"]:
+            shown = str(entry.get("tag") if isinstance(entry, dict) else entry)[:60]
+            raise InputError(f"{path}: line {number} of 'lines' has no tag ({shown!r})", field="revision",
+                             value=shown, expected="each line an object with its tag, as 'boresize size --json' "
+                             "writes")
     return doc
 
 

@@ -5,6 +5,11 @@ that is sized first. Lines are matched by tag (a repeated tag without cases by i
 line has changed when its size (NPS and schedule), its status, its governing case, or the status of
 a criterion at the selected size differs; the reason names the inputs that changed and, for a size
 change, why the old size no longer serves (or why a smaller one now does).
+
+Every line's changed inputs are listed too, old -> new, field by field (``case/field`` for a case's row),
+also where the size held: a line whose flow rose 25 % but kept its size is counted apart ("size held, inputs
+changed"), never among the unchanged. The inputs are the line list's cells as given (the document's
+``input``); a document without them is compared on its resolved values (fluid, flow, pressure, ...).
 """
 
 from __future__ import annotations
@@ -13,7 +18,7 @@ from collections.abc import Mapping, Sequence
 from dataclasses import asdict, dataclass, field
 from typing import Any, Literal
 
-__all__ = ["Change", "Diff", "compare", "render_diff"]
+__all__ = ["Change", "Diff", "InputChange", "compare", "render_diff"]
 
 ChangeKind = Literal["size", "status", "governing-case", "verdict"]
 Entry = Mapping[str, Any]
@@ -30,14 +35,31 @@ class Change:
     reason: str
 
 
+@dataclass(frozen=True)
+class InputChange:
+    """One input of one line that changed: ``field`` (``case/field`` for a case's row), ``old`` -> ``new``
+    (``None`` where the other revision has no such cell)."""
+
+    tag: str
+    field: str
+    old: str | None
+    new: str | None
+
+    def text(self) -> str:
+        return f"{self.field} {self.old or '(none)'} -> {self.new or '(none)'}"
+
+
 @dataclass
 class Diff:
-    """Lines added and removed (tags), and the changes of the lines present in both, in the new order."""
+    """Lines added and removed (tags), the changes of the lines present in both, in the new order, and every
+    changed input of those lines (``inputs``); ``held`` names the lines whose size held though inputs changed."""
 
     added: list[str] = field(default_factory=list)
     removed: list[str] = field(default_factory=list)
     changes: list[Change] = field(default_factory=list)
     unchanged: int = 0
+    inputs: list[InputChange] = field(default_factory=list)
+    held: list[str] = field(default_factory=list)
 
     def tags(self, kind: ChangeKind) -> list[str]:
         """Tags of the lines with a change of ``kind`` (e.g. ``"size"``), in order."""
@@ -45,11 +67,20 @@ class Diff:
 
     @property
     def empty(self) -> bool:
-        return not (self.added or self.removed or self.changes)
+        return not (self.added or self.removed or self.changes or self.inputs)
+
+    def input_tags(self) -> list[str]:
+        """Tags of the lines with a changed input, in order."""
+        return list(dict.fromkeys(c.tag for c in self.inputs))
 
     def to_dict(self) -> dict[str, Any]:
         return {"added": self.added, "removed": self.removed, "unchanged": self.unchanged,
-                "size_changed": self.tags("size"), "changes": [asdict(c) for c in self.changes]}
+                "size_changed": self.tags("size"), "size_held_inputs_changed": self.held,
+                "changes": [asdict(c) for c in self.changes],
+                "inputs_changed": [{"tag": tag, "size_held": tag in self.held,
+                                    "inputs": [{"field": c.field, "old": c.old, "new": c.new}
+                                               for c in self.inputs if c.tag == tag]}
+                                   for tag in self.input_tags()]}
 
 
 def _keyed(lines: Sequence[Entry]) -> dict[tuple[str, int], Entry]:
@@ -66,20 +97,38 @@ def _size(entry: Entry) -> str | None:
     return f"NPS {entry['nps']} Sch {entry.get('schedule')}" if entry.get("nps") else None
 
 
+#: resolved values compared when a document carries no input cells (an older or hand-made document)
+RESOLVED = ("fluid", "sizing_mass_flow_kg_h", "pressure_bar_abs", "temperature_c", "length_m", "service",
+            "pipe_class", "design_margin", "roughness_mm", "phase")
+
+
+def _cells(source: Any, prefix: str) -> dict[str, str]:
+    if not isinstance(source, Mapping):
+        return {}
+    return {f"{prefix}{k}": "" if v is None else str(v) for k, v in source.items() if k not in ("tag", "case")}
+
+
 def _inputs(entry: Entry) -> dict[str, str]:
-    """Input cells by ``case/field`` (the line's own row, or each case's row)."""
-    cells = {f"{k}": str(v) for k, v in (entry.get("input") or {}).items()}
-    for case in entry.get("cases") or ():
-        name = case.get("case") or "?"
-        cells.update({f"{name}/{k}": str(v) for k, v in (case.get("input") or {}).items()})
+    """Input cells by ``case/field`` (the line's own row, or each case's row); the resolved values if none."""
+    cells = _cells(entry.get("input"), "")
+    cases = entry.get("cases")
+    for case in cases if isinstance(cases, list) else ():
+        if isinstance(case, Mapping):
+            cells.update(_cells(case.get("input"), f"{case.get('case') or '?'}/"))
     return cells
 
 
-def _input_changes(old: Entry, new: Entry) -> str:
+def input_changes(tag: str, old: Entry, new: Entry) -> list[InputChange]:
+    """The inputs of one line that differ between two revisions, in the order of the fields."""
     a, b = _inputs(old), _inputs(new)
-    moved = [f"{k} {a.get(k) or '(none)'} -> {b.get(k) or '(none)'}" for k in dict.fromkeys([*a, *b])
-             if k not in ("tag",) and a.get(k, "") != b.get(k, "")]
-    return "; ".join(moved) if moved else "no input changed (criteria or software changed)"
+    if not a and not b:
+        a, b = ({k: str(e[k]) for k in RESOLVED if e.get(k) is not None} for e in (old, new))
+    return [InputChange(tag, k, a.get(k) or None, b.get(k) or None) for k in dict.fromkeys([*a, *b])
+            if a.get(k, "") != b.get(k, "")]
+
+
+def _input_text(moved: Sequence[InputChange]) -> str:
+    return "; ".join(c.text() for c in moved) if moved else "no input changed (criteria or software changed)"
 
 
 def _why_size(old: Entry, new: Entry) -> str:
@@ -111,8 +160,8 @@ def _verdicts(entry: Entry) -> dict[str, str]:
     return {str(v.get("criterion")): str(v.get("status")) for v in entry.get("verdicts") or ()}
 
 
-def _line_changes(tag: str, old: Entry, new: Entry) -> list[Change]:
-    inputs = _input_changes(old, new)
+def _line_changes(tag: str, old: Entry, new: Entry, moved: Sequence[InputChange]) -> list[Change]:
+    inputs = _input_text(moved)
     changes = []
     if _size(old) != _size(new):
         changes.append(Change(tag, "size", _size(old), _size(new), f"{inputs}; {_why_size(old, new)}"))
@@ -122,9 +171,9 @@ def _line_changes(tag: str, old: Entry, new: Entry) -> list[Change]:
     if (old.get("cases") or new.get("cases")) and old.get("case") != new.get("case"):
         changes.append(Change(tag, "governing-case", old.get("case"), new.get("case"), inputs))
     a, b = _verdicts(old), _verdicts(new)
-    moved = [f"{c} {a.get(c, '-')} -> {b.get(c, '-')}" for c in dict.fromkeys([*a, *b]) if a.get(c) != b.get(c)]
-    if moved and _size(old) == _size(new):
-        changes.append(Change(tag, "verdict", None, None, f"{'; '.join(moved)} ({inputs})"))
+    flipped = [f"{c} {a.get(c, '-')} -> {b.get(c, '-')}" for c in dict.fromkeys([*a, *b]) if a.get(c) != b.get(c)]
+    if flipped and _size(old) == _size(new):
+        changes.append(Change(tag, "verdict", None, None, f"{'; '.join(flipped)} ({inputs})"))
     return changes
 
 
@@ -134,9 +183,13 @@ def compare(old: Mapping[str, Any], new: Mapping[str, Any]) -> Diff:
     diff = Diff(added=[k[0] for k in after if k not in before], removed=[k[0] for k in before if k not in after])
     for key, entry in after.items():
         if key in before:
-            found = _line_changes(key[0], before[key], entry)
+            moved = input_changes(key[0], before[key], entry)
+            found = _line_changes(key[0], before[key], entry, moved)
             diff.changes += found
-            diff.unchanged += not found
+            diff.inputs += moved
+            if moved and _size(before[key]) == _size(entry):
+                diff.held.append(key[0])
+            diff.unchanged += not (found or moved)
     return diff
 
 
@@ -156,5 +209,14 @@ def render_diff(diff: Diff, old_name: str, new_name: str) -> str:
             for c in found:
                 move = f"{c.old} -> {c.new}: " if c.old is not None or c.new is not None else ""
                 out.append(f"  {c.tag}: {move}{c.reason}")
-    out.append(f"{diff.unchanged} line(s) unchanged" + ("; no differences" if diff.empty else ""))
+    tags = diff.input_tags()
+    if tags:
+        out.append(f"inputs changed ({len(tags)}):")
+        for tag in tags:
+            held = " (size held)" if tag in diff.held else ""
+            out.append(f"  {tag}{held}: {_input_text([c for c in diff.inputs if c.tag == tag])}")
+    out.append(f"{len(diff.held)} line(s) kept their size though inputs changed"
+               + (f": {', '.join(diff.held)}" if diff.held else ""))
+    out.append(f"{diff.unchanged} line(s) unchanged (no input, size, status or verdict changed)"
+               + ("; no differences" if diff.empty else ""))
     return "\n".join(out) + "\n"
