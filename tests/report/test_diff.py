@@ -209,3 +209,11 @@ def test_a_document_line_without_a_tag_is_refused_by_name(tmp_path, capsys, line
     assert main(["diff", str(good), str(bad)]) == 2
     err = capsys.readouterr().err
     assert "line 1 of 'lines' has no tag" in err and "Traceback" not in err
+
+
+def test_a_repeated_tag_names_its_occurrence_in_the_changed_inputs():
+    old = {"lines": [_entry("A", "4", input={"flow": "1 t/h"}), _entry("A", "4", input={"flow": "2 t/h"})]}
+    new = {"lines": [_entry("A", "4", input={"flow": "1 t/h"}), _entry("A", "4", input={"flow": "3 t/h"})]}
+    diff = compare(old, new)
+    assert (diff.held, diff.unchanged) == (["A (#2)"], 1)
+    assert "  A (#2) (size held): flow 2 t/h -> 3 t/h" in render_diff(diff, "a", "b")

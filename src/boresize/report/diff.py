@@ -183,12 +183,13 @@ def compare(old: Mapping[str, Any], new: Mapping[str, Any]) -> Diff:
     diff = Diff(added=[k[0] for k in after if k not in before], removed=[k[0] for k in before if k not in after])
     for key, entry in after.items():
         if key in before:
-            moved = input_changes(key[0], before[key], entry)
+            shown = key[0] if key[1] == 1 else f"{key[0]} (#{key[1]})"  # a repeated tag: its occurrence
+            moved = input_changes(shown, before[key], entry)
             found = _line_changes(key[0], before[key], entry, moved)
             diff.changes += found
             diff.inputs += moved
             if moved and _size(before[key]) == _size(entry):
-                diff.held.append(key[0])
+                diff.held.append(shown)
             diff.unchanged += not (found or moved)
     return diff
 
