@@ -99,7 +99,7 @@ def test_the_run_writes_every_format(reference: Run, tmp_path: Path) -> None:
     data_rows = sum(1 for _ in csv.DictReader(LINES.open(encoding="utf-8")))
     assert table[0][:len(reference.line_list.headers)] == reference.line_list.headers
     assert len(table) == 1 + data_rows  # a row per input row, cases included
-    assert openpyxl.load_workbook(written[".xlsx"]).sheetnames == ["lines", "candidates"]
+    assert openpyxl.load_workbook(written[".xlsx"]).sheetnames == ["cover", "lines", "candidates"]
     html = written[".html"].read_text(encoding="utf-8")
     HTMLParser().feed(html)
     assert all(r.tag in html for r in reference.results) and reference.line_list.digest in html

@@ -42,7 +42,7 @@ def test_several_outputs_in_one_run(tmp_path, capsys):
     assert doc["traceability"]["lines_sha256"]
     with open(outs[1], encoding="utf-8-sig", newline="") as handle:
         assert sum(1 for _ in csv.reader(handle)) == 1 + 16  # header + one row per input row
-    assert openpyxl.load_workbook(outs[2]).sheetnames == ["lines", "candidates"]
+    assert openpyxl.load_workbook(outs[2]).sheetnames == ["cover", "lines", "candidates"]
     HTMLParser().feed(outs[3].read_text(encoding="utf-8"))
     assert code == (0 if all(line["status"] == "pass" for line in doc["lines"]) else 1)
 

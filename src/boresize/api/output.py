@@ -47,7 +47,7 @@ def _csv(path: Path, run: Run) -> None:
 def _xlsx(path: Path, run: Run) -> None:
     from boresize.io.xlsx import write_xlsx
 
-    write_xlsx(path, run.results, run.line_list.headers or None)
+    write_xlsx(path, run.results, run.line_list.headers or None, trace=run.trace.to_dict())
 
 
 def _html(path: Path, run: Run) -> None:

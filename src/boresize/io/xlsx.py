@@ -4,8 +4,10 @@ Reading: the sheet named ``lines`` if there is one, else the first sheet; the fi
 holds the headers (as in CSV, with optional default units in brackets). Numbers become text as
 Python writes them (an integral value without ``.0``); a formula cell gives its saved value.
 
-Writing: sheet ``lines`` holds the input columns as given and the result columns; sheet
-``candidates`` every rated candidate. Text that a spreadsheet would run as a formula is stored as
+Writing: sheet ``cover`` the screening caution, the document block and traceability; sheet ``lines`` the
+input columns as given, the result columns, and each criterion's value, limit and status at the selected
+size; sheet ``candidates`` every rated candidate (numbers to the JSON document's 6 significant figures). The
+look (number formats, widths, filter, fills, cover) is in :mod:`boresize.io.xlsx_sheet`. Text that a spreadsheet would run as a formula is stored as
 text with the quote-prefix style, never as a formula (:mod:`boresize.io.safety`).
 """
 
@@ -13,13 +15,14 @@ from __future__ import annotations
 
 import datetime
 import zipfile
-from collections.abc import Sequence
+from collections.abc import Mapping, Sequence
 from pathlib import Path
 from typing import Any
 
 from boresize.errors import InputError
-from boresize.io.csv_reader import LineList, file_digest, make_line_list, read_header, surplus_cells
+from boresize.io.csv_reader import RESULT_PREFIX, LineList, file_digest, make_line_list, read_header, surplus_cells
 from boresize.io.rows import BEYOND_HEADER
+from boresize.io.document import _r
 from boresize.io.safety import FORMULA_STARTS, as_number, restore
 from boresize.io.sheet_rows import candidate_rows, result_rows
 from boresize.model import LineResult
@@ -148,8 +151,10 @@ def _put(sheet: Any, row: int, column: int, value: Any, text_cells: bool = True)
     cell.value = value
 
 
-def _fill(sheet: Any, head: Sequence[str], rows: Sequence[Sequence[Any]]) -> None:
+def _fill(sheet: Any, head: Sequence[str], rows: Sequence[Sequence[Any]], formatted: str = "") -> None:
     from openpyxl.styles import Font
+
+    from boresize.io.xlsx_sheet import style_sheet
 
     for column, text in enumerate(head, start=1):
         _put(sheet, 1, column, text, text_cells=False)
@@ -157,19 +162,35 @@ def _fill(sheet: Any, head: Sequence[str], rows: Sequence[Sequence[Any]]) -> Non
     for r, row in enumerate(rows, start=2):
         for column, value in enumerate(row, start=1):
             _put(sheet, r, column, value)
-    sheet.freeze_panes = "B2"
+    style_sheet(sheet, head, formatted=formatted)
 
 
-def write_xlsx(path: str | Path, results: Sequence[LineResult], headers: Sequence[str] | None = None) -> None:
-    """Write sheet ``lines`` (input columns, then results) and sheet ``candidates``."""
+def _rounded(rows: Sequence[Sequence[Any]]) -> list[list[Any]]:
+    """Floats to 6 significant figures, as the JSON document has them (``io/document.py``)."""
+    return [[_r(v) if isinstance(v, float) else v for v in row] for row in rows]
+
+
+def write_xlsx(path: str | Path, results: Sequence[LineResult], headers: Sequence[str] | None = None, *,
+               trace: Mapping[str, Any] | None = None, document: Mapping[str, Any] | None = None) -> None:
+    """Write sheets ``cover`` (caution, document block, traceability ``trace`` as
+    :meth:`~boresize.report.trace.Traceability.to_dict` gives it), ``lines`` (input columns, then results and
+    verdicts) and ``candidates``. ``document``: the document block (project, unit, number, revision, date,
+    prepared, checked, approved, notes), left blank when None."""
     from boresize.optional import needs
 
     with needs(f"the .xlsx workbook {path}"):
         from openpyxl import Workbook
 
+    from boresize.io.xlsx_sheet import verdict_columns, write_cover
+
     book = Workbook()
     lines = book.active
     lines.title = "lines"
-    _fill(lines, *result_rows(results, headers))
-    _fill(book.create_sheet("candidates"), *candidate_rows(results))
+    head, rows = result_rows(results, headers)
+    extra_head, extra = verdict_columns(results)
+    _fill(lines, head + extra_head, [row + more for row, more in zip(rows, extra)], formatted=RESULT_PREFIX)
+    candidates_head, candidates = candidate_rows(results)
+    _fill(book.create_sheet("candidates"), candidates_head, _rounded(candidates))
+    write_cover(book, results, trace, document)
+    book.active = 0
     book.save(path)
