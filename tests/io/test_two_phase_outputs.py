@@ -16,6 +16,7 @@ from pathlib import Path
 import jsonschema
 import openpyxl
 import pytest
+from markupsafe import escape
 
 from boresize import api
 from boresize.io.csv_writer import write_csv
@@ -150,7 +151,7 @@ def test_the_html_page_shows_the_block_and_the_caution_for_a_two_phase_line_only
     assert page.count("Two-phase caution.") == 1 and TWO_PHASE_CAUTION.split(":")[0] in page
     assert "57.5" in page and "mN/m" in page and "12.5" in page
     single = render_html([run.results[0]], trace={}, title="single")
-    assert 'class="two-phase"' not in single and TWO_PHASE_CAUTION not in single
+    assert 'class="two-phase"' not in single and "Two-phase lines carry" not in single
 
 
 def test_the_terminal_table_and_the_run_name_the_caution_when_there_are_two_phase_lines(mixed, run):
@@ -165,3 +166,14 @@ def test_the_terminal_table_and_the_run_name_the_caution_when_there_are_two_phas
 def test_a_case_two_phase_counts_its_line(run):
     line = dataclasses.replace(run.results[0], cases=(run.results[0], two_phase(run.results[1])))
     assert two_phase_count([line]) == 1
+
+
+def test_a_two_phase_state_without_a_rated_size_still_gives_valid_outputs_and_the_caution(run):
+    assert run.results[1].state is not None
+    state = dataclasses.replace(run.results[1].state, phase="two-phase", vapour_fraction=0.5, surface_tension=None)
+    failed = dataclasses.replace(run.results[1], status="error", selected=None, candidates=(), state=state,
+                                 error="TP-1: field flow: no size carries it", error_field="flow")
+    entry = _doc([failed])["lines"][0]  # type: ignore[index]
+    assert entry["phase"] == "two-phase" and entry["surface_tension_mn_m"] is None and "flow_regime" not in entry
+    page = render_html([failed], trace={}, title="error")
+    assert 'class="two-phase"' not in page and str(escape(TWO_PHASE_CAUTION)) in page  # in the cautions list
