@@ -103,6 +103,13 @@ class Run:
         """One line: how many lines were sized or checked, passed, failed and had errors."""
         return summary(self.results)
 
+    def two_phase_caution(self) -> str | None:
+        """The caution on two-phase lines when the run has any (the table prints it itself), else None."""
+        from boresize.io.document import TWO_PHASE_CAUTION, two_phase_count
+
+        count = two_phase_count(self.results)
+        return f"{count} two-phase line{'s' if count > 1 else ''}: {TWO_PHASE_CAUTION}" if count else None
+
     def document(self, timings: bool = False) -> dict[str, Any]:
         """The JSON document (``boresize size --json``), with each line's headroom when asked for.
 

@@ -122,6 +122,9 @@ def run_size(args: argparse.Namespace) -> int:
         print(f"boresize: {run.summary()}", file=sys.stderr)
     else:
         sys.stdout.write(run.table())
+    two_phase = run.two_phase_caution()
+    if two_phase and (args.quiet or args.json):  # the table prints it itself
+        print(f"boresize: caution: {two_phase}", file=sys.stderr)
     if not written:
         return 2
     return 0 if run.passed else 1

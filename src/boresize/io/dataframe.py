@@ -13,7 +13,7 @@ frame's index: the input columns as given, then the result columns, named by :fu
 of the case's JSON entry (:func:`boresize.io.document.result_to_dict`: ``status``, ``nps``, ``velocity_m_s``,
 ``dp_kpa_per_100m`` ...) plus ``line_status`` (the line's own status over its cases) and ``governs`` (the cases
 whose result set the line's size), each with a ``result_`` prefix only where it is also the name of a line-list
-column (``result_nps``, ``result_schedule``, ``result_service``) or of one of the frame's own columns. Read back with :func:`read_dataframe` the result columns are
+column (``result_nps``, ``result_schedule``, ``result_service``, ``result_phase``) or of one of the frame's own columns. Read back with :func:`read_dataframe` the result columns are
 skipped, so a frame goes out and in like a CSV file.
 """
 
@@ -192,7 +192,7 @@ def lines_dataframe(line_list: LineList) -> pd.DataFrame:
 def result_columns(input_headers: Sequence[str]) -> list[str]:
     """The names of the result columns beside ``input_headers``: the JSON keys (module docstring), each with a
     ``result_`` prefix where it is a line-list column's name (``result_nps``, ``result_schedule``,
-    ``result_service``, whether or not the frame has that column) or an input column's."""
+    ``result_service``, ``result_phase``, whether or not the frame has that column) or an input column's."""
     taken = set(COLUMNS) | {parse_header(h).field for h in input_headers} | {str(h).strip() for h in input_headers}
     return [RESULT_PREFIX_SNAKE + key if key in taken else key for key in _RESULT_KEYS]
 

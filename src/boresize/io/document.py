@@ -13,9 +13,9 @@ from collections.abc import Mapping, Sequence
 from typing import Any
 
 from boresize import __version__
-from boresize.model import CandidateResult, LineResult, Verdict, bare_pressure_count
+from boresize.model import CandidateResult, FluidState, LineResult, TwoPhaseFlow, Verdict, bare_pressure_count
 
-__all__ = ["CAUTION", "SCHEMA_VERSION", "document", "document_schema", "dumps_strict", "result_to_dict", "verdict_to_dict", "candidate_to_dict"]
+__all__ = ["CAUTION", "SCHEMA_VERSION", "TWO_PHASE_CAUTION", "two_phase_count", "document", "document_schema", "dumps_strict", "result_to_dict", "verdict_to_dict", "candidate_to_dict"]
 
 CAUTION = (
     "boresize results are screening calculations. They must be checked by a competent engineer against the "
@@ -23,7 +23,26 @@ CAUTION = (
 )
 
 
-SCHEMA_VERSION = "1.0"
+TWO_PHASE_CAUTION = (
+    "Two-phase lines carry large uncertainty: the pressure-drop correlations and flow-regime maps were fitted to "
+    "limited data (Beggs and Brill 1973: air-water tests in 1 and 1.5 in pipe; in later comparisons with field "
+    "data, drop errors of 30 % and more are common - from memory), and a regime near a map's boundary may be the "
+    "other one. Slug flow and surge, and the loads they put on supports, need a specialist's review."
+)
+
+
+def two_phase_count(results: Sequence[LineResult]) -> int:
+    """How many lines are two-phase in any of their cases (a two-phase state, or two-phase hydraulics)."""
+    return sum(1 for r in results if any(_is_two_phase(one) for one in (r, *r.cases)))
+
+
+def _is_two_phase(result: LineResult) -> bool:
+    if result.state is not None and result.state.phase == "two-phase":
+        return True
+    return result.selected is not None and result.selected.hydraulics.two_phase is not None
+
+
+SCHEMA_VERSION = "1.1"
 """The document's ``schema_version``: the major number changes when a key is removed or changes meaning, the minor
 number when one is added. The schema itself ships as ``boresize/schema/document.schema.json``."""
 
@@ -131,6 +150,7 @@ def _record(result: LineResult) -> dict[str, Any]:
                        "bubble_pressure_bar_abs": _bar(state.bubble_pressure),
                        "dew_pressure_bar_abs": _bar(state.dew_pressure),
                        "speed_of_sound_m_s": _r(state.speed_of_sound)})
+        record.update(_phase_properties(state, sel.hydraulics.two_phase if sel else None))
     if sel is not None:
         h = sel.hydraulics
         record.update({
@@ -145,9 +165,45 @@ def _record(result: LineResult) -> dict[str, Any]:
             "acceleration_drop_kpa": _r(h.acceleration_drop / 1e3),
             "fittings_k": _r(h.fittings_k), "fittings_method": h.fittings_method, "drop_method": h.method,
             "first_guess_id_mm": _r(result.first_guess_diameter * 1e3) if result.first_guess_diameter else None,
+            **_two_phase_flow(h.two_phase),
             "candidates": [candidate_to_dict(c) for c in result.candidates],
         })
     return record
+
+
+def _phase_properties(state: FluidState, flow: TwoPhaseFlow | None) -> dict[str, Any]:
+    """Each phase's properties of a two-phase state (the state's, else as the correlation used them); all null
+    for a single-phase line."""
+    def pick(name: str) -> float | None:
+        value: float | None = getattr(state, name)
+        return value if value is not None or flow is None else getattr(flow, name)
+
+    liquid_mu, gas_mu, sigma = pick("liquid_viscosity"), pick("gas_viscosity"), pick("surface_tension")
+    return {"liquid_density_kg_m3": _r(pick("liquid_density")), "gas_density_kg_m3": _r(pick("gas_density")),
+            "liquid_viscosity_mpa_s": _r(liquid_mu * 1e3) if liquid_mu is not None else None,
+            "gas_viscosity_mpa_s": _r(gas_mu * 1e3) if gas_mu is not None else None,
+            "surface_tension_mn_m": _r(sigma * 1e3) if sigma is not None else None}
+
+
+def _two_phase_flow(flow: TwoPhaseFlow | None) -> dict[str, Any]:
+    """The selected size's two-phase hydraulics (all null for a single-phase line)."""
+    if flow is None:
+        return dict.fromkeys(TWO_PHASE_KEYS)
+    return {
+        "two_phase_method": flow.method, "flow_regime": flow.flow_regime, "regime_map": flow.regime_map,
+        "liquid_holdup": _r(flow.liquid_holdup),
+        "superficial_liquid_velocity_m_s": _r(flow.superficial_liquid_velocity),
+        "superficial_gas_velocity_m_s": _r(flow.superficial_gas_velocity),
+        "mixture_velocity_m_s": _r(flow.mixture_velocity), "mixture_density_kg_m3": _r(flow.mixture_density),
+        "two_phase_fittings_method": flow.fittings_method or None, "segments": flow.segments,
+        "outlet_vapour_fraction": _r(flow.outlet_vapour_fraction), "flash_point_m": _r(flow.flash_point),
+    }
+
+
+#: The keys :func:`_two_phase_flow` adds to a line's record.
+TWO_PHASE_KEYS = ("two_phase_method", "flow_regime", "regime_map", "liquid_holdup", "superficial_liquid_velocity_m_s",
+                  "superficial_gas_velocity_m_s", "mixture_velocity_m_s", "mixture_density_kg_m3",
+                  "two_phase_fittings_method", "segments", "outlet_vapour_fraction", "flash_point_m")
 
 
 def document(results: Sequence[LineResult], *, criteria_source: str, lines_source: str,

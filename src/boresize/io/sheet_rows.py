@@ -27,7 +27,11 @@ RESULT_COLUMNS: tuple[tuple[str, str], ...] = (
     ("outlet pressure [bar abs]", "outlet_pressure_bar_abs"), ("density [kg/m3]", "density_kg_m3"),
     ("viscosity [mPa s]", "viscosity_mpa_s"), ("controlling", "controlling"), ("utilisation", "utilisation"),
     ("governs", "governs"), ("service", "service"), ("criteria set", "criteria_set"),
-    ("property source", "property_source"), ("notes", "notes"), ("error", "error"),
+    ("property source", "property_source"), ("phase", "phase"), ("vapour fraction", "vapour_fraction"),
+    ("flow regime", "flow_regime"), ("two-phase method", "two_phase_method"), ("liquid holdup", "liquid_holdup"),
+    ("superficial liquid velocity [m/s]", "superficial_liquid_velocity_m_s"),
+    ("superficial gas velocity [m/s]", "superficial_gas_velocity_m_s"),
+    ("mixture density [kg/m3]", "mixture_density_kg_m3"), ("notes", "notes"), ("error", "error"),
 )
 CANDIDATE_HEADERS = ("tag", "case", "nps", "schedule", "inside diameter [mm]", "velocity [m/s]",
                      "drop per length [kPa/100 m]", "reynolds", "friction factor", "regime", "passes",

@@ -14,7 +14,7 @@ from pathlib import Path
 from typing import Any
 
 from boresize.sizing.batch import summary
-from boresize.io.document import CAUTION
+from boresize.io.document import CAUTION, TWO_PHASE_CAUTION, two_phase_count
 from boresize.io.sheet_rows import case_name, case_rows
 from boresize.io.rows import parse_header
 from boresize.model import CandidateResult, LineResult
@@ -82,6 +82,43 @@ def _used(case: LineResult) -> list[tuple[str, str, str]]:
     return rows
 
 
+def _two_phase(case: LineResult) -> list[tuple[str, str, str]]:
+    """The two-phase block of a case's record (empty for a single-phase case, so that its record stays as it was)."""
+    flow = case.selected.hydraulics.two_phase if case.selected else None
+    if flow is None:
+        return []
+    state = case.state
+
+    def prop(name: str) -> float | None:
+        value: float | None = getattr(state, name, None) if state is not None else None
+        return value if value is not None else getattr(flow, name)
+
+    def scaled(value: float | None, factor: float) -> float | None:
+        return None if value is None else value * factor
+
+    rows = [("pressure-drop correlation", flow.method, "fluids"), ("flow regime", flow.flow_regime, flow.regime_map),
+            ("vapour mass fraction (inlet)", _num(flow.vapour_fraction), "-"),
+            ("liquid holdup", _num(flow.liquid_holdup), "-"),
+            ("superficial liquid velocity", _num(flow.superficial_liquid_velocity), "m/s"),
+            ("superficial gas velocity", _num(flow.superficial_gas_velocity), "m/s"),
+            ("mixture velocity", _num(flow.mixture_velocity), "m/s"),
+            ("mixture density (no-slip, erosional limit)", _num(flow.mixture_density, 5), "kg/m3"),
+            ("liquid density", _num(prop("liquid_density"), 5), "kg/m3"),
+            ("gas density", _num(prop("gas_density"), 5), "kg/m3"),
+            ("liquid viscosity", _num(scaled(prop("liquid_viscosity"), 1e3)), "mPa s"),
+            ("gas viscosity", _num(scaled(prop("gas_viscosity"), 1e3)), "mPa s"),
+            ("surface tension", _num(scaled(prop("surface_tension"), 1e3)), "mN/m")]
+    if flow.fittings_method:
+        rows.append(("fittings (two-phase multiplier)", flow.fittings_method, ""))
+    if flow.segments > 1:
+        rows.append(("segments marched", str(flow.segments), ""))
+    if flow.outlet_vapour_fraction is not None:
+        rows.append(("vapour mass fraction (outlet)", _num(flow.outlet_vapour_fraction), "-"))
+    if flow.flash_point is not None:
+        rows.append(("flashes (bubble pressure reached) at", _num(flow.flash_point), "m from the inlet"))
+    return rows
+
+
 def _window(candidates: Sequence[CandidateResult], chosen: str | None) -> list[dict[str, Any]]:
     """One size below the selected one to two above (all rated sizes when none is selected)."""
     labels = [c.candidate.nps for c in candidates]
@@ -113,7 +150,7 @@ def _line_view(result: LineResult, headers: Mapping[str, str], units: Mapping[st
     sel, chosen = result.selected, result.selected.candidate.nps if result.selected else None
     cases = [{"name": case_name(c) or "", "status": c.status, "error": c.error if result.cases else None,
               "given": _given(c, headers, units), "used": _used(c), "candidates": _window(c.candidates, chosen),
-              "verdicts": _verdicts(c)} for c in case_rows(result)]
+              "verdicts": _verdicts(c), "two_phase": _two_phase(c)} for c in case_rows(result)]
     return {"tag": result.tag, "status": result.status, "mode": result.mode, "service": result.service or "-",
             "case_count": len(result.cases) or 1, "nps": sel.candidate.nps if sel else "",
             "schedule": sel.candidate.schedule if sel else "",
@@ -159,11 +196,13 @@ def render_html(results: Sequence[LineResult], *, trace: Mapping[str, Any], titl
     lines = [_line_view(r, by_field, units or {}, i < max_plots) for i, r in enumerate(results)]
     cautions = [f"{r.tag}: {note}" for r in results for note in r.notes]
     cautions += [r.error for r in results if r.error]
+    if two_phase_count(results):
+        cautions.insert(0, TWO_PHASE_CAUTION)
     if len(results) > max_plots:
         cautions.append(f"plots are drawn for the first {max_plots} lines only")
     env = Environment(autoescape=True, undefined=StrictUndefined, trim_blocks=True, lstrip_blocks=True)
     return env.from_string(TEMPLATE).render(title=title, caution=CAUTION, summary=summary(results), lines=lines,
-                                            cautions=cautions, trace=_trace_rows(trace))
+                                            cautions=cautions, two_phase_caution=TWO_PHASE_CAUTION, trace=_trace_rows(trace))
 
 
 def write_html(path: str | Path, results: Sequence[LineResult], **kwargs: Any) -> None:

@@ -71,6 +71,12 @@ controlling criterion: {{ line.controlling }}{% if line.case %}; governing case:
 {% for name, value, unit in case.used %}<tr><td>{{ name }}</td><td class="num">{{ value }}</td><td>{{ unit }}</td></tr>{% endfor %}
 </table>
 {% endif %}
+{% if case.two_phase %}
+<table class="two-phase"><tr><th>Two-phase flow (selected size)</th><th>Value</th><th>Unit or source</th></tr>
+{% for name, value, unit in case.two_phase %}<tr><td>{{ name }}</td><td class="num">{{ value }}</td><td>{{ unit }}</td></tr>{% endfor %}
+</table>
+<p class="caution small"><strong>Two-phase caution.</strong> {{ two_phase_caution }}</p>
+{% endif %}
 {% if case.candidates %}
 <table><tr><th>NPS</th><th>Sch</th><th>ID [mm]</th><th>v [m/s]</th><th>dP [kPa/100 m]</th><th>Re</th><th>f</th>
 <th>Regime</th><th>Worst criterion</th><th>Utilisation</th><th>Result</th></tr>

@@ -8,7 +8,7 @@ from __future__ import annotations
 
 from collections.abc import Sequence
 
-from boresize.io.document import CAUTION
+from boresize.io.document import CAUTION, TWO_PHASE_CAUTION, two_phase_count
 from boresize.model import LineResult, bare_pressure_text
 from boresize.report.printable import printable
 from boresize.sizing.selection import controlling_utilisation
@@ -64,4 +64,7 @@ def render_table(results: Sequence[LineResult], criteria_source: str, criteria_s
             out.append(printable(f"  note {r.tag}: {note}"))
     out.append("")
     out.append("CAUTION: " + CAUTION)
+    two_phase = two_phase_count(results)
+    if two_phase:
+        out.append(f"CAUTION ({two_phase} two-phase line{'s' if two_phase > 1 else ''}): " + TWO_PHASE_CAUTION)
     return "\n".join(out) + "\n"
