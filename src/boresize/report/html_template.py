@@ -12,7 +12,7 @@ TEMPLATE = r"""<!DOCTYPE html>
 <html lang="en">
 <head>
 <meta charset="utf-8">
-<title>boresize line sizing report - {{ title }}</title>
+<title>boresize line sizing report{% if title %} - {{ title }}{% endif %}</title>
 <style>
 body { font-family: "DejaVu Sans", Arial, sans-serif; font-size: 13px; margin: 24px; color: #222; }
 h1 { font-size: 20px; } h2 { font-size: 16px; margin-top: 28px; border-bottom: 1px solid #999; }
@@ -27,10 +27,16 @@ tr.selected td { font-weight: bold; }
 .plot svg { max-width: 100%; height: auto; }
 .line { page-break-inside: avoid; }
 .small { color: #555; font-size: 11px; }
+table.document th { width: 8em; } td.eq { font-family: "DejaVu Serif", "Times New Roman", serif; white-space: nowrap; }
 </style>
 </head>
 <body>
-<h1>Line sizing report: {{ title }}</h1>
+<h1>Line sizing report{% if title %}: {{ title }}{% endif %}</h1>
+{% if document %}
+<table class="document" id="document">
+{% for name, value in document %}<tr><th>{{ name }}</th><td>{{ value }}</td></tr>{% endfor %}
+</table>
+{% endif %}
 <p class="caution"><strong>Caution.</strong> {{ caution }}</p>
 <p>{{ summary }}</p>
 
@@ -80,6 +86,23 @@ controlling criterion: {{ line.controlling }}{% if line.case %}; governing case:
 <td class="num">{{ c.reynolds }}</td><td class="num">{{ c.friction }}</td><td>{{ c.regime }}</td><td>{{ c.worst }}</td>
 <td class="num">{{ c.utilisation }}</td><td class="{{ c.result }}">{{ c.result }}</td></tr>
 {% endfor %}
+</table>
+{% endif %}
+{% if case.totals %}
+<table class="totals"><tr><th>Hydraulics at the selected size</th><th>Value</th><th>Unit</th></tr>
+{% for name, value, unit in case.totals %}<tr><td>{{ name }}</td><td class="num">{{ value }}</td><td>{{ unit }}</td></tr>{% endfor %}
+</table>
+{% endif %}
+{% if case.fittings %}
+<table class="fittings"><tr><th>Fitting</th><th>Count</th><th>K each</th><th>L_eq each [m]</th><th>K from</th></tr>
+{% for f in case.fittings %}<tr><td>{{ f.kind }}</td><td class="num">{{ f.count }}</td><td class="num">{{ f.k }}</td>
+<td class="num">{{ f.leq }}</td><td>{{ f.source }}</td></tr>{% endfor %}
+</table>
+{% endif %}
+{% if case.equations %}
+<table class="equations"><tr><th>Quantity</th><th>Equation</th><th>With the numbers (SI)</th><th>Result</th></tr>
+{% for name, eq, numbers, result in case.equations %}<tr><td>{{ name }}</td><td class="eq">{{ eq }}</td>
+<td class="eq">{{ numbers }}</td><td class="num">{{ result }}</td></tr>{% endfor %}
 </table>
 {% endif %}
 {% if case.verdicts %}
