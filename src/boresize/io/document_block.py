@@ -61,6 +61,11 @@ class DocumentBlock:
 DOCUMENT_KEYS = tuple(f.name for f in fields(DocumentBlock))
 
 
+def _shown(value: Any) -> str:
+    text = repr(value)
+    return text if len(text) <= 60 else text[:57] + "..."
+
+
 def _text(key: str, value: Any, where: str) -> str:
     if key == "date" and isinstance(value, (datetime.date, datetime.datetime)):
         return value.isoformat()
@@ -69,7 +74,7 @@ def _text(key: str, value: Any, where: str) -> str:
     if not isinstance(value, str):
         allowed = "text or a TOML date (2026-12-03)" if key == "date" else \
             "text or a whole number" if key in ("revision", "number") else "text"
-        raise InputError(f"{key} is a {type(value).__name__}, not {allowed} ({where})", field=f"document.{key}",
+        raise InputError(f"{key} = {_shown(value)} is a {type(value).__name__}, not {allowed} ({where})", field=f"document.{key}",
                          value=repr(value)[:80], expected=allowed)
     if len(value) > MAX_CHARS:
         raise InputError(f"{key} is {len(value)} characters long ({where})", field=f"document.{key}",
@@ -126,6 +131,6 @@ def read_document_block(path: str | Path) -> DocumentBlock:
     if not table:
         raise InputError(f"document file {where!r} holds no keys", field="document", value=where,
                          expected="one or more of " + ", ".join(DOCUMENT_KEYS))
-    block = document_block(table, f"document file {where}")
+    block = document_block(table, f"document file {where!r}")
     assert block is not None
     return block
