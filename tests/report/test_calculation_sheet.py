@@ -94,7 +94,7 @@ def test_a_checker_redoes_the_drop_and_outlet_pressure_from_the_record_alone(pag
     used = "As used"
     length = _numbers(parsed.row(used, "length")[1])[0]
     rise = _numbers(parsed.row(used, "elevation")[1])[0]
-    p_in = _numbers(parsed.row(used, "inlet pressure")[1])[0] * 1e5
+    p_in = _numbers(parsed.row(eq, "outlet pressure")[2])[0] * 1e3  # p_in - total drop, kPa
     assert (rho, d) == (rho_re, d_re) and length == 180 and rise == 7.5
     totals = "Hydraulics at the selected size"
     fixed = _numbers(parsed.row(totals, "fixed allowances")[1])[0] * 1e3
@@ -196,3 +196,20 @@ def test_the_cli_refuses_a_bad_document_before_sizing_with_exit_code_2(tmp_path:
     assert code == 2 and "is not UTF-8 text" in err and "Traceback" not in err
     code = main(["size", str(tmp_path / "lines.csv"), "--document", str(tmp_path / "missing.toml")])
     assert code == 2 and "cannot read document file" in capsys.readouterr().err
+
+
+@pytest.mark.parametrize(("value", "shown"), [(338257.0, "338300"), (4.0, "4.000"), (0.69904, "0.6990"),
+                                              (49500.0, "49500"), (-12.345, "-12.35"), (0.0, "0"), (None, "-")])
+def test_summary_numbers_keep_four_significant_figures_in_fixed_notation(value: float | None, shown: str) -> None:
+    from boresize.report.html import _sig
+
+    assert _sig(value) == shown
+
+
+def test_the_summary_row_has_fluid_flow_pressure_and_temperature(page: str) -> None:
+    parsed = _Tables()
+    parsed.feed(page)
+    head, row = parsed.table("Tag")[:2]
+    cells = dict(zip(head, row))
+    assert cells["Fluid"] == "water" and cells["P in [bar abs]"] == "6.000" and cells["T [degC]"] == "30.0"
+    assert float(cells["Sizing flow [kg/h]"]) >= 40000  # 40 t/h, and the service's design margin if any

@@ -9,6 +9,7 @@ against NPS with the limits drawn; the cautions; and the traceability record.
 
 from __future__ import annotations
 
+import math
 import re
 from collections.abc import Mapping, Sequence
 from pathlib import Path
@@ -33,6 +34,16 @@ _FLOW_UNITS = {"mass": "kg/h", "volume": "m3/h at line conditions", "standard-vo
 
 def _num(value: float | None, digits: int = 4) -> str:
     return "-" if value is None else f"{value:.{digits}g}"
+
+
+def _sig(value: float | None, digits: int = 4) -> str:
+    """``value`` to ``digits`` significant figures in fixed notation, trailing zeros kept (4.000, 49500, 0.7406)."""
+    if value is None or not math.isfinite(value):
+        return "-" if value is None else str(value)
+    if value == 0:
+        return "0"
+    places = digits - 1 - math.floor(math.log10(abs(value)))
+    return f"{round(value, places):.{max(places, 0)}f}"
 
 
 def _pct(value: float | None) -> str:
@@ -63,9 +74,9 @@ def _used(case: LineResult) -> list[tuple[str, str, str]]:
                 f" at {line.flow.reference_name}" if line.flow.reference_name else "")),
             ("design margin", _margin(case), ""),
             ("sizing mass flow", _num(case.sizing_flow * 3600 if case.sizing_flow else None, 6), "kg/h"),
-            ("inlet pressure", _num(line.pressure / 1e5, 6), "bar abs"),
-            ("temperature", _num(line.temperature - 273.15, 5), "degC"), ("length", _num(line.length), "m"),
-            ("elevation (rise +)", _num(line.elevation), "m")]
+            ("inlet pressure", _num(line.pressure / 1e5, 5), "bar abs"),
+            ("temperature", f"{line.temperature - 273.15:.1f}", "degC"), ("length", _num(line.length, 6), "m"),
+            ("elevation (rise +)", _num(line.elevation, 6), "m")]
     if sel is not None:
         rough = line.roughness if line.roughness is not None else sel.candidate.roughness
         rows += [("pipe class", sel.candidate.pipe_class, ""), ("roughness", _num(rough * 1e3), "mm")]
@@ -214,15 +225,25 @@ def _line_view(result: LineResult, headers: Mapping[str, str], units: Mapping[st
     from boresize.report.plot import line_plot_svg
 
     sel, chosen = result.selected, result.selected.candidate.nps if result.selected else None
-    cases = [{"name": case_name(c) or "", "status": c.status, "error": c.error if result.cases else None,
+    cases: list[dict[str, Any]] = [{"name": case_name(c) or "", "status": c.status, "error": c.error if result.cases else None,
               "given": _given(c, headers, units), "used": _used(c), "candidates": _window(c.candidates, chosen),
               "verdicts": _verdicts(c), "totals": _totals(c), "fittings": _fittings(c),
-              "equations": _equations(c)} for c in case_rows(result)]
+              "equations": _equations(c), "differs_from": None} for c in case_rows(result)]
+    for later in cases[1:]:  # a later case shows only the inputs that differ from the first: no repeated rows
+        first = cases[0]
+        later["given"] = [row for row in later["given"] if row not in first["given"] or row[0] == "case"]
+        later["used"] = [row for row in later["used"] if row not in first["used"]]
+        later["differs_from"] = first["name"]
     return {"tag": result.tag, "status": result.status, "mode": result.mode, "service": result.service or "-",
             "case_count": len(result.cases) or 1, "nps": sel.candidate.nps if sel else "",
             "schedule": sel.candidate.schedule if sel else "",
-            "velocity": _num(sel.hydraulics.velocity if sel else None),
-            "drop": _num(sel.hydraulics.drop_per_length / 10.0 if sel else None),
+            "velocity": _sig(sel.hydraulics.velocity if sel else None, 4),
+            "drop": _sig(sel.hydraulics.drop_per_length / 10.0 if sel else None, 4),
+            "total": _sig(sel.hydraulics.total_drop / 1e3 if sel else None, 4),
+            "fluid": result.line.fluid if result.line else "-",
+            "flow": _sig(result.sizing_flow * 3600 if result.sizing_flow else None, 4),
+            "pressure": _sig(result.line.pressure / 1e5 if result.line else None, 4),
+            "temperature": "-" if result.line is None else f"{result.line.temperature - 273.15:.1f}",
             "controlling": _controlling(result), "utilisation": _pct(controlling_utilisation(result)[0]),
             "case": case_name(result) if result.cases else "", "governing": list(result.governing),
             "error": result.error, "notes": list(result.notes), "cases": cases,

@@ -27,7 +27,7 @@ tr.selected td { font-weight: bold; }
 .plot svg { max-width: 100%; height: auto; }
 .line { page-break-inside: avoid; }
 .small { color: #555; font-size: 11px; }
-table.document th { width: 8em; } td.eq { font-family: "DejaVu Serif", "Times New Roman", serif; white-space: nowrap; }
+table.document th { width: 8em; } td.tag { white-space: nowrap; } td.eq { font-family: "DejaVu Serif", "Times New Roman", serif; white-space: nowrap; }
 </style>
 </head>
 <body>
@@ -42,12 +42,15 @@ table.document th { width: 8em; } td.eq { font-family: "DejaVu Serif", "Times Ne
 
 <h2 id="summary">Summary</h2>
 <table>
-<tr><th>Tag</th><th>Cases</th><th>Status</th><th>Mode</th><th>Service</th><th>NPS</th><th>Sch</th>
-<th>v [m/s]</th><th>dP [kPa/100 m]</th><th>Controlling</th><th>Utilisation</th><th>Governing case</th></tr>
+<tr><th>Tag</th><th>Cases</th><th>Status</th><th>Mode</th><th>Service</th><th>Fluid</th><th>Sizing flow [kg/h]</th>
+<th>P in [bar abs]</th><th>T [degC]</th><th>NPS</th><th>Sch</th>
+<th>v [m/s]</th><th>Total dP [kPa]</th><th>dP [kPa/100 m]</th><th>Controlling</th><th>Utilisation</th><th>Governing case</th></tr>
 {% for line in lines %}
-<tr><td><a href="#line-{{ loop.index }}">{{ line.tag }}</a></td><td class="num">{{ line.case_count }}</td>
+<tr><td class="tag"><a href="#line-{{ loop.index }}">{{ line.tag }}</a></td><td class="num">{{ line.case_count }}</td>
 <td class="{{ line.status }}">{{ line.status }}</td><td>{{ line.mode }}</td><td>{{ line.service }}</td>
-<td>{{ line.nps }}</td><td>{{ line.schedule }}</td><td class="num">{{ line.velocity }}</td>
+<td>{{ line.fluid }}</td><td class="num">{{ line.flow }}</td><td class="num">{{ line.pressure }}</td>
+<td class="num">{{ line.temperature }}</td>
+<td>{{ line.nps }}</td><td>{{ line.schedule }}</td><td class="num">{{ line.velocity }}</td><td class="num">{{ line.total }}</td>
 <td class="num">{{ line.drop }}</td><td>{{ line.controlling }}</td><td class="num">{{ line.utilisation }}</td>
 <td>{{ line.case }}</td></tr>
 {% endfor %}
@@ -69,11 +72,11 @@ controlling criterion: {{ line.controlling }}{% if line.case %}; governing case:
 {% for case in line.cases %}
 {% if line.cases | length > 1 %}<h3>Case {{ case.name }} <span class="{{ case.status }}">&nbsp;{{ case.status }}&nbsp;</span></h3>{% endif %}
 {% if case.error %}<p class="error">{{ case.error }}</p>{% endif %}
-<table><tr><th>Input (as given)</th><th>Value</th><th>Default unit of the column</th></tr>
+<table><tr><th>Input (as given{% if case.differs_from is not none %}; what differs from case {{ case.differs_from }}{% endif %})</th><th>Value</th><th>Default unit of the column</th></tr>
 {% for name, value, unit in case.given %}<tr><td>{{ name }}</td><td>{{ value }}</td><td>{{ unit }}</td></tr>{% endfor %}
 </table>
 {% if case.used %}
-<table><tr><th>As used</th><th>Value</th><th>Unit</th></tr>
+<table><tr><th>As used{% if case.differs_from is not none %} (what differs from case {{ case.differs_from }}){% endif %}</th><th>Value</th><th>Unit</th></tr>
 {% for name, value, unit in case.used %}<tr><td>{{ name }}</td><td class="num">{{ value }}</td><td>{{ unit }}</td></tr>{% endfor %}
 </table>
 {% endif %}
@@ -90,7 +93,7 @@ controlling criterion: {{ line.controlling }}{% if line.case %}; governing case:
 {% endif %}
 {% if case.totals %}
 <table class="totals"><tr><th>Hydraulics at the selected size</th><th>Value</th><th>Unit</th></tr>
-{% for name, value, unit in case.totals %}<tr><td>{{ name }}</td><td class="num">{{ value }}</td><td>{{ unit }}</td></tr>{% endfor %}
+{% for name, value, unit in case.totals %}<tr><td>{{ name }}</td><td{% if unit %} class="num"{% endif %}>{{ value }}</td><td>{{ unit }}</td></tr>{% endfor %}
 </table>
 {% endif %}
 {% if case.fittings %}
