@@ -166,6 +166,7 @@ def test_every_record_shows_the_totals_without_an_outlet_criterion(page: str) ->
     ('[sheet]\nproject = "x"\n', "document", "unknown key 'sheet'"),
     ('notes = "a\\u0007b"\n', "document.notes", "control character"),
     (f'notes = "{"x" * 2001}"\n', "document.notes", "2001 characters"),
+    ("# " + "x" * 100_001 + "\n", "document", "larger than 100 kB"),
 ])
 def test_a_bad_document_file_is_refused_naming_the_file_key_and_what_is_accepted(
         tmp_path: Path, text: str, field: str, part: str) -> None:

@@ -30,6 +30,8 @@ __all__ = ["DOCUMENT_KEYS", "DocumentBlock", "document_block", "read_document_bl
 
 #: the longest value accepted for one key (a block is a header, not a report)
 MAX_CHARS = 2000
+#: the largest document file read (nine keys of at most MAX_CHARS each, with room for comments)
+MAX_FILE_BYTES = 100_000
 
 
 @dataclass(frozen=True)
@@ -113,7 +115,13 @@ def read_document_block(path: str | Path) -> DocumentBlock:
     :raises InputError: (field ``document``) a missing or unreadable file, not TOML, an unknown key, a wrong type
     """
     where = str(path)
+    if Path(path).exists() and not Path(path).is_file():
+        raise InputError(f"document file {where!r} is not a regular file", field="document", value=where,
+                         expected="a TOML file")
     try:
+        if Path(path).stat().st_size > MAX_FILE_BYTES:
+            raise InputError(f"document file {where!r} is larger than {MAX_FILE_BYTES // 1000} kB", field="document",
+                             value=where, expected="a small TOML file of the document's keys")
         data = Path(path).read_bytes()
     except OSError as exc:
         raise InputError(f"cannot read document file {where!r} ({exc.strerror or type(exc).__name__})",

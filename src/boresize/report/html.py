@@ -149,8 +149,8 @@ def _equations(case: LineResult) -> list[tuple[str, str, str, str]]:
     says that the totals come from the march.
     """
     line, sel, state = case.line, case.selected, case.state
-    if line is None or sel is None or state is None:
-        return []
+    if line is None or sel is None or state is None or sel.hydraulics.two_phase is not None:
+        return []  # a two-phase line's method is not these single-phase equations
     h, cand = sel.hydraulics, sel.candidate
     d, rho, mu = cand.inside_diameter, state.density, state.viscosity
     rough = line.roughness if line.roughness is not None else cand.roughness
