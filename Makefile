@@ -25,7 +25,7 @@ test: $(STAMP)
 DEMO := examples/demo-unit
 demo: $(STAMP)
 	mkdir -p out
-	$(BIN)/boresize size $(DEMO)/lines.csv --criteria $(DEMO)/criteria.toml \
+	$(BIN)/boresize size $(DEMO)/lines.csv --criteria $(DEMO)/criteria.toml --document $(DEMO)/document.toml \
 	  --output out/demo-report.html --output out/demo-results.xlsx; \
 	  status=$$?; [ $$status -le 1 ]
 	$(BIN)/boresize diff $(DEMO)/lines.csv $(DEMO)/lines-rev2.csv --criteria $(DEMO)/criteria.toml; \

@@ -316,7 +316,7 @@ def test_record_and_html_state_the_reported_values(results):
     assert {float(m) for m, _ in margins} == {float(format(m * 100, ".3g")) for m in expected}
     own = [m for m, whose in margins if whose == "line"]
     assert own == ["12.5"]
-    summary = re.findall(r'<tr><td><a href="#line-\d+">([^<]+)</a>.*?<td class="num">[^<]*</td><td>([^<]*)</td>'
+    summary = re.findall(r'<tr><td class="tag"><a href="#line-\d+">([^<]+)</a>.*?<td class="num">[^<]*</td><td>([^<]*)</td>'
                          r'<td class="num">([^<]*)</td>', page, flags=re.S)
     assert len(summary) == len(results)
     for tag, controlling, utilisation in summary:

@@ -22,9 +22,10 @@ from boresize.api.run import (SLOW_CRITERION_SECONDS, SLOW_CRITERION_SHARE, Crit
                               roughness_value, run_lines, size_dataframe, size_rows)
 from boresize.io.csv_reader import LineList
 from boresize.io.document import SCHEMA_VERSION, document_schema
+from boresize.io.document_block import DocumentBlock, read_document_block
 
 __all__ = ["OUTPUT_SUFFIXES", "PROCESS_THRESHOLD", "SCHEMA_VERSION", "SI_UNITS", "SLOW_CRITERION_SECONDS", "SLOW_CRITERION_SHARE",
-           "CriterionTime", "LineList", "RatedResult", "Run", "SizingResult",
+           "CriterionTime", "DocumentBlock", "LineList", "RatedResult", "Run", "SizingResult",
            "check", "check_output", "check_outputs", "default_sizer", "document_schema", "make_line", "quantity_text",
-           "read_lines",
+           "read_document_block", "read_lines",
            "roughness_value", "run_lines", "size", "size_dataframe", "size_many", "size_rows"]

@@ -53,8 +53,16 @@ def _xlsx(path: Path, run: Run) -> None:
 def _html(path: Path, run: Run) -> None:
     from boresize.report.html import write_html
 
-    write_html(path, run.results, trace=run.trace.to_dict(), title=run.line_list.source,
-               headers=run.line_list.headers or None, units=run.line_list.units)
+    write_html(path, run.results, trace=run.trace.to_dict(), title=page_title(run),
+               headers=run.line_list.headers or None, units=run.line_list.units, document=run.document_block)
+
+
+def page_title(run: Run) -> str:
+    """A title for an output page: the document block's number and project, else the line list's file name
+    (never its folder: a title must not show a local path)."""
+    if run.document_block is not None and run.document_block.title:
+        return run.document_block.title
+    return Path(run.line_list.source).name or run.line_list.source
 
 
 #: extension -> the writer of that kind of file

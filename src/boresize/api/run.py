@@ -17,7 +17,7 @@ from __future__ import annotations
 import hashlib
 import sys
 import time
-from collections.abc import Callable, Iterable, Sequence
+from collections.abc import Callable, Iterable, Mapping, Sequence
 from concurrent.futures import Executor
 from dataclasses import dataclass, replace
 from pathlib import Path
@@ -27,6 +27,7 @@ from boresize.api.calls import Item as LineItem, checked_item, default_sizer, re
 from boresize.api.result import SizingResult
 from boresize.errors import InputError
 from boresize.io.csv_reader import LineList
+from boresize.io.document_block import DocumentBlock, document_block as as_document_block
 from boresize.model import Line, LineResult
 from boresize.report.trace import Traceability, traceability
 from boresize.sizing.batch import SizerSpec, run_items, spec_for, summary
@@ -73,6 +74,7 @@ class Run:
         timed); empty when the run did not time them
     :param sizing_seconds: the sizing time the shares of :meth:`slow_criteria` are of: the run's wall time
         times its worker processes
+    :param document_block: the calculation sheet's project, number, revision, signatures (the HTML page's head)
     """
 
     results: tuple[SizingResult, ...]
@@ -81,6 +83,7 @@ class Run:
     headrooms: tuple[Headroom, ...] | None = None
     criterion_times: tuple[CriterionTime, ...] = ()
     sizing_seconds: float = 0.0
+    document_block: DocumentBlock | None = None
 
     @property
     def criterion_seconds(self) -> dict[str, float]:
@@ -133,8 +136,11 @@ class Run:
         text = render_table(self.results, self.trace.criteria_source, self.trace.criteria_set)
         return text + (_headroom_text(self.headrooms) if self.headrooms is not None else "")
 
-    def write(self, path: str | Path) -> Path:
+    def write(self, path: str | Path, document: DocumentBlock | Mapping[str, Any] | str | Path | None = None) -> Path:
         """Write the run to ``path``: .json, .csv, .xlsx or .html by its extension; returns the path.
+
+        :param document: a document block for this file (a TOML file's path, a mapping of its keys or a
+            :class:`~boresize.io.document_block.DocumentBlock`) instead of the run's own
 
         Written to a temporary file beside ``path`` and renamed over it when complete: an earlier file of that
         name is replaced whole or left intact.
@@ -144,13 +150,15 @@ class Run:
         """
         from boresize.api.output import write_run
 
-        return write_run(path, self)
+        block = as_document_block(document)
+        return write_run(path, self if block is None else replace(self, document_block=block))
 
 
 def run_lines(lines: LineSource, criteria: str | Path | None = None, *, workers: int = 1,
               executor: Executor | None = None, every_size: bool = False, corroded_roughness: str | float | None = None,
               plugins: bool = True, progress: bool | None = False, headroom: bool = False,
-              units_row: bool | None = None, bare_pressure: BarePressure | None = None) -> Run:
+              units_row: bool | None = None, bare_pressure: BarePressure | None = None,
+              document: DocumentBlock | Mapping[str, Any] | str | Path | None = None) -> Run:
     """Size (or check) every line of a line list; see the module docstring for what ``lines`` may be.
 
     :param criteria: a criteria TOML file (the shipped sets when None)
@@ -166,11 +174,14 @@ def run_lines(lines: LineSource, criteria: str | Path | None = None, *, workers:
         ``absolute`` (None, the default for rows read, as documented), ``gauge`` (101325 Pa added) or ``error`` (the
         line is an error naming the field); Lines given keep how they were made unless it is given. Each such line
         has a note, and the summary counts them
-    :raises InputError: an unreadable line list, a bad option (naming it)
+    :param document: the calculation sheet's document block (project, unit, number, revision, date, prepared,
+        checked, approved, notes): a TOML file's path, a mapping of those keys or a DocumentBlock; read before sizing
+    :raises InputError: an unreadable line list, a bad option (naming it), a bad document block
     """
     if isinstance(workers, bool) or not isinstance(workers, int) or workers < 1:
         raise InputError(f"workers {workers!r} is not a whole number of 1 or more", field="workers", value=workers,
                          expected="1 or more processes")
+    block = as_document_block(document)
     roughness = None if corroded_roughness is None else roughness_value(corroded_roughness)
     mode = None if bare_pressure is None else bare_pressure_mode(bare_pressure)
     spec = spec_for(criteria, plugins, roughness, every_size=every_size)
@@ -187,7 +198,7 @@ def run_lines(lines: LineSource, criteria: str | Path | None = None, *, workers:
         results = [_with_cells(result, own) for result, own in zip(results, cells)]
     rooms = tuple(_headroom(sizer, r) for r in results) if headroom else None
     trace = _trace(sizer, spec, line_list, str(criteria) if criteria else sizer.config.origin)
-    return Run(tuple(SizingResult.of(r) for r in results), line_list, trace, rooms, times, wall)
+    return Run(tuple(SizingResult.of(r) for r in results), line_list, trace, rooms, times, wall, block)
 
 
 def _owner(sizer: Sizer, ident: str) -> str:

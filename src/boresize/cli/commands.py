@@ -99,12 +99,13 @@ def run_size(args: argparse.Namespace) -> int:
     outputs = _check_outputs(args.output, lines)
     if outputs is None:
         return 2
+    document = api.read_document_block(args.document) if args.document else None
     roughness = api.roughness_value(args.corroded_roughness, "corroded-roughness") if args.corroded_roughness \
         else None
     progress = False if args.quiet and args.progress is None else args.progress
     run = api.run_lines(lines, args.criteria, workers=_workers(args), every_size=args.every_size,
                         corroded_roughness=roughness, plugins=not args.no_plugins, progress=progress,
-                        headroom=args.headroom, bare_pressure=args.bare_pressure)
+                        headroom=args.headroom, bare_pressure=args.bare_pressure, document=document)
     written = _write_outputs(run, outputs, args.quiet)
     _note_slow_criteria(run)
     if args.timings:

@@ -92,6 +92,9 @@ def _add_run_options(size: argparse.ArgumentParser) -> None:
     size.add_argument("--every-size", action="store_true",
                       help="rate every size of the pipe class from the smallest, instead of walking from the "
                            "first-guess diameter (same selection, slower; the record shows every size below)")
+    size.add_argument("--document", metavar="FILE.toml",
+                      help="the calculation sheet's document block (project, unit, number, revision, date, prepared, "
+                           "checked, approved, notes as key = \"value\" lines), shown at the top of the HTML report")
     size.add_argument("--headroom", action="store_true",
                       help="also rate each line at its size: how much more flow (%% of the design flow) it "
                            "carries before a criterion fails")

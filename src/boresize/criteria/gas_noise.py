@@ -42,7 +42,8 @@ class NoiseVelocity(Criterion):
     size_trend = "larger-passes"  # v falls as the bore grows; the limit a*rho^-b does not change
     title = "Gas velocity limit against noise: v = a*rho^-b, capped"
     phases = frozenset({"gas"})
-    source = "company practice: v_max = a*rho^-b with a cap (shipped a = 175, b = 0.43, cap 60 m/s from memory)"
+    source = ("company practice: v_max = a*rho^-b with a cap (the shipped a = 175, b = 0.43 and cap 60 m/s are "
+              "common offshore practice, not a published standard: verify them against your company's standard)")
     options = (
         OptionSpec("a", "dimensionless", 175.0, None, "coefficient a of v = a*rho^-b (v in m/s, rho in kg/m3)"),
         OptionSpec("b", "dimensionless", 0.43, None, "exponent b of v = a*rho^-b"),

@@ -9,6 +9,8 @@ against NPS with the limits drawn; the cautions; and the traceability record.
 
 from __future__ import annotations
 
+import math
+import re
 from collections.abc import Mapping, Sequence
 from pathlib import Path
 from typing import Any
@@ -17,7 +19,8 @@ from boresize.sizing.batch import summary
 from boresize.io.document import CAUTION, TWO_PHASE_CAUTION, two_phase_count
 from boresize.io.sheet_rows import case_name, case_rows
 from boresize.io.rows import parse_header
-from boresize.model import CandidateResult, LineResult
+from boresize.io.document_block import DocumentBlock
+from boresize.model import CandidateResult, Hydraulics, LineResult
 from boresize.sizing.selection import controlling_utilisation
 
 __all__ = ["MAX_PLOTS", "render_html", "write_html"]
@@ -31,6 +34,16 @@ _FLOW_UNITS = {"mass": "kg/h", "volume": "m3/h at line conditions", "standard-vo
 
 def _num(value: float | None, digits: int = 4) -> str:
     return "-" if value is None else f"{value:.{digits}g}"
+
+
+def _sig(value: float | None, digits: int = 4) -> str:
+    """``value`` to ``digits`` significant figures in fixed notation, trailing zeros kept (4.000, 49500, 0.7406)."""
+    if value is None or not math.isfinite(value):
+        return "-" if value is None else str(value)
+    if value == 0:
+        return "0"
+    places = digits - 1 - math.floor(math.log10(abs(value)))
+    return f"{round(value, places):.{max(places, 0)}f}"
 
 
 def _pct(value: float | None) -> str:
@@ -48,7 +61,7 @@ def _margin(case: LineResult) -> str:
     own = line is not None and line.design_margin is not None
     applied = case.design_margin if case.design_margin is not None else line.design_margin if line else None
     if applied is None:
-        return "the service's"
+        return "- (not rated)"
     return f"{applied * 100:.3g} % ({'the line' if own else 'the service'}'s)"
 
 
@@ -61,9 +74,9 @@ def _used(case: LineResult) -> list[tuple[str, str, str]]:
                 f" at {line.flow.reference_name}" if line.flow.reference_name else "")),
             ("design margin", _margin(case), ""),
             ("sizing mass flow", _num(case.sizing_flow * 3600 if case.sizing_flow else None, 6), "kg/h"),
-            ("inlet pressure", _num(line.pressure / 1e5, 6), "bar abs"),
-            ("temperature", _num(line.temperature - 273.15, 5), "degC"), ("length", _num(line.length), "m"),
-            ("elevation (rise +)", _num(line.elevation), "m")]
+            ("inlet pressure", _num(line.pressure / 1e5, 5), "bar abs"),
+            ("temperature", f"{line.temperature - 273.15:.1f}", "degC"), ("length", _num(line.length, 6), "m"),
+            ("elevation (rise +)", _num(line.elevation, 6), "m")]
     if sel is not None:
         rough = line.roughness if line.roughness is not None else sel.candidate.roughness
         rows += [("pipe class", sel.candidate.pipe_class, ""), ("roughness", _num(rough * 1e3), "mm")]
@@ -119,6 +132,107 @@ def _two_phase(case: LineResult) -> list[tuple[str, str, str]]:
     return rows
 
 
+def _kpa(value: float | None) -> str:
+    return _num(None if value is None else value / 1e3, 6)
+
+
+def _fittings(case: LineResult) -> list[dict[str, str]]:
+    """Each fitting of the line at the selected size: kind, count, K each, equivalent length each, method."""
+    from boresize.hydraulics.fittings import fittings_loss
+
+    line, sel = case.line, case.selected
+    if line is None or sel is None or not line.fittings:
+        return []
+    h, cand = sel.hydraulics, sel.candidate
+    try:
+        loss = fittings_loss(line.fittings, line.fittings_method, reynolds=h.reynolds,
+                             inside_diameter=cand.inside_diameter, nps=cand.nps_value)
+    except (ValueError, ArithmeticError):  # the line was rated with them: only a changed table could refuse them
+        return []
+    return [{"kind": item.spec, "count": _num(item.count), "k": _num(item.k, 5),
+             "leq": _num(item.equivalent_length, 5), "source": item.source} for item in loss.items]
+
+
+def _segments(h: Hydraulics) -> str:
+    found = re.search(r"in (\d+) segments", h.method)
+    return found.group(1) if found else "1 (one density all along)"
+
+
+def _totals(case: LineResult) -> list[tuple[str, str, str]]:
+    """The hydraulic totals of the selected size, whether or not an outlet criterion is set."""
+    sel = case.selected
+    if sel is None:
+        return []
+    h = sel.hydraulics
+    rows = [("drop method", h.method, ""), ("segments", _segments(h), ""),
+            ("pipe friction", _kpa(h.drop), "kPa"),
+            ("fittings (sum K " + _num(h.fittings_k, 5) + ")", _kpa(h.fittings_drop), "kPa"),
+            ("static head (rise +)", _kpa(h.static_drop), "kPa"),
+            ("fixed allowances", _kpa(h.fixed_drop), "kPa"),
+            ("acceleration (gas)", _kpa(h.acceleration_drop), "kPa"),
+            ("total drop", _kpa(h.total_drop), "kPa"),
+            ("outlet pressure", _num(None if h.outlet_pressure is None else h.outlet_pressure / 1e5, 6), "bar abs"),
+            ("choked", ("yes" + (f", at {_num(h.choke_length)} m from the inlet" if h.choke_length is not None
+                                 else "")) if h.choked else "no", "")]
+    if h.fittings_method:
+        rows.insert(4, ("fittings method", h.fittings_method, ""))
+    return rows
+
+
+def _equations(case: LineResult) -> list[tuple[str, str, str, str]]:
+    """(quantity, equation, with the selected size's numbers, result with unit): the line redone by hand.
+
+    For a line rated with one density (liquids, short gas lines); a marched gas line shows its inlet step and
+    says that the totals come from the march.
+    """
+    line, sel, state = case.line, case.selected, case.state
+    if line is None or sel is None or state is None or sel.hydraulics.two_phase is not None:
+        return []  # a two-phase line's method is not these single-phase equations
+    h, cand = sel.hydraulics, sel.candidate
+    d, rho, mu = cand.inside_diameter, state.density, state.viscosity
+    rough = line.roughness if line.roughness is not None else cand.roughness
+    v, f, re_, length = h.velocity, h.friction_factor, h.reynolds, line.length
+    q = 0.5 * rho * v * v
+    rows = [("velocity", "v = m / (ρ π D² / 4)",
+             f"{_num(h.mass_flow, 6)} / ({_num(rho, 6)} × π × {_num(d, 6)}² / 4)",
+             f"{_num(v, 6)} m/s"),
+            ("Reynolds number", "Re = ρ v D / μ",
+             f"{_num(rho, 6)} × {_num(v, 6)} × {_num(d, 6)} / {_num(mu, 6)}", _num(re_, 6)),
+            ("relative roughness", "ε / D", f"{_num(rough, 6)} / {_num(d, 6)}", _num(rough / d, 6))]
+    if h.regime == "laminar":
+        rows.append(("friction factor (laminar)", "f = 64 / Re", f"64 / {_num(re_, 6)}", _num(f, 6)))
+    else:
+        rows.append(("friction factor (Colebrook-White)",
+                     "1/√f = −2 log₁₀(ε/(3.7 D) + 2.51/(Re √f))",
+                     f"1/√f = −2 log₁₀({_num(rough / d, 6)}/3.7 + 2.51/({_num(re_, 6)} √f))",
+                     _num(f, 6)))
+    rows.append(("velocity head", "q = ρ v² / 2", f"{_num(rho, 6)} × {_num(v, 6)}² / 2",
+                 f"{_num(q, 6)} Pa"))
+    marched = h.acceleration_drop != 0.0 or "segments" in h.method
+    if marched:
+        rows.append(("pipe friction (marched)", "Δp_f = Σ f (ΔL/D) ρ v²/2 over the segments",
+                     "properties re-evaluated along the line: not one step by hand", f"{_kpa(h.drop)} kPa"))
+    else:
+        rows.append(("pipe friction (Darcy-Weisbach)", "Δp_f = f (L/D) ρ v² / 2",
+                     f"{_num(f, 6)} × ({_num(length, 6)} / {_num(d, 6)}) × {_num(q, 6)}",
+                     f"{_kpa(h.drop)} kPa"))
+        rows.append(("fittings", "Δp_k = (Σ K + f L_eq/D) ρ v² / 2",
+                     f"{_num(h.fittings_drop / q if q else 0.0, 6)} × {_num(q, 6)}",
+                     f"{_kpa(h.fittings_drop)} kPa"))
+        rows.append(("static head", "Δp_s = ρ g Δz",
+                     f"{_num(rho, 6)} × 9.80665 × {_num(line.elevation, 6)}", f"{_kpa(h.static_drop)} kPa"))
+    parts = [_kpa(h.drop), _kpa(h.fittings_drop), _kpa(h.static_drop), _kpa(h.fixed_drop)]
+    total_eq = "Δp = Δp_f + Δp_k + Δp_s + Δp_fixed"
+    if marched:
+        parts.append(_kpa(h.acceleration_drop))
+        total_eq += " + Δp_acc"
+    rows.append(("total drop", total_eq, " + ".join(parts), f"{_kpa(h.total_drop)} kPa"))
+    if h.outlet_pressure is not None:
+        rows.append(("outlet pressure", "p_out = p_in − Δp",
+                     f"{_kpa(line.pressure)} − {_kpa(h.total_drop)}", f"{_kpa(h.outlet_pressure)} kPa abs"))
+    return rows
+
+
 def _window(candidates: Sequence[CandidateResult], chosen: str | None) -> list[dict[str, Any]]:
     """One size below the selected one to two above (all rated sizes when none is selected)."""
     labels = [c.candidate.nps for c in candidates]
@@ -148,14 +262,25 @@ def _line_view(result: LineResult, headers: Mapping[str, str], units: Mapping[st
     from boresize.report.plot import line_plot_svg
 
     sel, chosen = result.selected, result.selected.candidate.nps if result.selected else None
-    cases = [{"name": case_name(c) or "", "status": c.status, "error": c.error if result.cases else None,
+    cases: list[dict[str, Any]] = [{"name": case_name(c) or "", "status": c.status, "error": c.error if result.cases else None,
               "given": _given(c, headers, units), "used": _used(c), "candidates": _window(c.candidates, chosen),
-              "verdicts": _verdicts(c), "two_phase": _two_phase(c)} for c in case_rows(result)]
+              "verdicts": _verdicts(c), "two_phase": _two_phase(c), "totals": _totals(c), "fittings": _fittings(c),
+              "equations": _equations(c), "differs_from": None} for c in case_rows(result)]
+    for later in cases[1:]:  # a later case shows only the inputs that differ from the first: no repeated rows
+        first = cases[0]
+        later["given"] = [row for row in later["given"] if row not in first["given"] or row[0] == "case"]
+        later["used"] = [row for row in later["used"] if row not in first["used"]]
+        later["differs_from"] = first["name"]
     return {"tag": result.tag, "status": result.status, "mode": result.mode, "service": result.service or "-",
             "case_count": len(result.cases) or 1, "nps": sel.candidate.nps if sel else "",
             "schedule": sel.candidate.schedule if sel else "",
-            "velocity": _num(sel.hydraulics.velocity if sel else None),
-            "drop": _num(sel.hydraulics.drop_per_length / 10.0 if sel else None),
+            "velocity": _sig(sel.hydraulics.velocity if sel else None, 4),
+            "drop": _sig(sel.hydraulics.drop_per_length / 10.0 if sel else None, 4),
+            "total": _sig(sel.hydraulics.total_drop / 1e3 if sel else None, 4),
+            "fluid": result.line.fluid if result.line else "-",
+            "flow": _sig(result.sizing_flow * 3600 if result.sizing_flow else None, 4),
+            "pressure": _sig(result.line.pressure / 1e5 if result.line else None, 4),
+            "temperature": "-" if result.line is None else f"{result.line.temperature - 273.15:.1f}",
             "controlling": _controlling(result), "utilisation": _pct(controlling_utilisation(result)[0]),
             "case": case_name(result) if result.cases else "", "governing": list(result.governing),
             "error": result.error, "notes": list(result.notes), "cases": cases,
@@ -183,7 +308,7 @@ def _trace_rows(trace: Mapping[str, Any]) -> list[tuple[str, str]]:
 
 def render_html(results: Sequence[LineResult], *, trace: Mapping[str, Any], title: str,
                 headers: Sequence[str] | None = None, units: Mapping[str, str | None] | None = None,
-                max_plots: int = MAX_PLOTS) -> str:
+                max_plots: int = MAX_PLOTS, document: DocumentBlock | None = None) -> str:
     """The report as one HTML string (no external files, scripts or fonts)."""
     from boresize.optional import needs
 
@@ -201,8 +326,10 @@ def render_html(results: Sequence[LineResult], *, trace: Mapping[str, Any], titl
     if len(results) > max_plots:
         cautions.append(f"plots are drawn for the first {max_plots} lines only")
     env = Environment(autoescape=True, undefined=StrictUndefined, trim_blocks=True, lstrip_blocks=True)
-    return env.from_string(TEMPLATE).render(title=title, caution=CAUTION, summary=summary(results), lines=lines,
-                                            cautions=cautions, two_phase_caution=TWO_PHASE_CAUTION, trace=_trace_rows(trace))
+    return env.from_string(TEMPLATE).render(title=title, document=document.rows() if document else [],
+                                            caution=CAUTION, summary=summary(results), lines=lines,
+                                            cautions=cautions, two_phase_caution=TWO_PHASE_CAUTION,
+                                            trace=_trace_rows(trace))
 
 
 def write_html(path: str | Path, results: Sequence[LineResult], **kwargs: Any) -> None:

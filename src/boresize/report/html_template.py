@@ -12,7 +12,7 @@ TEMPLATE = r"""<!DOCTYPE html>
 <html lang="en">
 <head>
 <meta charset="utf-8">
-<title>boresize line sizing report - {{ title }}</title>
+<title>boresize line sizing report{% if title %} - {{ title }}{% endif %}</title>
 <style>
 body { font-family: "DejaVu Sans", Arial, sans-serif; font-size: 13px; margin: 24px; color: #222; }
 h1 { font-size: 20px; } h2 { font-size: 16px; margin-top: 28px; border-bottom: 1px solid #999; }
@@ -27,21 +27,30 @@ tr.selected td { font-weight: bold; }
 .plot svg { max-width: 100%; height: auto; }
 .line { page-break-inside: avoid; }
 .small { color: #555; font-size: 11px; }
+table.document th { width: 8em; } td.tag { white-space: nowrap; } td.eq { font-family: "DejaVu Serif", "Times New Roman", serif; white-space: nowrap; }
 </style>
 </head>
 <body>
-<h1>Line sizing report: {{ title }}</h1>
+<h1>Line sizing report{% if title %}: {{ title }}{% endif %}</h1>
+{% if document %}
+<table class="document" id="document">
+{% for name, value in document %}<tr><th>{{ name }}</th><td>{{ value }}</td></tr>{% endfor %}
+</table>
+{% endif %}
 <p class="caution"><strong>Caution.</strong> {{ caution }}</p>
 <p>{{ summary }}</p>
 
 <h2 id="summary">Summary</h2>
 <table>
-<tr><th>Tag</th><th>Cases</th><th>Status</th><th>Mode</th><th>Service</th><th>NPS</th><th>Sch</th>
-<th>v [m/s]</th><th>dP [kPa/100 m]</th><th>Controlling</th><th>Utilisation</th><th>Governing case</th></tr>
+<tr><th>Tag</th><th>Cases</th><th>Status</th><th>Mode</th><th>Service</th><th>Fluid</th><th>Sizing flow [kg/h]</th>
+<th>P in [bar abs]</th><th>T [degC]</th><th>NPS</th><th>Sch</th>
+<th>v [m/s]</th><th>Total dP [kPa]</th><th>dP [kPa/100 m]</th><th>Controlling</th><th>Utilisation</th><th>Governing case</th></tr>
 {% for line in lines %}
-<tr><td><a href="#line-{{ loop.index }}">{{ line.tag }}</a></td><td class="num">{{ line.case_count }}</td>
+<tr><td class="tag"><a href="#line-{{ loop.index }}">{{ line.tag }}</a></td><td class="num">{{ line.case_count }}</td>
 <td class="{{ line.status }}">{{ line.status }}</td><td>{{ line.mode }}</td><td>{{ line.service }}</td>
-<td>{{ line.nps }}</td><td>{{ line.schedule }}</td><td class="num">{{ line.velocity }}</td>
+<td>{{ line.fluid }}</td><td class="num">{{ line.flow }}</td><td class="num">{{ line.pressure }}</td>
+<td class="num">{{ line.temperature }}</td>
+<td>{{ line.nps }}</td><td>{{ line.schedule }}</td><td class="num">{{ line.velocity }}</td><td class="num">{{ line.total }}</td>
 <td class="num">{{ line.drop }}</td><td>{{ line.controlling }}</td><td class="num">{{ line.utilisation }}</td>
 <td>{{ line.case }}</td></tr>
 {% endfor %}
@@ -63,11 +72,11 @@ controlling criterion: {{ line.controlling }}{% if line.case %}; governing case:
 {% for case in line.cases %}
 {% if line.cases | length > 1 %}<h3>Case {{ case.name }} <span class="{{ case.status }}">&nbsp;{{ case.status }}&nbsp;</span></h3>{% endif %}
 {% if case.error %}<p class="error">{{ case.error }}</p>{% endif %}
-<table><tr><th>Input (as given)</th><th>Value</th><th>Default unit of the column</th></tr>
+<table><tr><th>Input (as given{% if case.differs_from is not none %}; what differs from case {{ case.differs_from }}{% endif %})</th><th>Value</th><th>Default unit of the column</th></tr>
 {% for name, value, unit in case.given %}<tr><td>{{ name }}</td><td>{{ value }}</td><td>{{ unit }}</td></tr>{% endfor %}
 </table>
 {% if case.used %}
-<table><tr><th>As used</th><th>Value</th><th>Unit</th></tr>
+<table><tr><th>As used{% if case.differs_from is not none %} (what differs from case {{ case.differs_from }}){% endif %}</th><th>Value</th><th>Unit</th></tr>
 {% for name, value, unit in case.used %}<tr><td>{{ name }}</td><td class="num">{{ value }}</td><td>{{ unit }}</td></tr>{% endfor %}
 </table>
 {% endif %}
@@ -86,6 +95,23 @@ controlling criterion: {{ line.controlling }}{% if line.case %}; governing case:
 <td class="num">{{ c.reynolds }}</td><td class="num">{{ c.friction }}</td><td>{{ c.regime }}</td><td>{{ c.worst }}</td>
 <td class="num">{{ c.utilisation }}</td><td class="{{ c.result }}">{{ c.result }}</td></tr>
 {% endfor %}
+</table>
+{% endif %}
+{% if case.totals %}
+<table class="totals"><tr><th>Hydraulics at the selected size</th><th>Value</th><th>Unit</th></tr>
+{% for name, value, unit in case.totals %}<tr><td>{{ name }}</td><td{% if unit %} class="num"{% endif %}>{{ value }}</td><td>{{ unit }}</td></tr>{% endfor %}
+</table>
+{% endif %}
+{% if case.fittings %}
+<table class="fittings"><tr><th>Fitting</th><th>Count</th><th>K each</th><th>L_eq each [m]</th><th>K from</th></tr>
+{% for f in case.fittings %}<tr><td>{{ f.kind }}</td><td class="num">{{ f.count }}</td><td class="num">{{ f.k }}</td>
+<td class="num">{{ f.leq }}</td><td>{{ f.source }}</td></tr>{% endfor %}
+</table>
+{% endif %}
+{% if case.equations %}
+<table class="equations"><tr><th>Quantity</th><th>Equation</th><th>With the numbers (SI)</th><th>Result</th></tr>
+{% for name, eq, numbers, result in case.equations %}<tr><td>{{ name }}</td><td class="eq">{{ eq }}</td>
+<td class="eq">{{ numbers }}</td><td class="num">{{ result }}</td></tr>{% endfor %}
 </table>
 {% endif %}
 {% if case.verdicts %}
