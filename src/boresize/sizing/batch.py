@@ -60,8 +60,10 @@ class ExecutorLike(Protocol):
 
 
 def is_executor(value: object) -> bool:
-    """True when ``value`` has callable ``submit`` and ``map`` (duck-typed, not only concurrent.futures)."""
-    return callable(getattr(value, "submit", None)) and callable(getattr(value, "map", None))
+    """True when ``value`` has callable ``submit`` and ``map`` (duck-typed, not only concurrent.futures); a class
+    (``ThreadPoolExecutor`` not called) is not one."""
+    return (not isinstance(value, type) and callable(getattr(value, "submit", None))
+            and callable(getattr(value, "map", None)))
 
 
 def executor_workers(executor: object) -> int | None:
