@@ -1,15 +1,16 @@
-# Every target does its own set-up from a fresh clone: it creates .venv and installs what it needs.
+# Every target does its own set-up from a fresh clone: it creates .venv and installs what it needs (every extra:
+# the report, workbook and progress-bar modules are extras, boresize[outputs]).
 PYTHON ?= python3
 VENV := .venv
 BIN := $(VENV)/bin
 STAMP := $(VENV)/.installed
 
-.PHONY: install test demo bench clean
+.PHONY: install test demo bench lowest clean
 
 $(STAMP): pyproject.toml
 	$(PYTHON) -m venv $(VENV)
 	$(BIN)/python -m pip install --quiet --upgrade pip
-	$(BIN)/python -m pip install --quiet -e ".[test]"
+	$(BIN)/python -m pip install --quiet -e ".[test,outputs]"
 	touch $(STAMP)
 
 install: $(STAMP)
@@ -36,6 +37,11 @@ demo: $(STAMP)
 # bench_mixtures.py: 300 natural-gas lines through the CLI against the thermo and CoolProp floors).
 bench: $(STAMP)
 	@for script in benchmarks/bench_*.py; do echo "== $$script"; $(BIN)/python $$script || exit 1; done
+
+# The declared minimum versions, proved: the lowest version of every direct dependency in a fresh venv (uv's
+# --resolution lowest-direct), then again with numpy 2, each running the smoke subset (.ci/smoke.py).
+lowest:
+	PYTHON=$(PYTHON) .ci/lowest-versions
 
 clean:
 	rm -rf $(VENV) build *.egg-info src/*.egg-info .pytest_cache

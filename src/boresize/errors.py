@@ -104,9 +104,10 @@ class UsageError(BoresizeError, ValueError):
     """The command line asks for something that cannot be done (exit code 2)."""
 
 
-#: import name -> the package pip installs it from
-OPTIONAL_MODULES: dict[str, str] = {"matplotlib": "matplotlib", "openpyxl": "openpyxl", "jinja2": "jinja2",
-                                    "rich": "rich"}
+#: import name -> the extra of boresize that installs it (pyproject.toml's [project.optional-dependencies];
+#: ``boresize[outputs]`` installs them all)
+OPTIONAL_MODULES: dict[str, str] = {"matplotlib": "report", "openpyxl": "xlsx", "jinja2": "report",
+                                    "rich": "progress"}
 
 
 class MissingModuleError(BoresizeError, ImportError):
@@ -123,5 +124,7 @@ def missing_module(exc: ImportError, output: str | None) -> MissingModuleError |
     if module not in OPTIONAL_MODULES:
         return None
     what = output or "this output"
-    return MissingModuleError(f"the Python module '{module}' is not installed, and {what} needs it: "
-                              f"pip install {OPTIONAL_MODULES[module]}", module)
+    extra = OPTIONAL_MODULES[module]
+    return MissingModuleError(f"the Python module '{module}' is not installed, and {what} needs it: install "
+                              f"boresize[{extra}] (pip install \"boresize[{extra}]\", or boresize[outputs] for "
+                              f"every output)", module)

@@ -153,3 +153,103 @@ def test_dask_local_cluster(items, reference):
             return size_many(items, executor=client.get_executor(), plugins=False, chunk_size=2)
 
     assert _entries(_within(TIME_LIMIT_S, on_cluster)) == reference
+
+
+class _SubmitMapOnly:
+    """A duck-typed executor: ``submit`` and ``map`` only, not a concurrent.futures.Executor; it runs each task
+    when it is submitted and says it has 3 workers (``_max_workers``), so chunks follow that count."""
+
+    _max_workers = 3
+
+    def __init__(self) -> None:
+        self.submitted = 0
+
+    def submit(self, fn, /, *args, **kwargs):  # type: ignore[no-untyped-def]
+        self.submitted += 1
+        value = fn(*args, **kwargs)
+
+        class Done:
+            def result(self, timeout=None):  # type: ignore[no-untyped-def]
+                return value
+
+        return Done()
+
+    def map(self, fn, *iterables):  # type: ignore[no-untyped-def]
+        return map(fn, *iterables)
+
+
+def test_a_duck_typed_executor_gives_the_serial_results(items, reference):
+    from concurrent.futures import Executor
+
+    executor = _SubmitMapOnly()
+    assert not isinstance(executor, Executor)
+    assert _entries(size_many(items, executor=executor, plugins=False)) == reference
+    # 10 items on 3 workers: about eight chunks a worker, 1 line each (batch._chunks), so 10 tasks
+    assert executor.submitted == len(items)
+    assert _entries(list(api.run_lines(items, plugins=False, executor=_SubmitMapOnly()).results)) == reference
+
+
+def test_executor_workers_reads_pools_and_dask_clients():
+    class Client:  # dask.distributed.Client's nthreads(): worker address -> threads, for the whole cluster
+        def nthreads(self):  # type: ignore[no-untyped-def]
+            return {"tcp://a:1": 4, "tcp://b:1": 8}
+
+    class ClientExecutor:  # Client.get_executor() holds its client in _client
+        _client = Client()
+
+    with ThreadPoolExecutor(max_workers=5) as pool:
+        assert batch.executor_workers(pool) == 5
+    assert batch.executor_workers(Client()) == 12
+    assert batch.executor_workers(ClientExecutor()) == 12
+    assert batch.executor_workers(object()) is None
+
+
+@pytest.mark.parametrize("bad", ["pool", 3, object(), type("OnlySubmit", (), {"submit": lambda self, fn: None})(),
+                                 ThreadPoolExecutor])  # the class, not called
+def test_an_object_without_submit_and_map_is_refused(items, bad):
+    from boresize.errors import InputError
+
+    with pytest.raises(InputError, match="is not an executor") as caught:
+        size_many(items[:1], executor=bad, plugins=False)
+    assert caught.value.field == "executor" and "submit() and map()" in caught.value.expected
+    with pytest.raises(InputError, match="is not an executor"):
+        api.run_lines(items[:1], plugins=False, executor=bad)
+
+
+CRITERIA_TOML = """version = "deleted-file test"
+[service.liquid]
+phase = "liquid"
+velocity = { max = "0.5 m/s" }
+"""
+
+
+class _DeletesTheFileFirst:
+    """Deletes the criteria file at the first submit, then runs every task on a spawned process (a fresh
+    interpreter: no sizer inherited from this one), as a cluster's worker on another machine would."""
+
+    def __init__(self, path: Path, pool: ProcessPoolExecutor) -> None:
+        self.path, self.pool = path, pool
+
+    def submit(self, fn, /, *args):  # type: ignore[no-untyped-def]
+        self.path.unlink(missing_ok=True)
+        return self.pool.submit(fn, *args)
+
+    def map(self, fn, *iterables):  # type: ignore[no-untyped-def]
+        return self.pool.map(fn, *iterables)
+
+
+def test_criteria_deleted_after_the_run_starts_still_reach_the_workers(tmp_path):
+    import multiprocessing
+
+    criteria = tmp_path / "criteria.toml"
+    criteria.write_text(CRITERIA_TOML, encoding="utf-8")
+    lines = [make_line(tag=f"V-{i}", fluid="water", flow=f"{10 + i} t/h", pressure="5 barg", temperature="30 degC",
+                       service="liquid") for i in range(4)]
+    serial = size_many(lines, criteria=criteria, plugins=False, workers=1)
+    with ProcessPoolExecutor(1, mp_context=multiprocessing.get_context("spawn")) as pool:
+        remote = size_many(lines, _DeletesTheFileFirst(criteria, pool), criteria=criteria, plugins=False)
+    assert not criteria.exists()
+    assert _entries(remote) == _entries(serial)
+    # the file's 0.5 m/s limit, not the shipped liquid set's, judged every line on the worker
+    limits = [v["limit"] for e in _entries(remote) for v in e["verdicts"] if v["criterion"] == "velocity"]
+    assert len(limits) == len(lines) and all(limit == pytest.approx(0.5) for limit in limits)

@@ -25,7 +25,7 @@ from typing import TYPE_CHECKING, Union
 
 from boresize.api.result import SizingResult
 from boresize.io.values import number_text, quantity_text
-from boresize.sizing.batch import SizerSpec, run_items, shared_sizer, size_item, spec_for
+from boresize.sizing.batch import ExecutorLike, SizerSpec, is_executor, run_items, shared_sizer, size_item, spec_for
 from boresize.errors import InputError, UnitError
 from boresize.io.line_items import LineItem, RowFault
 from boresize.model import Line
@@ -210,15 +210,16 @@ def checked_item(value: object, position: int) -> Item:
 
 
 # -- many lines --------------------------------------------------------------------------------
-def size_many(lines: Iterable[Item], executor: Executor | None = None, *, workers: int | None = None,
+def size_many(lines: Iterable[Item], executor: Executor | ExecutorLike | None = None, *, workers: int | None = None,
               criteria: str | Path | None = None, plugins: bool = True,
               chunk_size: int | None = None, bare_pressure: BarePressure | None = None) -> list[SizingResult]:
     """Size (or check) many lines; one result per item, in input order.
 
     :param lines: Lines, or lists of one line's operating cases
-    :param executor: any :class:`concurrent.futures.Executor` (a thread or process pool, a dask
-        client's ``get_executor()``); it is not shut down here. Workers build their own sizer from
-        ``criteria`` (give a path every worker can read) and ``plugins``.
+    :param executor: any object with ``submit`` and ``map`` (a thread or process pool, a dask ``Client`` or its
+        ``get_executor()``); it is not shut down here. Workers build their own sizer from ``criteria`` (sent
+        by content: the workers need no copy of the file) and ``plugins``; chunks follow the executor's worker
+        count where it says it (a dask client: the cluster's threads).
     :param workers: worker processes to size on when no executor is given (1: this process alone); default:
         one per CPU from :data:`PROCESS_THRESHOLD` lines, else 1
     :param chunk_size: lines per task (default: about eight tasks per worker, 1 to 64 lines each)
@@ -227,9 +228,10 @@ def size_many(lines: Iterable[Item], executor: Executor | None = None, *, worker
     """
     items = [reread_item(checked_item(value, i), bare_pressure) for i, value in enumerate(lines, start=1)]
     spec = spec_for(criteria, plugins, None)
-    if executor is not None and not isinstance(executor, Executor):
+    if executor is not None and not is_executor(executor):
         raise InputError(f"a {type(executor).__name__} is not an executor", field="executor",
-                         value=repr(executor)[:80], expected="a concurrent.futures.Executor or None")
+                         value=repr(executor)[:80], expected="an object with submit() and map() (a "
+                         "concurrent.futures executor, a dask Client) or None")
     if workers is not None and (isinstance(workers, bool) or not isinstance(workers, int) or workers < 1):
         raise InputError(f"workers {workers!r} is not a whole number of 1 or more", field="workers", value=workers,
                          expected="1 or more worker processes, or None")

@@ -30,7 +30,7 @@ from boresize.io.csv_reader import LineList
 from boresize.io.document_block import DocumentBlock, document_block as as_document_block
 from boresize.model import Line, LineResult
 from boresize.report.trace import Traceability, traceability
-from boresize.sizing.batch import SizerSpec, run_items, spec_for, summary
+from boresize.sizing.batch import ExecutorLike, SizerSpec, run_items, spec_for, summary
 from boresize.sizing.headroom import Headroom
 from boresize.units import BarePressure, bare_pressure_mode
 
@@ -155,7 +155,8 @@ class Run:
 
 
 def run_lines(lines: LineSource, criteria: str | Path | None = None, *, workers: int = 1,
-              executor: Executor | None = None, every_size: bool = False, corroded_roughness: str | float | None = None,
+              executor: Executor | ExecutorLike | None = None, every_size: bool = False,
+              corroded_roughness: str | float | None = None,
               plugins: bool = True, progress: bool | None = False, headroom: bool = False,
               units_row: bool | None = None, bare_pressure: BarePressure | None = None,
               document: DocumentBlock | Mapping[str, Any] | str | Path | None = None) -> Run:
@@ -163,7 +164,8 @@ def run_lines(lines: LineSource, criteria: str | Path | None = None, *, workers:
 
     :param criteria: a criteria TOML file (the shipped sets when None)
     :param workers: worker processes to size on (1: this process alone)
-    :param executor: any :class:`concurrent.futures.Executor` to size on instead (not shut down here)
+    :param executor: any object with ``submit`` and ``map`` to size on instead (a concurrent.futures executor, a
+        dask ``Client``; not shut down here); the criteria go to its workers by content
     :param every_size: rate every size of the pipe class (same selection, slower)
     :param corroded_roughness: absolute roughness for lines checked at a given NPS ("0.5 mm", or metres)
     :param plugins: False to use only boresize's built-in plugins (no entry points)
@@ -417,7 +419,8 @@ def _headroom_text(rooms: Sequence[Headroom]) -> str:
 
 
 def size_dataframe(frame: pd.DataFrame, *, criteria: str | Path | None = None, plugins: bool = True,
-                   executor: Executor | None = None, workers: int = 1, units_row: bool | None = None) -> pd.DataFrame:
+                   executor: Executor | ExecutorLike | None = None, workers: int = 1,
+                   units_row: bool | None = None) -> pd.DataFrame:
     """Size (or check) every line of a DataFrame of streams; the results as
     :func:`boresize.io.dataframe.results_dataframe` lays them out (input columns, then the result columns named as
     the JSON keys, ``velocity_m_s`` ...), one row per input row in input order, under the input frame's index (a

@@ -10,8 +10,10 @@ that line (an ``error`` result). So does a worker process that dies (a plugin's 
 running out): the chunks it left are run again one at a time on a fresh process, and a line that ends that
 process too gets an ``error`` result saying so (:data:`WORKER_DIED`); the other lines are sized.
 
-Any :class:`concurrent.futures.Executor` can be passed (a thread pool, a cluster's executor): the
-task builds the worker's sizer on first use when no initializer did.
+Any executor can be passed: an object with ``submit`` and ``map`` (:class:`ExecutorLike`: a thread pool, a dask
+``Client`` or its ``get_executor()``) whose futures have ``result()``; the task builds the worker's sizer on
+first use when no initializer did. The criteria travel by content (:attr:`SizerSpec.criteria_content`), and the
+chunks are sized by the executor's worker count where it says it (:func:`executor_workers`).
 """
 
 from __future__ import annotations
@@ -23,12 +25,12 @@ import multiprocessing
 import sys
 import threading
 from collections.abc import Callable, Iterator, Sequence
-from concurrent.futures import Executor, ProcessPoolExecutor, as_completed
+from concurrent.futures import Executor, Future, ProcessPoolExecutor, as_completed
 from concurrent.futures.process import BrokenProcessPool
 from contextlib import AbstractContextManager, contextmanager, nullcontext
 from dataclasses import dataclass, field
 from pathlib import Path
-from typing import Any, TextIO, Union
+from typing import Any, Protocol, TextIO, Union, runtime_checkable
 
 from boresize.errors import BoresizeError, InputError
 from boresize.io.line_items import RowFault
@@ -37,7 +39,7 @@ from boresize.sizing import cases as _cases
 from boresize.sizing.engine import Sizer
 from boresize.sizing.selection import error_result
 
-__all__ = ["PROGRESS_THRESHOLD", "Item", "SizerSpec", "process_pool", "run_items", "run_chunks", "shared_sizer", "WORKER_DIED",
+__all__ = ["PROGRESS_THRESHOLD", "ExecutorLike", "Item", "executor_workers", "is_executor", "SizerSpec", "process_pool", "run_items", "run_chunks", "shared_sizer", "WORKER_DIED",
            "size_item", "spec_for", "summary"]
 
 #: A run of at least this many lines shows a progress bar on a terminal without being asked [lines].
@@ -45,6 +47,45 @@ PROGRESS_THRESHOLD = 50
 #: One line to size: a Line, a row the reader could not read, or one line's cases (Lines or faults).
 Item = Union[Line, RowFault, Sequence[Union[Line, RowFault]]]
 _SIZERS: dict[SizerSpec, Sizer] = {}
+
+
+@runtime_checkable
+class ExecutorLike(Protocol):
+    """What a batch needs of an executor: ``submit(fn, *args)`` returning a future with ``result()``, and
+    ``map`` (concurrent.futures executors, dask's ``Client`` and ``ClientExecutor``, loky, ...)."""
+
+    def submit(self, fn: Callable[..., Any], /, *args: Any, **kwargs: Any) -> Any: ...
+
+    def map(self, fn: Callable[..., Any], *iterables: Any, **kwargs: Any) -> Any: ...
+
+
+def is_executor(value: object) -> bool:
+    """True when ``value`` has callable ``submit`` and ``map`` (duck-typed, not only concurrent.futures); a class
+    (``ThreadPoolExecutor`` not called) is not one."""
+    return (not isinstance(value, type) and callable(getattr(value, "submit", None))
+            and callable(getattr(value, "map", None)))
+
+
+def executor_workers(executor: object) -> int | None:
+    """How many tasks ``executor`` runs at once, where it says: ``_max_workers`` (concurrent.futures, loky),
+    ``max_workers``, or a dask client's threads over the whole cluster (``nthreads()``; a ``ClientExecutor`` through
+    its client); None when unknown."""
+    for name in ("_max_workers", "max_workers"):
+        count = getattr(executor, name, None)
+        if isinstance(count, int) and not isinstance(count, bool) and count >= 1:
+            return count
+    client = getattr(executor, "_client", executor)
+    nthreads = getattr(client, "nthreads", None)
+    if not callable(nthreads):
+        return None
+    try:
+        threads = nthreads()
+    except (OSError, TimeoutError, RuntimeError, ValueError, TypeError, AttributeError):  # a closed client
+        return None
+    if isinstance(threads, dict):
+        total = sum(n for n in threads.values() if isinstance(n, int) and not isinstance(n, bool))
+        return total if total >= 1 else None
+    return None
 _SIZERS_LOCK = threading.Lock()
 
 
@@ -61,6 +102,9 @@ class SizerSpec:
     :param every_size: rate every size of the pipe class (see :class:`~boresize.sizing.engine.Sizer`)
     :param criteria_digest: SHA-256 of the criteria file's bytes (None: no file, or it cannot be read)
     :param criteria_name: the criteria file as the caller named it: messages name it so where it is that file
+    :param criteria_content: the criteria file's bytes as the caller read them (None: no file, or it cannot be
+        read): workers size with these, so a worker needs no copy of the file (a cluster's machines) and a file
+        edited or deleted after the run starts changes nothing
     """
 
     criteria_file: str | None = None
@@ -69,14 +113,17 @@ class SizerSpec:
     every_size: bool = False
     criteria_digest: str | None = None
     criteria_name: str | None = field(default=None, compare=False)
+    criteria_content: bytes | None = field(default=None, compare=False, repr=False)
 
     def build(self) -> Sizer:
         from boresize.plugins import PluginHost
+        from boresize.sizing.services import load_config
 
         host = PluginHost.load(load_entry_points=self.load_entry_points)
         named = self.criteria_name
         path = named if named and str(Path(named).resolve()) == self.criteria_file else self.criteria_file
-        return Sizer(host, criteria_file=path, check_roughness=self.check_roughness, every_size=self.every_size)
+        config = None if path is None else load_config(host, path, self.criteria_content)
+        return Sizer(host, config, check_roughness=self.check_roughness, every_size=self.every_size)
 
 
 def shared_sizer(spec: SizerSpec) -> Sizer:
@@ -95,16 +142,17 @@ def shared_sizer(spec: SizerSpec) -> Sizer:
 
 def spec_for(criteria_file: str | Path | None, load_entry_points: bool, check_roughness: float | None, *,
              every_size: bool = False) -> SizerSpec:
-    """A spec with the criteria path made absolute (workers may not share the parent's working directory)
-    and the digest of the file's bytes as they are now."""
+    """A spec with the criteria file's bytes as they are now (sent to workers by content) and their digest; the
+    path made absolute names the file in messages."""
     if not criteria_file:
         return SizerSpec(None, load_entry_points, check_roughness, every_size)
     path = Path(criteria_file).resolve()
     try:
-        digest: str | None = hashlib.sha256(path.read_bytes()).hexdigest()
+        content: bytes | None = path.read_bytes()
     except OSError:  # the sizer's build names the file it cannot read
-        digest = None
-    return SizerSpec(str(path), load_entry_points, check_roughness, every_size, digest, str(criteria_file))
+        content = None
+    digest = None if content is None else hashlib.sha256(content).hexdigest()
+    return SizerSpec(str(path), load_entry_points, check_roughness, every_size, digest, str(criteria_file), content)
 
 
 def size_item(sizer: Sizer, item: Item) -> LineResult:
@@ -253,7 +301,7 @@ def _progress(total: int, show: bool | None, stream: TextIO | None) -> Iterator[
 
 
 def run_items(items: Sequence[Item], spec: SizerSpec | None = None, *, sizer: Sizer | None = None,
-              executor: Executor | None = None, workers: int = 1, progress: bool | None = None,
+              executor: Executor | ExecutorLike | None = None, workers: int = 1, progress: bool | None = None,
               chunk_size: int | None = None, progress_stream: TextIO | None = None,
               retry_hint: str = "--workers 1", criterion_seconds: dict[str, float] | None = None) -> list[LineResult]:
     """Size or check every line; one result per item, in input order.
@@ -262,15 +310,21 @@ def run_items(items: Sequence[Item], spec: SizerSpec | None = None, *, sizer: Si
     :param spec: how workers build their sizer (also used here when ``sizer`` is not given)
     :param sizer: the sizer to use in this process; in a parallel run on processes started here it sizes the
         first line before they start, so that forked workers inherit the property libraries it loaded
-    :param executor: any executor to run chunks on (it is not shut down here)
+    :param executor: any executor to run chunks on (:class:`ExecutorLike`; it is not shut down here)
     :param workers: worker processes to start when no executor is given (1: size here, start none)
     :param progress: True/False to force the progress bar on or off; None shows it on a terminal for long runs
-    :param chunk_size: lines per task (default: about eight tasks per worker, 1 to 64 lines each)
+    :param chunk_size: lines per task (default: about eight tasks per worker, 1 to 64 lines each; the workers are
+        the executor's own count where it says it, :func:`executor_workers`, else ``workers``)
     :param retry_hint: how the caller asks for one process, for the message when a worker dies
     :param criterion_seconds: given, the seconds spent in each criterion's evaluate over these lines are added
         to it (criterion id -> seconds, summed over every process)
-    :raises InputError: a parallel run given a ``sizer`` but no ``spec`` (workers could not rebuild it)
+    :raises InputError: a parallel run given a ``sizer`` but no ``spec`` (workers could not rebuild it), an
+        executor without ``submit`` and ``map``
     """
+    if executor is not None and not is_executor(executor):
+        raise InputError(f"a {type(executor).__name__} is not an executor", field="executor",
+                         value=repr(executor)[:80], expected="an object with submit() and map() (a "
+                         "concurrent.futures executor, a dask Client) or None")
     parallel = executor is not None or workers > 1
     if parallel and spec is None and sizer is not None:
         raise InputError("a parallel run cannot send a Sizer to its workers", field="spec", value=None,
@@ -298,7 +352,8 @@ def run_items(items: Sequence[Item], spec: SizerSpec | None = None, *, sizer: Si
     rest = items[len(head):]
     if not rest:
         return head
-    return head + run_chunks(_run_chunk, spec, _chunks(rest, workers, chunk_size), executor=executor,
+    count = (executor_workers(executor) if executor is not None else None) or workers
+    return head + run_chunks(_run_chunk, spec, _chunks(rest, count, chunk_size), executor=executor,
                              workers=workers, retry_hint=retry_hint, progress=bar, already_done=len(head),
                              lost=_lost, criterion_seconds=criterion_seconds)
 
@@ -311,7 +366,7 @@ def _lost(item: Item, cause: str) -> LineResult:
 
 
 def run_chunks(task: Callable[[SizerSpec, Any], list[Any]], spec: SizerSpec, chunks: Sequence[Sequence[Any]], *,
-               executor: Executor | None, workers: int, retry_hint: str,
+               executor: Executor | ExecutorLike | None, workers: int, retry_hint: str,
                progress: Callable[[], AbstractContextManager[Callable[[int], None]]] | None = None,
                already_done: int = 0, lost: Callable[[Any, str], Any] | None = None,
                criterion_seconds: dict[str, float] | None = None) -> list[Any]:
@@ -328,23 +383,23 @@ def run_chunks(task: Callable[[SizerSpec, Any], list[Any]], spec: SizerSpec, chu
     :param criterion_seconds: given, each chunk's seconds per criterion (a :class:`TimedResults`') are added to it
     :raises BoresizeError: a worker process died and no ``lost`` was given
     """
-    pool = executor or process_pool(workers, spec)
+    pool: Executor | ExecutorLike = executor or process_pool(workers, spec)
     done: list[list[Any] | None] = [None for _ in chunks]
     try:
         with _COLLECTOR_PAUSE:
-            futures = {pool.submit(task, spec, chunk): i for i, chunk in enumerate(chunks)}
+            futures = [(pool.submit(task, spec, chunk), i) for i, chunk in enumerate(chunks)]
             with (progress or nullcontext)() as advance:
                 step = advance if advance is not None else (lambda n: None)
                 step(already_done)
-                for future in as_completed(futures):
+                for future, i in _finished(futures):
                     try:
-                        done[futures[future]] = chunk = future.result()
+                        done[i] = chunk = future.result()
                     except BrokenProcessPool:
                         if lost is None:
                             raise
                         continue
                     _add(criterion_seconds, getattr(chunk, "criterion_seconds", {}))
-                    step(len(chunks[futures[future]]))
+                    step(len(chunks[i]))
                 left = [i for i, chunk in enumerate(done) if chunk is None]
                 if lost is not None and left:
                     for i, results in zip(left, _isolated(task, spec, [chunks[i] for i in left], lost)):
@@ -355,9 +410,20 @@ def run_chunks(task: Callable[[SizerSpec, Any], list[Any]], spec: SizerSpec, chu
         raise BoresizeError(f"a worker process stopped unexpectedly ({exc}); run again with {retry_hint} to "
                             f"find the line that stops it") from exc
     finally:
-        if executor is None:
+        if executor is None and isinstance(pool, Executor):
             pool.shutdown(wait=True, cancel_futures=True)
     return [result for chunk in done for result in chunk or ()]
+
+
+def _finished(futures: list[tuple[Any, int]]) -> Iterator[tuple[Any, int]]:
+    """The (future, chunk index) pairs as they finish (concurrent.futures futures), else in submission order (any
+    other future: its ``result()`` waits)."""
+    if all(isinstance(future, Future) for future, _ in futures):
+        index = dict(futures)
+        for future in as_completed(index):
+            yield future, index[future]
+    else:
+        yield from futures
 
 
 #: Why an item has no result of its own when its worker process ended (``lost`` in :func:`run_chunks`).

@@ -105,15 +105,18 @@ class SizingConfig:
         return self.pipe_classes[key]
 
 
-def read_toml(path: str | Path) -> dict[str, Any]:
-    """Read a TOML file; a syntax error becomes a CriteriaFileError naming the file."""
+def read_toml(path: str | Path, content: bytes | None = None) -> dict[str, Any]:
+    """Read a TOML file, or its ``content`` already read (named by ``path``); a fault becomes a CriteriaFileError
+    naming the file."""
     try:
-        with open(path, "rb") as handle:
-            return tomllib.load(handle)
+        if content is None:
+            with open(path, "rb") as handle:
+                content = handle.read()
+        return tomllib.loads(content.decode("utf-8"))
     except OSError as exc:
         raise CriteriaFileError(f"cannot read {path}: {exc.strerror}", field="criteria", value=str(path),
                                 expected="a readable TOML file") from exc
-    except UnicodeDecodeError as exc:  # TOML is UTF-8 text; tomllib decodes before it parses
+    except UnicodeDecodeError as exc:  # TOML is UTF-8 text
         raise CriteriaFileError(f"{path} is not UTF-8 text", field="criteria", value=str(path),
                                 expected="a TOML file saved as UTF-8") from exc
     except tomllib.TOMLDecodeError as exc:
@@ -242,8 +245,9 @@ def _merge_shipped(config: SizingConfig, host: PluginHost) -> None:
     config.version = ", ".join(f"{name} {version}" for name, version in config.sets.items())
 
 
-def load_config(host: PluginHost, path: str | Path | None = None) -> SizingConfig:
-    """The shipped criteria sets and pipe classes, then the criteria file at ``path`` if given.
+def load_config(host: PluginHost, path: str | Path | None = None, content: bytes | None = None) -> SizingConfig:
+    """The shipped criteria sets and pipe classes, then the criteria file at ``path`` if given (its ``content``
+    when given: a worker sizes with the bytes the caller read, not a file it may not have).
 
     Services from the file are stamped with the file's ``name`` (else its file name) and ``version``
     (else "unversioned").
@@ -252,7 +256,7 @@ def load_config(host: PluginHost, path: str | Path | None = None) -> SizingConfi
     config = SizingConfig(services={}, pipe_classes=classes, version="")
     _merge_shipped(config, host)
     if path is not None:
-        document = read_toml(path)
+        document = read_toml(path, content)
         label = (_label(document, "name", Path(path).name), _label(document, "version", "unversioned"))
         try:
             _merge(config, document, host, str(path), label)
