@@ -280,7 +280,7 @@ def test_quiet_prints_no_table_no_summary_but_errors_and_one_caution_line(capsys
     assert (code, out) == (1, "")
     assert err.splitlines() == [
         "boresize: error: line B: flow: '10 bar' is a pressure, not a flow; expected a mass flow (kg/h, t/h, kg/s, "
-        "lb/h), a volume flow (m3/h, l/min, gpm) or a standard gas volume flow (Sm3/h, Nm3/h, MMSCFD)",
+        "lb/h), a volume flow (m3/h, l/min, gpm), a standard gas volume flow (Sm3/h, Nm3/h, MMSCFD) or a molar flow (kmol/h, lbmol/h)",
         "boresize: screening calculations: check them against the applicable codes and your company's standards "
         "before use"]
     assert json.loads((tmp_path / "r.json").read_text(encoding="utf-8"))["summary"]["error"] == 1

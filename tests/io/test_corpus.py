@@ -96,6 +96,7 @@ def test_every_corpus_file_has_its_expected_errors_and_every_case_its_file() -> 
     on_disk = {p for p in on_disk if "__pycache__" not in p}
     used = {name.split(":")[0] for name in FILES}  # "plugins/corpus_plugins.py:OBJECT" is one object of that file
     used |= {arg for spec in FILES.values() for arg in spec.get("args", []) if "." in arg}
+    used |= {name for spec in FILES.values() for name in spec.get("data", [])}  # files a criteria file names
     assert on_disk == used, "every corpus file needs a [file.NAME] table in expected.toml, and the reverse"
     assert {c["file"] for c in CASES} <= set(FILES)
 

@@ -13,6 +13,9 @@ LBMOL = 453.59237  # mol per pound-mole: the avoirdupois pound is exactly 0.4535
 @pytest.mark.parametrize(("text", "mol_s"), [
     ("100 kmol/h", 100_000 / 3600), ("1 mol/s", 1.0), ("10 lbmol/h", 10 * LBMOL / 3600),
     ("24 kmol/d", 1000 / 3600), ("3 kgmol/h", 3000 / 3600), ("5 lbmole/h", 5 * LBMOL / 3600),
+    # the pound-mole and kilogram-mole in two words, as line lists write them
+    ("10 lb-mol/h", 10 * LBMOL / 3600), ("10 lb mol/h", 10 * LBMOL / 3600), ("10 LB-MOL/HR", 10 * LBMOL / 3600),
+    ("10 Lb-Mole/h", 10 * LBMOL / 3600), ("3 kg-mol/h", 3000 / 3600), ("3 kg mole/h", 3000 / 3600),
 ])
 def test_molar_units(text: str, mol_s: float) -> None:
     flow = parse_flow(text)
@@ -47,3 +50,11 @@ def test_a_line_with_its_own_density_has_no_molar_mass() -> None:
                             viscosity="2 cP"), plugins=False)
     assert result.status == "error"
     assert "needs the stream's molar mass" in (result.error or "")
+
+
+def test_flow_help_names_molar_units() -> None:
+    from boresize.errors import InputError
+
+    with pytest.raises(InputError) as caught:
+        parse_flow("100 furlong")
+    assert "a molar flow (kmol/h, lbmol/h)" in str(caught.value)

@@ -102,7 +102,8 @@ SPELLINGS: list[tuple[str, str, Reference]] = [
     ("t/d", "mass_flow", plain("metric_ton/day", "mass_flow")),
     ("kg/s", "mass_flow", plain("kilogram/second", "mass_flow")),
     # pound-mole: 453.59237 mol, from the exact avoirdupois pound (NIST SP 811 B.9)
-    *[(u, "molar", lambda x: x * 453.59237 / HOUR) for u in ("lbmol/h", "lbmole/h", "lbmoles/h")],
+    *[(u, "molar", lambda x: x * 453.59237 / HOUR) for u in ("lbmol/h", "lbmole/h", "lbmoles/h", "LBMOL/h",
+                                                                    "lb-mol/h", "lb mole/h")],
     *[(u, "molar", plain("kilomole/hour", "molar")) for u in ("kmol/h", "kgmol/h", "kgmole/h", "Kmol/h", "KMOL/h",
                                                               "kmole/h", "kmoles/h")],
     *[(u, "mass_flow", plain("pound/hour", "mass_flow")) for u in ("lb/h", "lbs/h", "lbm/h")],

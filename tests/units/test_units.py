@@ -33,8 +33,8 @@ US_GALLON = 3.785411784e-3  # m3, exact (NIST SP 811 B.9, gallon [U.S.])
 FOOT = 0.3048  # m, exact (NIST SP 811 B.9)
 CUBIC_FOOT = FOOT**3  # 0.028316846592 m3, exact
 ATM = 101325.0  # Pa, exact (NIST SP 811 B.9, standard atmosphere)
-FLOW_HELP = ("a mass flow (kg/h, t/h, kg/s, lb/h), a volume flow (m3/h, l/min, gpm) or a standard gas "
-             "volume flow (Sm3/h, Nm3/h, MMSCFD)")
+FLOW_HELP = ("a mass flow (kg/h, t/h, kg/s, lb/h), a volume flow (m3/h, l/min, gpm), a standard gas "
+             "volume flow (Sm3/h, Nm3/h, MMSCFD) or a molar flow (kmol/h, lbmol/h)")
 LENGTH_HELP = "a length (m, mm, km, ft, in)"
 DIFFERENCE_UNITS = "bar, kPa, psi, without g or a"
 

@@ -51,6 +51,12 @@ def render_pipe_classes(config: SizingConfig) -> str:
     out = ["Pipe classes:"]
     for name in sorted(config.pipe_classes):
         pc = config.pipe_classes[name]
+        catalogue = getattr(pc, "catalogue", "")
+        if catalogue:  # a class over a user's CSV or a fluids.piping table: sizes as that catalogue names them
+            schedule = f", schedule {pc.schedule}" if pc.schedule else ""
+            out.append(f"  {name}: {pc.material}{schedule}, catalogue {catalogue}")
+            out.append(f"      sizes: {', '.join(pc.sizes)}")
+            continue
         out.append(f"  {name}: {pc.material}, schedule {pc.schedule}, roughness {pc.roughness * 1e3:g} mm")
         overrides = ", ".join(f"{nps}: {sch}" for nps, sch in pc.schedule_by_nps)
         if overrides:
@@ -58,6 +64,13 @@ def render_pipe_classes(config: SizingConfig) -> str:
         out.append(f"      sizes: {', '.join(pc.sizes)}" + (f" (minimum {pc.min_nps})" if pc.min_nps else ""))
     out.append("")
     out.append("Use 'boresize pipes --nps 4' for the schedules of one size (ASME B36.10M / B36.19M).")
+    out.append("")
+    out.append("Built-in catalogues for a class's 'catalogue' key (or a CSV file, see README):")
+    from boresize.pipes.fluids_tables import BUILTIN_CATALOGUES
+
+    for entry in BUILTIN_CATALOGUES.values():
+        out.append(f"  {entry.name:<14} {entry.standard}, via fluids.piping; {entry.material}, roughness "
+                   f"{entry.roughness_note}")
     return "\n".join(out) + "\n"
 
 

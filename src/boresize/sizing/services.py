@@ -210,7 +210,7 @@ def _check_feasibility(options: Mapping[str, Any], where: str) -> None:
 
 
 def _merge(config: SizingConfig, document: Mapping[str, Any], host: PluginHost, origin: str,
-           set_label: tuple[str, str]) -> None:
+           set_label: tuple[str, str], folder: Path | None = None) -> None:
     unknown = sorted(set(document) - set(TOP_KEYS))
     if unknown:
         raise CriteriaFileError(f"unknown table or key {unknown[0]!r}", field=unknown[0], value=unknown[0],
@@ -220,7 +220,7 @@ def _merge(config: SizingConfig, document: Mapping[str, Any], host: PluginHost, 
             raise CriteriaFileError(f"{key} = {document[key]!r} is not a table", field=key, value=document[key],
                                     expected=f"[{key}.NAME] tables")
     for name, table in document.get("pipe_class", {}).items():
-        config.pipe_classes[name] = pipe_class_from_table(name, table)
+        config.pipe_classes[name] = pipe_class_from_table(name, table, folder)
     for name, table in document.get("service", {}).items():
         config.services[name] = _service(name, table, host, origin, set_label)
     for service in config.services.values():
@@ -259,7 +259,7 @@ def load_config(host: PluginHost, path: str | Path | None = None, content: bytes
         document = read_toml(path, content)
         label = (_label(document, "name", Path(path).name), _label(document, "version", "unversioned"))
         try:
-            _merge(config, document, host, str(path), label)
+            _merge(config, document, host, str(path), label, Path(path).parent)
         except CriteriaFileError as exc:  # name the file: a fault in it is not one of the shipped sets'
             message = exc.message if str(path) in exc.message else f"{exc.message} (in {path})"
             raise CriteriaFileError(message, field=exc.field, value=exc.value, expected=exc.expected) from exc

@@ -46,8 +46,9 @@ _DESCRIPTIONS = (("kg/s", "a mass flow"), ("m**3/s", "a volume flow"), ("Pa", "a
                  ("Sm3/s", "a standard gas volume flow"), ("Nm3/s", "a standard gas volume flow"),
                  ("scf/s", "a standard gas volume flow"))
 _STANDARD_HELP = "a standard gas volume flow (Sm3/h, Nm3/h, MMSCFD)"
+_MOLAR_HELP = "a molar flow (kmol/h, lbmol/h)"
 _FLOW_HELP = (f"{_KINDS['mass_flow'][1]} ({_KINDS['mass_flow'][2]}), {_KINDS['volume_flow'][1]} "
-              f"({_KINDS['volume_flow'][2]}) or {_STANDARD_HELP}")
+              f"({_KINDS['volume_flow'][2]}), {_STANDARD_HELP} or {_MOLAR_HELP}")
 
 _DEFINITIONS = """
 barg = bar; offset: 1.01325
@@ -129,7 +130,7 @@ _ALIASES: dict[str, str] = {
     "PSI": "psi", "Psi": "psi",
     # pound-mole: 453.59237 mol (the avoirdupois pound, exactly 0.45359237 kg, of a gram-mole)
     "lbmol": "(453.59237*mol)", "lbmole": "(453.59237*mol)", "lbmoles": "(453.59237*mol)",
-    "kgmol": "kmol", "kgmole": "kmol", "Kmol": "kmol", "KMOL": "kmol", "kmole": "kmol", "kmoles": "kmol",
+    "LBMOL": "(453.59237*mol)", "kgmol": "kmol", "kgmole": "kmol", "Kmol": "kmol", "KMOL": "kmol", "kmole": "kmol", "kmoles": "kmol",
 }
 for _word in ("SCFD", "SCFH", "SCFM", "MSCF", "MMSCF", "MSCFD", "GPM", "USGPM", "LPM"):
     _ALIASES[_word] = _ALIASES[_word.lower()]
@@ -150,6 +151,8 @@ for _spelling, _stem in [("bar", "bar"), ("Bar", "bar"), ("BAR", "bar"), ("kPa",
     for _suffix, _mark in (("g", "g"), ("G", "g"), ("a", "a"), ("A", "a")):
         _ALIASES[_spelling + _suffix] = _stem + _mark
 
+# lb-mol, lb mol, kg-mol, kg mol: the trade's pound-mole and kilogram-mole written in two words
+_MOLE = re.compile(r"\b(lb|kg)[\s\-]?mol(?:e|es)?\b", re.IGNORECASE)
 _POWER = re.compile(r"(m|dm|cm|mm|um|km|ft|in|yd)([23])")
 _TOKEN = re.compile(r"[A-Za-z_][A-Za-z_0-9]*|%")
 _PER_NUMBER = re.compile(r"/\s*(\d+(?:\.\d+)?(?:[eE][+-]?\d+)?)\s*\*?\s*([A-Za-z_][A-Za-z_0-9]*(?:\*\*\d)?)")
@@ -222,6 +225,7 @@ def _normalise(unit: str, cell: _Cell) -> str:
         return _DELTA.get(unit, unit) if cell.kind == "temperature_difference" else unit
     if cell.kind == "dimensionless" and unit in ("-", "frac", "fraction"):
         return "dimensionless"
+    unit = _MOLE.sub(lambda match: "lbmol" if match.group(1).lower() == "lb" else "kmol", unit)
     unit = _TOKEN.sub(lambda match: _token(match.group(0), cell), unit)
     return _PER_NUMBER.sub(r"/(\1*\2)", unit)  # kPa/100 m -> kPa/(100*m)
 
