@@ -36,7 +36,7 @@ def saturated(fluid: str = "Water", p: float = 10e5, x: float = 0.1) -> FluidSta
 
 
 def line(**kw: object) -> Line:
-    base: dict[str, object] = dict(tag="TP-1", fluid="water", flow=Flow(2.0, "mass"), pressure=10e5,
+    base: dict[str, object] = dict(tag="TP-1", fluid="water", flow=Flow("mass", 2.0), pressure=10e5,
                                    temperature=453.0, length=100.0)
     base.update(kw)
     return Line(**base)  # type: ignore[arg-type]
@@ -200,3 +200,26 @@ def test_homogeneous_tends_to_single_phase(end: str, eps: float) -> None:
     tol = 3.0 * eps * (st8.liquid_density or 0) / (st8.gas_density or 1) + 1e-9  # the no-slip density's change
     assert h2.drop_per_length == pytest.approx(h1.drop_per_length, rel=tol)
     assert h2.velocity == pytest.approx(h1.velocity, rel=tol)
+
+
+@pytest.mark.parametrize(("change", "field"), [
+    ({"mass_flow": -2.0}, "flow"), ({"mass_flow": 0.0}, "flow"), ({"vapour_fraction": 1.5}, "vapour_fraction"),
+    ({"gas_density": 2000.0}, "gas_density"), ({"length": math.nan}, "length"),
+    ({"surface_tension": None}, "surface_tension")])
+def test_hostile_inputs_are_named(change: dict[str, object], field: str) -> None:
+    """Reversed or zero flow, a quality above 1, a vapour heavier than its liquid, a NaN length, no surface
+    tension for Beggs-Brill: each an InputError naming its field."""
+    from dataclasses import replace
+    state, mass, ln = saturated(), float(change.pop("mass_flow", 2.0)), line(length=change.pop("length", 100.0))
+    with pytest.raises(InputError) as err:
+        rate_two_phase(ln, replace(state, **change), PIPE, mass)  # type: ignore[arg-type]
+    assert err.value.field == field
+
+
+def test_zero_length_riser_keeps_its_static_head_and_tiny_pipe_chokes() -> None:
+    h = rate_two_phase(line(length=0.0, elevation=5.0), saturated(), PIPE, 2.0)
+    assert h.drop == 0.0 and h.static_drop > 0.0
+    assert h.total_drop == pytest.approx(h.static_drop + h.acceleration_drop)  # Beggs-Brill: 1/(1 - Ek)
+    tiny = Candidate("1/8", 0.125, "80", 0.0103, 0.0024, 0.0055, 4.5e-5)
+    h = rate_two_phase(line(), saturated(), tiny, 2.0)
+    assert h.choked and h.outlet_pressure == 0.0 and h.total_drop == 10e5

@@ -77,7 +77,15 @@ def _phases(state: FluidState, tag: str) -> _Phases:
         if value is None or not math.isfinite(value) or value < 0.0 or (name != "vapour_fraction" and value <= 0):
             raise InputError(f"the two-phase state has no usable {name} ({value!r})", field=name, value=value,
                              expected="the per-phase value from the property backend", tag=tag)
-    x = min(1.0, max(0.0, float(state.vapour_fraction)))  # type: ignore[arg-type]
+    x = float(state.vapour_fraction)  # type: ignore[arg-type]
+    if x > 1.0:
+        raise InputError(f"vapour fraction {x:g} is above 1", field="vapour_fraction", value=x,
+                         expected="a vapour mass fraction from 0 to 1", tag=tag)
+    if not state.gas_density < state.liquid_density:  # type: ignore[operator]
+        raise InputError(f"gas density {state.gas_density:g} kg/m3 is not below the liquid's "
+                         f"{state.liquid_density:g} kg/m3", field="gas_density", value=state.gas_density,
+                         expected="a vapour lighter than its liquid (a two-phase state below the critical point)",
+                         tag=tag)
     return _Phases(x, float(state.liquid_density), float(state.gas_density),  # type: ignore[arg-type]
                    float(state.liquid_viscosity), float(state.gas_viscosity),  # type: ignore[arg-type]
                    state.surface_tension)
@@ -92,6 +100,8 @@ def beggs_brill_holdup(m: float, ph: _Phases, diameter: float, angle: float) -> 
     fr, lam = vm * vm / (G * diameter), vsl / vm
     if lam <= 0.0:
         return 0.0
+    if lam >= 1.0:
+        return 1.0
     l1, l2, l3, l4 = 316.0 * lam**0.302, 0.0009252 * lam**-2.4684, 0.1 * lam**-1.4516, 0.5 * lam**-6.738
     if (lam < 0.01 and fr < l1) or (lam >= 0.01 and fr < l2):
         regime = 0
@@ -104,9 +114,11 @@ def beggs_brill_holdup(m: float, ph: _Phases, diameter: float, angle: float) -> 
     lv = vsl * (ph.rhol / (G * (ph.sigma or 0.02))) ** 0.25
     rad = math.radians(angle)
     if regime != 1:
-        return float(_Beggs_Brill_holdup(regime, lam, fr, rad, lv))
-    a = (l3 - fr) / (l3 - l2)
-    return float(a * _Beggs_Brill_holdup(0, lam, fr, rad, lv) + (1 - a) * _Beggs_Brill_holdup(2, lam, fr, rad, lv))
+        hl = float(_Beggs_Brill_holdup(regime, lam, fr, rad, lv))
+    else:
+        a = (l3 - fr) / (l3 - l2)
+        hl = float(a * _Beggs_Brill_holdup(0, lam, fr, rad, lv) + (1 - a) * _Beggs_Brill_holdup(2, lam, fr, rad, lv))
+    return min(1.0, hl)  # the correlation can exceed 1 at very low Froude numbers: no more liquid than the pipe
 
 
 def _void(m: float, ph: _Phases, diameter: float, p: float, angle: float) -> tuple[float, str]:
@@ -140,7 +152,7 @@ class _Step:
 def _segment(method: str, m: float, ph: _Phases, p: float, bore: tuple[float, float], dx: float, dz: float,
              tag: str) -> tuple[_Step, str]:
     diameter, roughness = bore
-    angle = math.degrees(math.asin(max(-1.0, min(1.0, dz / dx)))) if dx > 0 else 0.0
+    angle = _angle(dx, dz)
     if method == "homogeneous":
         mu_m = 1.0 / (ph.x / ph.mug + (1.0 - ph.x) / ph.mul)  # McAdams et al. (1942)
         dpl = _pipe_flow(m, ph.rho_m, mu_m, diameter, roughness, max(dx, 1.0), None)[4]
@@ -153,14 +165,17 @@ def _segment(method: str, m: float, ph: _Phases, p: float, bore: tuple[float, fl
             return _segment("homogeneous", m, ph, p, bore, dx, dz, tag)
         sigma = _need_sigma(ph, method, tag)
         hl = beggs_brill_holdup(m, ph, diameter, angle)
-        total = float(Beggs_Brill(m, ph.x, ph.rhol, ph.rhog, ph.mul, ph.mug, sigma, p, diameter, angle,
-                                  roughness, 1.0, G, False)) * dx
-        static = (ph.rhol * hl + ph.rhog * (1 - hl)) * G * dz
+        rho_s = ph.rhol * hl + ph.rhog * (1 - hl)
+        per_metre = float(Beggs_Brill(m, ph.x, ph.rhol, ph.rhog, ph.mul, ph.mug, sigma, p, diameter, angle,
+                                      roughness, 1.0, G, False))  # friction + rho_s g sin(angle), per metre
+        friction = (per_metre - rho_s * G * math.sin(math.radians(angle))) * dx
+        static = rho_s * G * dz
+        total = friction + static
         area = 0.25 * math.pi * diameter**2
         vsg, vm = ph.x * m / (ph.rhog * area), m * (ph.x / ph.rhog + (1 - ph.x) / ph.rhol) / area
         ek = vsg * vm * (ph.rhol * hl + ph.rhog * (1 - hl)) / p
         accel = total * ek / (1 - ek) if ek < 0.9 else math.inf
-        return _Step(total - static, static, accel, hl), "holdup of Beggs & Brill (1973)"
+        return _Step(friction, static, accel, hl), "holdup of Beggs & Brill (1973)"
     from fluids.two_phase import two_phase_dP
     if ph.x <= 0.0 or ph.x >= 1.0:
         return _segment("homogeneous", m, ph, p, bore, dx, dz, tag)
@@ -174,6 +189,13 @@ def _segment(method: str, m: float, ph: _Phases, p: float, bore: tuple[float, fl
     alpha, void_text = _void(m, ph, diameter, p, angle)
     static = (ph.rhol * (1 - alpha) + ph.rhog * alpha) * G * dz
     return _Step(dpl * dx, static, 0.0, 1 - alpha), void_text
+
+
+def _angle(dx: float, dz: float) -> float:
+    """Inclination [degrees, rise positive] of a run dx [m] rising dz [m]; a run of no length is vertical."""
+    if dx <= 0.0:
+        return 0.0 if dz == 0.0 else math.copysign(90.0, dz)
+    return math.degrees(math.asin(max(-1.0, min(1.0, dz / dx))))
 
 
 def _need_sigma(ph: _Phases, method: str, tag: str) -> float:
@@ -199,6 +221,12 @@ def rate_two_phase(line: Line, state: FluidState, candidate: Candidate, mass_flo
     """
     name = resolve_method(line, method)
     inlet = _phases(state, line.tag)
+    if not (math.isfinite(mass_flow) and mass_flow > 0.0):
+        raise InputError(f"mass flow {mass_flow!r} kg/s is not usable", field="flow", value=mass_flow,
+                         expected="a finite flow > 0 (the line's inlet is where the flow enters)", tag=line.tag)
+    if not (math.isfinite(line.length) and line.length >= 0.0 and math.isfinite(line.elevation)):
+        raise InputError(f"length {line.length!r} m / elevation {line.elevation!r} m is not usable", field="length",
+                         value=line.length, expected="a finite length >= 0 m and a finite elevation", tag=line.tag)
     diameter = candidate.inside_diameter
     roughness = line.roughness if line.roughness is not None else candidate.roughness
     bore = (diameter, roughness)
@@ -217,7 +245,7 @@ def rate_two_phase(line: Line, state: FluidState, candidate: Candidate, mass_flo
     total = march.friction + march.static + march.acceleration + fittings + line.fixed_drop
     dpl = march.friction / march.reached if march.reached > 0 else first.friction / max(line.length, 1.0)
     choked = march.stopped or total >= line.pressure
-    angle = math.degrees(math.asin(max(-1.0, min(1.0, line.elevation / line.length)))) if line.length > 0 else 0.0
+    angle = _angle(line.length, line.elevation)
     regime_name = flow_regime(mass_flow, inlet, diameter, roughness, angle)
     text = (f"two-phase {name} ({_SOURCES.get(name, 'as fluids.two_phase names it')}), elevation by the "
             f"{void_text}, {march.segments} segment(s), properties {march.note}; flow regime {regime_name!r} from "
@@ -225,8 +253,8 @@ def rate_two_phase(line: Line, state: FluidState, candidate: Candidate, mass_flo
             f"; fittings by the {FITTINGS_METHOD} ({loss.method}); two-phase correlations are uncertain (+/-30 % "
             f"or more on field data): slug flow and surge need a specialist's review")
     outlet = line.pressure - total
-    if choked:
-        outlet = max(0.0, outlet)
+    if choked:  # the line cannot pass this flow: no outlet pressure below zero is reported as a number to use
+        outlet = 0.0
         text += ("; CANNOT FLOW: the drop reaches the inlet pressure "
                  f"{'at ' + format(march.reached, '.4g') + ' m' if march.stopped else 'at the outlet'}")
     two = TwoPhaseFlow(method=name, vapour_fraction=inlet.x, flow_regime=regime_name, regime_map=REGIME_MAP,
@@ -241,7 +269,7 @@ def rate_two_phase(line: Line, state: FluidState, candidate: Candidate, mass_flo
                       friction_factor=dpl * 2 * diameter / (inlet.rho_m * vm * vm) if vm > 0 else f_ns,
                       regime=regime, drop_per_length=dpl, drop=march.friction, momentum=inlet.rho_m * vm * vm,
                       fittings_drop=fittings, static_drop=march.static, fixed_drop=line.fixed_drop,
-                      total_drop=min(total, line.pressure) if choked else total, outlet_pressure=outlet,
+                      total_drop=line.pressure if choked else total, outlet_pressure=outlet,
                       method=text, fittings_k=loss.k_total, fittings_method=FITTINGS_METHOD,
                       acceleration_drop=march.acceleration, choked=choked,
                       choke_length=march.reached if choked else None, two_phase=two)
