@@ -17,7 +17,7 @@ from boresize.errors import CriteriaFileError, InputError
 from boresize.model import Candidate, FluidState, Hydraulics, Line, Verdict, VerdictStatus
 from boresize.units import QuantityKind, format_unit_help, parse_quantity
 
-__all__ = ["OptionSpec", "CriterionContext", "Criterion", "SizeTrend", "documented_unit", "option_text", "parse_options", "verdict"]
+__all__ = ["OptionSpec", "CriterionContext", "Criterion", "SizeTrend", "chosen", "documented_unit", "option_text", "parse_options", "verdict"]
 
 #: How a criterion's fails respond to the pipe size (see :class:`Criterion`).
 SizeTrend = Literal["larger-passes", "falls-with-size"]
@@ -36,6 +36,8 @@ class OptionSpec:
         the unit ``boresize criteria`` shows it in, and the unit of a bare number in ``default``
     :param help: one line for ``boresize criteria``
     :param flag: a true/false option (``warn_only = true``), shown as true or false
+    :param choices: the names a list option may hold (``fail = ["slug"]``); its value reaches the criterion as
+        a float whose bit i is set when ``choices[i]`` is listed (:func:`chosen` reads it back)
     """
 
     name: str
@@ -44,6 +46,32 @@ class OptionSpec:
     default_unit: str | None = None
     help: str = ""
     flag: bool = False
+    choices: tuple[str, ...] = ()
+
+
+def chosen(spec: OptionSpec, value: float) -> tuple[str, ...]:
+    """The names a list option's value holds (see :attr:`OptionSpec.choices`)."""
+    mask = int(value)
+    return tuple(name for i, name in enumerate(spec.choices) if mask >> i & 1)
+
+
+def _example_choice(spec: OptionSpec) -> str:
+    return spec.default.split(",")[0].strip() if isinstance(spec.default, str) else spec.choices[0]
+
+
+def _choices_value(spec: OptionSpec, raw: object, field: str) -> float:
+    """A list of names (or one name, or a comma-separated text) to the bit mask of :attr:`OptionSpec.choices`."""
+    names = [n.strip() for n in raw.split(",")] if isinstance(raw, str) else raw
+    if not isinstance(names, (list, tuple)) or not all(isinstance(n, str) for n in names):
+        raise CriteriaFileError(f"{spec.name} = {raw!r} is not a list of names", field=field, value=raw,
+                                expected=f'a list of names such as {spec.name} = ["{_example_choice(spec)}"]')
+    mask = 0
+    for name in names:
+        if name not in spec.choices:
+            raise CriteriaFileError(f"unknown name {name!r} in {spec.name}", field=field, value=name,
+                                    expected=f"names from {', '.join(spec.choices)}")
+        mask |= 1 << spec.choices.index(name)
+    return float(mask)
 
 
 @dataclass(frozen=True)
@@ -78,6 +106,9 @@ def parse_options(criterion: Any, given: Mapping[str, object], where: str) -> di
         given_here = name in given
         raw = given[name] if given_here else spec.default
         if raw is None:
+            continue
+        if spec.choices:
+            values[name] = _choices_value(spec, raw, field)
             continue
         if given_here:
             _check_given(spec, raw, field)
@@ -138,6 +169,8 @@ def option_text(spec: OptionSpec, value: float) -> str:
     """An option's value [SI] as a user writes it: ``max = 40 kPa/100 m``, ``warn_only = true``, ``ratio = 1.1``."""
     if spec.flag:
         return f"{spec.name} = {'true' if value else 'false'}"
+    if spec.choices:
+        return f"{spec.name} = [{', '.join(repr(n) for n in chosen(spec, value))}]"
     unit = documented_unit(spec)
     if spec.kind == "dimensionless" or unit is None:
         return f"{spec.name} = {value:.6g}"

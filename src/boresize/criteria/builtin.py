@@ -6,6 +6,7 @@ from boresize.criteria.drop_per_length import DropPerLength
 from boresize.criteria.erosional import ErosionalVelocity
 from boresize.criteria.feasibility import LineFeasibility
 from boresize.criteria.flashing import Flashing
+from boresize.criteria.flow_regime import FlowRegime
 from boresize.criteria.gas_noise import NoiseVelocity
 from boresize.criteria.gravity_drain import GravityDrain
 from boresize.criteria.mach import MachLimit
@@ -31,4 +32,5 @@ def boresize_register_criteria(register: CriterionRegistry) -> None:
     register.add(MachLimit())
     register.add(OutletPressure())
     register.add(PropertyCrosscheck())
+    register.add(FlowRegime())
     register.add(LineFeasibility())

@@ -20,6 +20,7 @@ __all__ = ["C_US_TO_SI", "ErosionalVelocity", "erosional_velocity"]  # the kerne
 class ErosionalVelocity(Criterion):
     id = "erosional"
     size_trend = "larger-passes"  # v = Q/A falls as the bore grows; the limit C/sqrt(rho) does not change
+    phases = frozenset({"liquid", "gas", "two-phase"})  # RP 14E section 2.5 was written for gas/liquid lines
     title = "Erosional velocity (API RP 14E)"
     source = "API RP 14E, 5th ed. (1991), eq. 2.14: v_e = C/sqrt(rho); C = 100 (US units) for continuous service"
     options = (
@@ -46,6 +47,9 @@ class ErosionalVelocity(Criterion):
     def evaluate(self, context: CriterionContext) -> Verdict:
         c_si = self.c_si(context.options)
         point = worst_point(context)
+        two = context.hydraulics.two_phase
+        if two is not None:  # RP 14E section 2.5: the gas/liquid mixture density (no-slip) and mixture velocity
+            point = point._replace(velocity=two.mixture_velocity, density=two.mixture_density)
         limit = erosional_velocity(point.density, c_si)
         v = point.velocity
         ok = v <= limit

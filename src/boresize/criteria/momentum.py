@@ -21,6 +21,7 @@ __all__ = ["Momentum"]
 class Momentum(Criterion):
     id = "momentum"
     size_trend = "larger-passes"  # rho*v^2 falls as the bore grows (v ~ D^-2 at a fixed mass flow)
+    phases = frozenset({"liquid", "gas", "two-phase"})  # two-phase: rho_m v_m^2 at the no-slip density
     title = "Momentum flux rho*v^2 maximum"
     source = "company practice (the shipped values are common practice)"
     options = (OptionSpec("max", "pressure_difference", None, "Pa", "highest rho*v^2 (Pa = kg/(m s2))"),)

@@ -40,7 +40,7 @@ def is_gas(state: FluidState) -> bool:
 
 
 def rate_line(line: Line, state: FluidState, candidate: Candidate, mass_flow: float,
-              properties: Properties | None = None) -> Hydraulics:
+              properties: Properties | None = None, two_phase_method: str | None = None) -> Hydraulics:
     """Hydraulics of ``candidate`` carrying ``mass_flow`` [kg/s] along ``line`` (SI throughout).
 
     :param line: length [m], elevation [m, rise positive], fittings, fixed_drop [Pa], inlet pressure
@@ -48,9 +48,14 @@ def rate_line(line: Line, state: FluidState, candidate: Candidate, mass_flow: fl
     :param state: properties at the inlet
     :param properties: (p [Pa abs], T [K]) -> FluidState, the equation of state along a gas line; None
         (or line-list values) scales the inlet density as an ideal gas
+    :param two_phase_method: the service's two-phase correlation (the line's own ``two_phase_method`` wins)
     :returns: Hydraulics with every drop [Pa], the outlet pressure [Pa abs] and the method text
-    :raises InputError: an unknown fitting or method (field "fittings", "fittings_method", "compressible")
+    :raises InputError: an unknown fitting or method (field "fittings", "fittings_method", "compressible",
+        "two_phase_method"), a two-phase state without its per-phase values
     """
+    if state.phase == "two-phase":  # a named two-phase correlation (boresize.hydraulics.two_phase)
+        from boresize.hydraulics.two_phase import rate_two_phase
+        return rate_two_phase(line, state, candidate, mass_flow, two_phase_method, properties)
     diameter, density = candidate.inside_diameter, state.density
     roughness = line.roughness if line.roughness is not None else candidate.roughness
     v, re, f, regime, dpl, mach = _pipe_flow(mass_flow, density, state.viscosity, diameter, roughness, line.length,

@@ -28,7 +28,8 @@ def render_criteria(host: PluginHost, config: SizingConfig) -> str:
     for c in host.criteria:
         out.append(f"  {c.id:<18} {c.title}  [plugin {host.criteria.owner(c.id)}]")
         for spec in c.options:
-            documented = "true/false" if spec.flag else documented_unit(spec)
+            documented = ("true/false" if spec.flag else "names: " + ", ".join(getattr(spec, "choices", ()))
+                          if getattr(spec, "choices", ()) else documented_unit(spec))
             unit = f" [{documented}]" if documented else ""
             out.append(f"      {spec.name}{unit}: {spec.help}")
     out.append("")

@@ -1,0 +1,332 @@
+"""Two-phase (gas-liquid) hydraulics of one line: a named correlation of the fluids library, marched in segments.
+
+Default correlation: Beggs-Brill (1973), the one correlation of the set built from data at every inclination
+(horizontal to vertical), whose liquid holdup gives the elevation term. Other correlations are the fluids
+library's names (``two_phase_dP``) plus ``homogeneous`` (Darcy-Weisbach at the no-slip density with the McAdams
+mixture viscosity); for those the elevation term uses the void fraction of Woldesemayat & Ghajar (2007), or of
+Chisholm (1983) where the surface tension is not known, never the no-slip density. Fittings: the homogeneous
+multiplier, K rho_m v_m^2 / 2 at the no-slip density (Collier & Thome, *Convective Boiling and Condensation*,
+3rd ed., 1994). Flow regime from the Taitel-Dukler (1976) map. Two-phase correlations carry large uncertainty:
+Beggs & Brill quote about +/-10 % on their own data; field data scatter +/-30 % or more.
+"""
+
+from __future__ import annotations
+
+import math
+from collections.abc import Callable
+from dataclasses import dataclass
+
+from boresize.errors import InputError
+from boresize.hydraulics.darcy import _pipe_flow
+from boresize.hydraulics.fittings import fittings_loss
+from boresize.hydraulics.friction import darcy_friction_factor
+from boresize.model import Candidate, FluidState, Hydraulics, Line, TwoPhaseFlow
+
+__all__ = ["DEFAULT_METHOD", "REGIME_NAMES", "accepted_methods", "rate_two_phase", "flow_regime", "beggs_brill_holdup",
+           "resolve_method"]
+
+Properties = Callable[[float, float], FluidState]
+
+DEFAULT_METHOD = "Beggs-Brill"
+G = 9.80665  # standard gravity [m/s2]
+REGIME_MAP = "Taitel-Dukler (1976)"
+#: the regimes the Taitel-Dukler map gives, and those of Mandhane-Gregory-Aziz (1974) a plugin may report
+REGIME_NAMES = ("stratified smooth", "stratified wavy", "intermittent", "annular", "bubbly",
+                "elongated bubble", "stratified", "wave", "slug", "annular mist", "dispersed bubble")
+FITTINGS_METHOD = ("homogeneous two-phase multiplier, K rho_m v_m^2/2 at the no-slip density (Collier & Thome, "
+                   "Convective Boiling and Condensation, 3rd ed., 1994)")
+_REEVALUATE = 0.02  # re-flash when the pressure has fallen 2 % since the last flash
+_MARCH = 0.05  # march in segments when the drop is above 5 % of the inlet pressure
+_SEGMENTS = 20
+
+
+def accepted_methods() -> tuple[str, ...]:
+    """The correlation names ``two_phase_method`` accepts: ``homogeneous`` and the fluids library's."""
+    from fluids.two_phase import two_phase_correlations
+    return ("homogeneous", *sorted(two_phase_correlations))
+
+
+def resolve_method(line: Line, method: str | None) -> str:
+    """The correlation of a line: its own ``two_phase_method``, else the service's, else Beggs-Brill."""
+    name = line.two_phase_method or method or DEFAULT_METHOD
+    accepted = accepted_methods()
+    if name not in accepted:
+        raise InputError(f"unknown two-phase method {name!r}", field="two_phase_method", value=name,
+                         expected=f"one of {', '.join(accepted)}", tag=line.tag)
+    return name
+
+
+@dataclass(frozen=True)
+class _Phases:
+    x: float
+    rhol: float
+    rhog: float
+    mul: float
+    mug: float
+    sigma: float | None
+
+    @property
+    def rho_m(self) -> float:  # no-slip mixture density
+        return 1.0 / (self.x / self.rhog + (1.0 - self.x) / self.rhol)
+
+
+def _phases(state: FluidState, tag: str) -> _Phases:
+    fields = ("vapour_fraction", "liquid_density", "gas_density", "liquid_viscosity", "gas_viscosity")
+    for name in fields:
+        value = getattr(state, name)
+        if value is None or not math.isfinite(value) or value < 0.0 or (name != "vapour_fraction" and value <= 0):
+            raise InputError(f"the two-phase state has no usable {name} ({value!r})", field=name, value=value,
+                             expected="the per-phase value from the property backend", tag=tag)
+    x = float(state.vapour_fraction)  # type: ignore[arg-type]
+    if x > 1.0:
+        raise InputError(f"vapour fraction {x:g} is above 1", field="vapour_fraction", value=x,
+                         expected="a vapour mass fraction from 0 to 1", tag=tag)
+    if not state.gas_density < state.liquid_density:  # type: ignore[operator]
+        raise InputError(f"gas density {state.gas_density:g} kg/m3 is not below the liquid's "
+                         f"{state.liquid_density:g} kg/m3", field="gas_density", value=state.gas_density,
+                         expected="a vapour lighter than its liquid (a two-phase state below the critical point)",
+                         tag=tag)
+    return _Phases(x, float(state.liquid_density), float(state.gas_density),  # type: ignore[arg-type]
+                   float(state.liquid_viscosity), float(state.gas_viscosity),  # type: ignore[arg-type]
+                   state.surface_tension)
+
+
+def beggs_brill_holdup(m: float, ph: _Phases, diameter: float, angle: float) -> float:
+    """In-situ liquid holdup of Beggs & Brill (1973), as fluids.two_phase.Beggs_Brill computes it [-]."""
+    from fluids.two_phase import _Beggs_Brill_holdup
+    area = 0.25 * math.pi * diameter**2
+    vsl, vsg = (1.0 - ph.x) * m / (ph.rhol * area), ph.x * m / (ph.rhog * area)
+    vm = vsl + vsg
+    fr, lam = vm * vm / (G * diameter), vsl / vm
+    if lam <= 0.0:
+        return 0.0
+    if lam >= 1.0:
+        return 1.0
+    l1, l2, l3, l4 = 316.0 * lam**0.302, 0.0009252 * lam**-2.4684, 0.1 * lam**-1.4516, 0.5 * lam**-6.738
+    if (lam < 0.01 and fr < l1) or (lam >= 0.01 and fr < l2):
+        regime = 0
+    elif lam >= 0.01 and l2 <= fr <= l3:
+        regime = 1
+    elif (0.01 <= lam < 0.4 and l3 < fr <= l1) or (lam >= 0.4 and l3 < fr <= l4):
+        regime = 2
+    else:
+        regime = 3
+    lv = vsl * (ph.rhol / (G * (ph.sigma or 0.02))) ** 0.25
+    rad = math.radians(angle)
+    if regime != 1:
+        hl = float(_Beggs_Brill_holdup(regime, lam, fr, rad, lv))
+    else:
+        a = (l3 - fr) / (l3 - l2)
+        hl = float(a * _Beggs_Brill_holdup(0, lam, fr, rad, lv) + (1 - a) * _Beggs_Brill_holdup(2, lam, fr, rad, lv))
+    return min(1.0, hl)  # the correlation can exceed 1 at very low Froude numbers: no more liquid than the pipe
+
+
+def _void(m: float, ph: _Phases, diameter: float, p: float, angle: float) -> tuple[float, str]:
+    from fluids.two_phase_voidage import Chisholm_voidage, Woldesemayat_Ghajar
+    if ph.x <= 0.0 or ph.x >= 1.0:
+        return (1.0 if ph.x >= 1.0 else 0.0), "single phase"
+    if ph.sigma is not None:
+        return float(Woldesemayat_Ghajar(ph.x, ph.rhol, ph.rhog, ph.sigma, m, diameter, p, angle)), \
+            "void fraction of Woldesemayat & Ghajar (2007)"
+    return float(Chisholm_voidage(ph.x, ph.rhol, ph.rhog)), "void fraction of Chisholm (1983)"
+
+
+def flow_regime(m: float, ph: _Phases, diameter: float, roughness: float, angle: float) -> str:
+    """The Taitel-Dukler (1976) regime (fluids.two_phase.Taitel_Dukler_regime); pure liquid or gas named so."""
+    from fluids.two_phase import Taitel_Dukler_regime
+    if ph.x <= 0.0:
+        return "liquid"
+    if ph.x >= 1.0:
+        return "gas"
+    return str(Taitel_Dukler_regime(m, ph.x, ph.rhol, ph.rhog, ph.mul, ph.mug, diameter, angle, roughness)[0])
+
+
+@dataclass(frozen=True)
+class _Step:
+    friction: float  # [Pa]
+    static: float  # [Pa]
+    acceleration: float  # [Pa]
+    holdup: float
+
+
+def _segment(method: str, m: float, ph: _Phases, p: float, bore: tuple[float, float], dx: float, dz: float,
+             tag: str) -> tuple[_Step, str]:
+    diameter, roughness = bore
+    angle = _angle(dx, dz)
+    if method == "homogeneous":
+        mu_m = 1.0 / (ph.x / ph.mug + (1.0 - ph.x) / ph.mul)  # McAdams et al. (1942)
+        dpl = _pipe_flow(m, ph.rho_m, mu_m, diameter, roughness, max(dx, 1.0), None)[4]
+        alpha, void_text = _void(m, ph, diameter, p, angle)
+        rho_s = ph.rhol * (1 - alpha) + ph.rhog * alpha
+        return _Step(dpl * dx, rho_s * G * dz, 0.0, 1 - alpha), void_text
+    if method == "Beggs-Brill":
+        from fluids.two_phase import Beggs_Brill
+        if ph.x <= 0.0 or ph.x >= 1.0:
+            return _segment("homogeneous", m, ph, p, bore, dx, dz, tag)
+        sigma = _need_sigma(ph, method, tag)
+        hl = beggs_brill_holdup(m, ph, diameter, angle)
+        rho_s = ph.rhol * hl + ph.rhog * (1 - hl)
+        per_metre = float(Beggs_Brill(m, ph.x, ph.rhol, ph.rhog, ph.mul, ph.mug, sigma, p, diameter, angle,
+                                      roughness, 1.0, G, False))  # friction + rho_s g sin(angle), per metre
+        friction = (per_metre - rho_s * G * math.sin(math.radians(angle))) * dx
+        static = rho_s * G * dz
+        total = friction + static
+        area = 0.25 * math.pi * diameter**2
+        vsg, vm = ph.x * m / (ph.rhog * area), m * (ph.x / ph.rhog + (1 - ph.x) / ph.rhol) / area
+        ek = vsg * vm * (ph.rhol * hl + ph.rhog * (1 - hl)) / p
+        accel = total * ek / (1 - ek) if ek < 0.9 else math.inf
+        return _Step(friction, static, accel, hl), "holdup of Beggs & Brill (1973)"
+    from fluids.two_phase import two_phase_dP
+    if ph.x <= 0.0 or ph.x >= 1.0:
+        return _segment("homogeneous", m, ph, p, bore, dx, dz, tag)
+    try:
+        dpl = float(two_phase_dP(m, ph.x, ph.rhol, diameter, 1.0, ph.rhog, ph.mul, ph.mug, ph.sigma, p, None,
+                                 roughness, angle, method))
+    except (ValueError, TypeError, ZeroDivisionError) as exc:
+        raise InputError(f"the {method} correlation cannot rate this line ({exc})", field="two_phase_method",
+                         value=method, expected="a correlation whose inputs the state gives, e.g. Beggs-Brill",
+                         tag=tag) from exc
+    alpha, void_text = _void(m, ph, diameter, p, angle)
+    static = (ph.rhol * (1 - alpha) + ph.rhog * alpha) * G * dz
+    return _Step(dpl * dx, static, 0.0, 1 - alpha), void_text
+
+
+def _angle(dx: float, dz: float) -> float:
+    """Inclination [degrees, rise positive] of a run dx [m] rising dz [m]; a run of no length is vertical."""
+    if dx <= 0.0:
+        return 0.0 if dz == 0.0 else math.copysign(90.0, dz)
+    return math.degrees(math.asin(max(-1.0, min(1.0, dz / dx))))
+
+
+def _need_sigma(ph: _Phases, method: str, tag: str) -> float:
+    if ph.sigma is None or not ph.sigma > 0:
+        raise InputError(f"the {method} correlation needs the surface tension, which the state lacks",
+                         field="surface_tension", value=ph.sigma,
+                         expected="a backend that gives it, or two_phase_method = \"homogeneous\"", tag=tag)
+    return ph.sigma
+
+
+def _usable(state: FluidState) -> bool:
+    return state.phase == "two-phase" and all(
+        getattr(state, n) is not None for n in ("vapour_fraction", "liquid_density", "gas_density",
+                                                "liquid_viscosity", "gas_viscosity"))
+
+
+def rate_two_phase(line: Line, state: FluidState, candidate: Candidate, mass_flow: float, method: str | None = None,
+                   properties: Properties | None = None) -> Hydraulics:
+    """Hydraulics of a two-phase line (SI throughout); see the module text for the methods.
+
+    :raises InputError: an unknown ``two_phase_method``, a state without its per-phase fields, or a correlation
+        whose inputs the state lacks
+    """
+    name = resolve_method(line, method)
+    inlet = _phases(state, line.tag)
+    if not (math.isfinite(mass_flow) and mass_flow > 0.0):
+        raise InputError(f"mass flow {mass_flow!r} kg/s is not usable", field="flow", value=mass_flow,
+                         expected="a finite flow > 0 (the line's inlet is where the flow enters)", tag=line.tag)
+    if not (math.isfinite(line.length) and line.length >= 0.0 and math.isfinite(line.elevation)):
+        raise InputError(f"length {line.length!r} m / elevation {line.elevation!r} m is not usable", field="length",
+                         value=line.length, expected="a finite length >= 0 m and a finite elevation", tag=line.tag)
+    diameter = candidate.inside_diameter
+    roughness = line.roughness if line.roughness is not None else candidate.roughness
+    bore = (diameter, roughness)
+    first, void_text = _segment(name, mass_flow, inlet, line.pressure, bore, line.length, line.elevation, line.tag)
+    one_shot = first.friction + first.static + first.acceleration
+    segments = _SEGMENTS if line.length > 0 and abs(one_shot) > _MARCH * line.pressure else 1
+    march = _march(line, name, mass_flow, inlet, bore, segments, properties, state)
+    area = 0.25 * math.pi * diameter**2
+    vm = mass_flow / (inlet.rho_m * area)
+    mu_m = 1.0 / (inlet.x / inlet.mug + (1.0 - inlet.x) / inlet.mul)
+    re = inlet.rho_m * vm * diameter / mu_m
+    f_ns, regime = darcy_friction_factor(re, roughness / diameter)
+    loss = fittings_loss(line.fittings, line.fittings_method, reynolds=re, inside_diameter=diameter,
+                         nps=candidate.nps_value)
+    fittings = loss.drop(f_ns, inlet.rho_m, vm, diameter)
+    total = march.friction + march.static + march.acceleration + fittings + line.fixed_drop
+    dpl = march.friction / march.reached if march.reached > 0 else first.friction / max(line.length, 1.0)
+    choked = march.stopped or total >= line.pressure
+    angle = _angle(line.length, line.elevation)
+    regime_name = flow_regime(mass_flow, inlet, diameter, roughness, angle)
+    text = (f"two-phase {name} ({_SOURCES.get(name, 'as fluids.two_phase names it')}), elevation by the "
+            f"{void_text}, {march.segments} segment(s), properties {march.note}; flow regime {regime_name!r} from "
+            f"the {REGIME_MAP} map (AIChE J. 22(1)){' outside its near-horizontal range' if abs(angle) > 10 else ''}"
+            f"; fittings by the {FITTINGS_METHOD} ({loss.method}); two-phase correlations are uncertain (+/-30 % "
+            f"or more on field data): slug flow and surge need a specialist's review")
+    outlet = line.pressure - total
+    if choked:  # the line cannot pass this flow: no outlet pressure below zero is reported as a number to use
+        outlet = 0.0
+        text += ("; CANNOT FLOW: the drop reaches the inlet pressure "
+                 f"{'at ' + format(march.reached, '.4g') + ' m' if march.stopped else 'at the outlet'}")
+    two = TwoPhaseFlow(method=name, vapour_fraction=inlet.x, flow_regime=regime_name, regime_map=REGIME_MAP,
+                       liquid_holdup=first.holdup, superficial_liquid_velocity=mass_flow * (1 - inlet.x) / (
+                           inlet.rhol * area),
+                       superficial_gas_velocity=mass_flow * inlet.x / (inlet.rhog * area), mixture_velocity=vm,
+                       mixture_density=inlet.rho_m, liquid_density=inlet.rhol, gas_density=inlet.rhog,
+                       liquid_viscosity=inlet.mul, gas_viscosity=inlet.mug, surface_tension=inlet.sigma,
+                       fittings_method=FITTINGS_METHOD, segments=march.segments,
+                       outlet_vapour_fraction=march.outlet_x)
+    return Hydraulics(mass_flow=mass_flow, volume_flow=mass_flow / inlet.rho_m, velocity=vm, reynolds=re,
+                      friction_factor=dpl * 2 * diameter / (inlet.rho_m * vm * vm) if vm > 0 else f_ns,
+                      regime=regime, drop_per_length=dpl, drop=march.friction, momentum=inlet.rho_m * vm * vm,
+                      fittings_drop=fittings, static_drop=march.static, fixed_drop=line.fixed_drop,
+                      total_drop=line.pressure if choked else total, outlet_pressure=outlet,
+                      method=text, fittings_k=loss.k_total, fittings_method=FITTINGS_METHOD,
+                      acceleration_drop=march.acceleration, choked=choked,
+                      choke_length=march.reached if choked else None, two_phase=two)
+
+
+_SOURCES = {"Beggs-Brill": "Beggs & Brill, J. Pet. Tech. 25(5), 1973, via fluids.two_phase.Beggs_Brill",
+            "homogeneous": "Darcy-Weisbach at the no-slip density, McAdams mixture viscosity",
+            "Friedel": "Friedel, 1979, via fluids.two_phase.Friedel",
+            "Lockhart_Martinelli": "Lockhart & Martinelli, 1949, via fluids.two_phase.Lockhart_Martinelli",
+            "Muller_Steinhagen_Heck": "Muller-Steinhagen & Heck, 1986, via fluids.two_phase"}
+
+
+@dataclass
+class _March:
+    friction: float = 0.0
+    static: float = 0.0
+    acceleration: float = 0.0
+    reached: float = 0.0
+    segments: int = 1
+    stopped: bool = False
+    outlet_x: float | None = None
+    note: str = "at the inlet"
+
+
+def _march(line: Line, name: str, m: float, inlet: _Phases, bore: tuple[float, float], segments: int,
+           properties: Properties | None, state: FluidState) -> _March:
+    out = _March(segments=segments)
+    dx, dz = line.length / segments, line.elevation / segments
+    ph, p, p_flash = inlet, line.pressure, line.pressure
+    along = properties is not None and segments > 1 and state.source != "table"
+    held = False
+    for i in range(segments):
+        if along and not held and p < p_flash * (1 - _REEVALUATE):
+            new = properties(p, line.temperature) if properties is not None else state
+            if _usable(new):
+                ph, p_flash = _phases(new, line.tag), p
+                out.outlet_x = ph.x
+            else:
+                held = True
+        step = _segment(name, m, ph, p, bore, dx, dz, line.tag)[0]
+        drop = step.friction + step.static + step.acceleration
+        if not math.isfinite(drop) or drop >= p:
+            out.stopped, out.reached = True, i * dx + (dx * p / drop if math.isfinite(drop) and drop > 0 else 0.0)
+            out.friction += step.friction * (out.reached - i * dx) / dx if dx > 0 else 0.0
+            return out
+        out.friction += step.friction
+        out.static += step.static
+        out.acceleration += step.acceleration
+        p -= drop
+        out.reached = (i + 1) * dx
+    if segments == 1:
+        out.note = "at the inlet (drop within 5 % of the inlet pressure: one segment)"
+    elif held:
+        out.note = ("held at the inlet's after the first re-flash: the property backend gave no two-phase state "
+                    f"at (p, T = {line.temperature:.5g} K) along the line")
+    elif along:
+        out.note = f"re-flashed at (p, inlet T) each {_REEVALUATE:.0%} of pressure fall along the line"
+    else:
+        out.note = "held at the inlet's (no property callable along the line)"
+    return out
