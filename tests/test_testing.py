@@ -199,7 +199,7 @@ def test_size_line_sizes_with_the_plugin_registered_and_its_criteria_file(tmp_pa
         f"service.bore.acme-minimum-bore: unknown criterion 'acme-minimum-bore' (in {path}); expected a criterion id "
         "(erosional, "
         "drop-per-length, velocity, npsh-margin, gravity-drain, flashing, momentum, noise-velocity, mach, "
-        "outlet-pressure, property-crosscheck, flow-regime) or one of description, phase, design_margin, pipe_class, version")
+        "outlet-pressure, property-crosscheck, flow-regime) or one of description, phase, design_margin, pipe_class, version, two_phase_method")
 
 
 def test_the_guides_example_of_testing_a_plugin_runs(monkeypatch, tmp_path):

@@ -27,6 +27,7 @@ REQUIRED_SERVICES = {
     "liquid": "liquid", "pump-suction": "liquid", "pump-suction-bubble-point": "liquid",
     "pump-discharge": "liquid", "cooling-water": "liquid", "gravity-drain": "liquid",
     "gas": "gas", "gas-by-pressure": "gas", "steam": "gas", "vapour-low-pressure": "gas",
+    "two-phase": "two-phase", "two-phase-intermittent": "two-phase",  # issue 16
 }
 # A value's source must be one of these words (house rule: a standard, a handbook, or a marked rule of thumb).
 SOURCE_WORDS = ("API RP 14E", "ANSI/HI 9.6.1", "Simpson", "common practice", "company practice", "from memory",
@@ -38,8 +39,8 @@ def test_the_services_the_issue_asks_for_are_shipped(host):
     for name, phase in REQUIRED_SERVICES.items():
         service = config.services[name]
         assert service.phase == phase and service.origin == "built-in"
-        assert service.set_name in ("boresize-liquid", "boresize-gas") and re.fullmatch(r"\d{4}\.\d+", service.version)
-    assert config.version == "boresize-liquid 2026.2, boresize-gas 2026.1"
+        assert service.set_name in ("boresize-liquid", "boresize-gas", "boresize-two-phase") and re.fullmatch(r"\d{4}\.\d+", service.version)
+    assert config.version == "boresize-liquid 2026.2, boresize-gas 2026.1, boresize-two-phase 2026.1"
 
 
 def _set_lines():
@@ -91,7 +92,7 @@ def test_stamp_names_the_service_the_set_and_its_version(host, tmp_path: Path):
     assert config.services["gas"].stamp == "gas (ACME-PS-0001 rev 3)"
     assert config.services["fuel-gas"].stamp == "fuel-gas (ACME-PS-0001 rev 4)"
     assert config.services["steam"].stamp == "steam (boresize-gas 2026.1)"
-    assert config.version == "boresize-liquid 2026.2, boresize-gas 2026.1 + rev 3"
+    assert config.version == "boresize-liquid 2026.2, boresize-gas 2026.1, boresize-two-phase 2026.1 + rev 3"
 
 
 def test_a_file_without_name_or_version_is_stamped_with_its_file_name(host, tmp_path: Path):

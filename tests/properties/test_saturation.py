@@ -73,7 +73,8 @@ def test_temperature_that_disagrees_with_saturation_names_both():
 
 
 @pytest.mark.parametrize(("cells", "field", "message"), [
-    ({"quality": "0.5"}, "quality", "quality 0.5 is two-phase: two-phase lines are not sized yet"),
+    ({"quality": "0.5", "phase": "gas"}, "phase", "phase gas disagrees with quality 0.5 (two-phase)"),
+    ({"quality": "-0.1"}, "quality", "quality -0.1 is outside 0 to 1"),
     ({"quality": "1.2"}, "quality", "quality 1.2 is outside 0 to 1"),
     ({"quality": "1", "fluid": "methane:0.9, ethane:0.1"}, "quality",
      "quality 1 is given for the mixture 'methane:0.9, ethane:0.1': a saturated state by quality is available "

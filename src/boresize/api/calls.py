@@ -63,7 +63,8 @@ def make_line(tag: str, fluid: str | Mapping[str, float], flow: Value, pressure:
               liquid_level: Value = None, npsh_required: Value = None, roughness: Value = None,
               case: str | None = None, fittings_method: str | None = None, compressible: str | None = None,
               extra: Mapping[str, str] | None = None, quality: Value = None,
-              vapour_pressure: Value = None, bare_pressure: BarePressure = "absolute") -> Line:
+              vapour_pressure: Value = None, two_phase_method: str | None = None,
+              bare_pressure: BarePressure = "absolute") -> Line:
     """A validated :class:`~boresize.model.Line` (SI inside) from text, pint Quantities or numbers.
 
     The fields are the line-list columns of the README (``fluid`` may also be a mapping component ->

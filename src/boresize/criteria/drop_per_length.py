@@ -17,6 +17,8 @@ PA_PER_M_PER_KPA_100M = 10.0
 
 class DropPerLength(Criterion):
     id = "drop-per-length"
+    #: two-phase: the drop the two-phase hydraulics give
+    phases = frozenset({"liquid", "gas", "two-phase"})
     size_trend = "falls-with-size"  # Darcy-Weisbach: dp/L ~ D^-5 at a fixed mass flow
     proposes_first_guess = True  # the record's first guess is the Swamee-Jain diameter of the maximum drop
     title = "Pressure drop per length (Darcy-Weisbach, Colebrook)"

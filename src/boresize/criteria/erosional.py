@@ -19,6 +19,8 @@ __all__ = ["C_US_TO_SI", "ErosionalVelocity", "erosional_velocity"]  # the kerne
 
 class ErosionalVelocity(Criterion):
     id = "erosional"
+    #: two-phase: API RP 14E section 2.5 uses the no-slip mixture density and velocity
+    phases = frozenset({"liquid", "gas", "two-phase"})
     size_trend = "larger-passes"  # v = Q/A falls as the bore grows; the limit C/sqrt(rho) does not change
     phases = frozenset({"liquid", "gas", "two-phase"})  # RP 14E section 2.5 was written for gas/liquid lines
     title = "Erosional velocity (API RP 14E)"

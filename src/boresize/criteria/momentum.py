@@ -20,6 +20,8 @@ __all__ = ["Momentum"]
 
 class Momentum(Criterion):
     id = "momentum"
+    #: two-phase: rho_m v_m^2 at the no-slip mixture density
+    phases = frozenset({"liquid", "gas", "two-phase"})
     size_trend = "larger-passes"  # rho*v^2 falls as the bore grows (v ~ D^-2 at a fixed mass flow)
     phases = frozenset({"liquid", "gas", "two-phase"})  # two-phase: rho_m v_m^2 at the no-slip density
     title = "Momentum flux rho*v^2 maximum"

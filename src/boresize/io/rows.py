@@ -25,7 +25,7 @@ COLUMNS = (
     "tag", "fluid", "flow", "pressure", "temperature", "length", "service", "pipe_class", "nps",
     "density", "viscosity", "design_margin", "phase", "backend", "eos", "elevation", "fittings", "fixed_drop",
     "min_outlet_pressure", "source_pressure", "liquid_level", "npsh_required", "roughness", "case", "schedule",
-    "fittings_method", "compressible", "quality", "vapour_pressure",
+    "fittings_method", "compressible", "quality", "vapour_pressure", "two_phase_method",
 )
 # Optional quantities: column -> (quantity kind, must be above zero, example for messages)
 OPTIONAL_QUANTITIES: dict[str, tuple[QuantityKind, bool, str]] = {
@@ -194,6 +194,19 @@ def _choice(cells: Mapping[str, str], name: str, allowed: tuple[str, ...]) -> st
     return raw.lower()
 
 
+def _two_phase_method(raw: str | None) -> str | None:
+    """The line's two-phase correlation, as the fluids library names it (case ignored)."""
+    if raw is None:
+        return None
+    from boresize.hydraulics.two_phase_names import two_phase_method_name, two_phase_methods
+
+    name = two_phase_method_name(raw)
+    if name is None:
+        raise InputError(f"unknown two-phase method {raw!r}", field="two_phase_method", value=raw,
+                         expected=f"a correlation of the fluids library: {', '.join(two_phase_methods())}")
+    return name
+
+
 def line_from_row(row: Mapping[str, object], units: Mapping[str, str | None] | None = None,
                   position: int | None = None, bare_pressure: BarePressure = "absolute",
                   absolute: Collection[str] = ()) -> Line:
@@ -268,7 +281,7 @@ def line_from_row(row: Mapping[str, object], units: Mapping[str, str | None] | N
             density=_optional_quantity(cells, units, "density", "density", "a density above zero, e.g. '850 kg/m3'"),
             viscosity=_optional_quantity(cells, units, "viscosity", "viscosity", "a viscosity above zero, e.g. '1.2 cP'"),
             design_margin=margin,
-            phase=_choice(cells, "phase", ("liquid", "gas")),  # type: ignore[arg-type]
+            phase=_choice(cells, "phase", ("liquid", "gas", "two-phase")),  # type: ignore[arg-type]
             backend=backend,
             eos=cells.get("eos"),
             fittings=parse_fittings(cells.get("fittings")),
@@ -280,7 +293,7 @@ def line_from_row(row: Mapping[str, object], units: Mapping[str, str | None] | N
             extra=tuple((k, str(v)) for k, v in row.items() if k not in _COLUMN_SET and v not in (None, "")),
             quality=quality,
             bare_pressures=(*bare, *notes),
-            two_phase_method=None,  # not read from the line list yet
+            two_phase_method=_two_phase_method(cells.get("two_phase_method")),
         )
         if quality is None:
             return line

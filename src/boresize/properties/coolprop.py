@@ -33,12 +33,14 @@ import functools
 import importlib.metadata
 import re
 import threading
+from dataclasses import replace
 from typing import Any, Literal
 
 from boresize.errors import InputError, PropertyError
 from boresize.model import FluidState, Line, Phase
 from boresize.properties.base import is_mixture, check_plausible, describe_conditions
 from boresize.properties.coolprop_range import Limits as _Limits
+from boresize.properties.mixing import homogeneous_density, mcadams_viscosity
 from boresize.properties.coolprop_range import check_range as _check_range
 from boresize.properties.saturation import check_quality, saturation_near
 
@@ -76,8 +78,8 @@ _PHASE_BY_INDEX: dict[int, Phase] = {
 }
 
 _MODEL = "HEOS (reference EOS)"
-#: The phase a line says it carries (Line.phase): at saturation it picks the side of the curve.
-PhaseHint = Literal["liquid", "gas"] | None
+#: The phase a line says it carries (Line.phase): at saturation "liquid" or "gas" picks the side of the curve.
+PhaseHint = Literal["liquid", "gas", "two-phase"] | None
 
 
 def _normalise(name: str) -> str:
@@ -149,7 +151,7 @@ class CoolPropBackend:
         quality, hint = line.quality, line.phase
         if quality is not None:  # the quality holds at the line's own point; elsewhere it names the side
             check_quality(line, quality)
-            hint = hint or ("gas" if quality == 1.0 else "liquid")
+            hint = hint or ("gas" if quality == 1.0 else "liquid" if quality == 0.0 else None)
             own = pressure == line.pressure and temperature == line.temperature
             quality = quality if own else None
         return self._cached_state(name, float(pressure), float(temperature), hint, quality)
@@ -259,6 +261,8 @@ def _evaluate(state: Any, name: str, limits: _Limits, point: tuple[float, float]
     CP = _cp()
     pressure, temperature = point
     if quality is not None:
+        if 0.0 < quality < 1.0:
+            return _two_phase(state, name, limits, pressure, quality, hint)
         state.update(CP.PQ_INPUTS, pressure, quality)
         side: Phase = "gas" if quality == 1.0 else "liquid"
         return _result(state, name, limits, (side, quality, pressure, float(state.T())),
@@ -302,6 +306,29 @@ def _result(state: Any, name: str, limits: _Limits, found: tuple[Phase, float | 
     )
 
 
+def _two_phase(state: Any, name: str, limits: _Limits, pressure: float, quality: float, hint: PhaseHint) -> FluidState:
+    """A two-phase state by quality at ``pressure`` [Pa abs]: saturated liquid and vapour at that pressure
+    (PQ flash, Q = 0 and Q = 1), the no-slip density and McAdams viscosity of the mixture, and CoolProp's
+    surface tension where it has a correlation for the fluid (else None and a note)."""
+    CP = _cp()
+    state.update(CP.PQ_INPUTS, pressure, 0.0)
+    t_sat, rho_l, mu_l = float(state.T()), float(state.rhomass()), float(state.viscosity())
+    notes: tuple[str, ...] = ()
+    try:
+        sigma: float | None = float(state.surface_tension())
+    except ValueError:  # CoolProp: "surface tension curve not provided" for this fluid
+        sigma = None
+        notes = (f"CoolProp has no surface tension for {name}: surface tension not known",)
+    state.update(CP.PQ_INPUTS, pressure, 1.0)
+    rho_g, mu_g = float(state.rhomass()), float(state.viscosity())
+    base = _result(state, name, limits, ("two-phase", quality, pressure, t_sat), (pressure, t_sat),
+                   _model_text("quality", "two-phase"))
+    return replace(base, density=homogeneous_density(quality, rho_g, rho_l),
+                   viscosity=mcadams_viscosity(quality, mu_g, mu_l), speed_of_sound=None,
+                   liquid_density=rho_l, gas_density=rho_g, liquid_viscosity=mu_l, gas_viscosity=mu_g,
+                   surface_tension=sigma, notes=notes)
+
+
 def _map_phase(index: int, name: str, pressure: float, temperature: float) -> Phase:
     """boresize phase for CoolProp's phase index (see the module docstring)."""
     if index not in _PHASE_BY_INDEX:
@@ -317,6 +344,9 @@ def _model_text(how: str | None, hint: PhaseHint) -> str:
     (on the saturation curve, side unknown) or None (a (p, T) flash)."""
     text = f"CoolProp {_coolprop_version()} {_MODEL}"
     side = "vapour" if hint == "gas" else "liquid"
+    if how == "quality" and hint == "two-phase":
+        return (f"{text}; two-phase at the line's pressure by its quality: saturated liquid and vapour (Q = 0 and 1), "
+                f"homogeneous (no-slip) density, McAdams viscosity")
     if how == "quality":
         return f"{text}; saturated {side} at the line's pressure, by its quality"
     if how == "phase":

@@ -47,6 +47,22 @@ class Point:
     speed_of_sound: float | None
     imposed: bool = False
     notes: tuple[str, ...] = ()
+    #: of a two-phase point: (liquid density [kg/m3], gas density [kg/m3], liquid viscosity [Pa s], gas viscosity
+    #: [Pa s]); None for one phase
+    phases: tuple[float, float, float, float] | None = None
+
+    def phase_fields(self) -> dict[str, float | None]:
+        """The FluidState fields of a two-phase point's phases (none for one phase); CoolProp gives no
+        surface tension of a mixture, so ``surface_tension`` is None (:data:`NO_SURFACE_TENSION` says so)."""
+        if self.phases is None:
+            return {}
+        rho_l, rho_g, mu_l, mu_g = self.phases
+        return {"liquid_density": rho_l, "gas_density": rho_g, "liquid_viscosity": mu_l, "gas_viscosity": mu_g,
+                "surface_tension": None}
+
+
+#: The note of a two-phase HEOS mixture state: CoolProp has no surface tension model for mixtures.
+NO_SURFACE_TENSION = "surface tension not known: CoolProp gives none for a mixture"
 
 
 def set_fractions(state: Any, fractions: Sequence[float], basis: str) -> None:
@@ -104,7 +120,8 @@ def _two_phase(state: Any, phases: Any, pressure: float, temperature: float) -> 
     note = (f"two-phase: vapour mass fraction {quality:.4g}; gas {rho_gas:.4g} kg/m3, {viscosities[0] * 1e3:.4g} mPa s; "
             f"liquid {rho_liquid:.4g} kg/m3, {viscosities[1] * 1e3:.4g} mPa s; homogeneous density, McAdams viscosity",)
     return Point("two-phase", homogeneous_density(quality, rho_gas, rho_liquid),
-                 mcadams_viscosity(quality, viscosities[0], viscosities[1]), quality, None, False, note)
+                 mcadams_viscosity(quality, viscosities[0], viscosities[1]), quality, None, False,
+                 (*note, NO_SURFACE_TENSION), (rho_liquid, rho_gas, viscosities[1], viscosities[0]))
 
 
 def _guard_z(z: float, phase: str, names: tuple[str, ...], pressure: float, temperature: float) -> None:

@@ -205,7 +205,7 @@ class CoolPropMixtureBackend:
                           eos="HEOS", pressure=pressure, temperature=temperature,
                           composition=tuple(zip(names, zs)), notes=notes, family="mixture (CoolProp HEOS, named)",
                           validity="CoolProp's multi-fluid model where its binary parameters are fitted (GERG-2008 "
-                                   "pairs); estimated elsewhere")
+                                   "pairs); estimated elsewhere", **point.phase_fields())
 
     def _heos_phases(self, names: tuple[str, ...]) -> Any:
         """A second AbstractState of the same components, for the phases of a two-phase state."""

@@ -247,8 +247,8 @@ class GergBackend:
 
     def _two_phase(self, fluid: Any, state: Any, pressure: float, temperature: float, notes: tuple[str, ...],
                    crossings: list[tuple[float, bool]]) -> FluidState:
-        """A two-phase state (an error for the line until two-phase sizing exists): CoolProp's own flash, with
-        the envelope's bubble and dew pressures at T."""
+        """A two-phase state: CoolProp's own flash (each phase's density and viscosity, no surface tension),
+        with the envelope's bubble and dew pressures at T."""
 
         from boresize.properties.coolprop_heos import heos_point
 
@@ -269,7 +269,7 @@ class GergBackend:
                           fluid_name=fluid.label, bubble_pressure=bubble, dew_pressure=dew, eos="GERG-2008",
                           backend_version=self.version(), pressure=pressure, temperature=temperature,
                           composition=tuple(zip(fluid.names, fluid.zs)), notes=notes + point.notes,
-                          family=_family(fluid), validity=VALIDITY)
+                          family=_family(fluid), validity=VALIDITY, **point.phase_fields())
 
     def _single(self, fluid: Any, state: Any, envelope: Envelope, phase: str, pressure: float, temperature: float,
                 notes: tuple[str, ...], bubble_pressure: float | None = None) -> FluidState:

@@ -53,6 +53,12 @@ class TableBackend:
             call is the conversion of a standard gas volume)
         """
         refuse_quality(line, self.id)  # a saturated state by quality: pure fluids of coolprop only
+        if line.phase == "two-phase":  # one density and viscosity cannot give each phase's properties
+            raise InputError("phase two-phase needs each phase's density and viscosity and the vapour fraction, "
+                             "from a backend that flashes; backend 'table' takes one density and viscosity",
+                             field="phase", value="two-phase",
+                             expected="liquid or gas with the line's own density and viscosity, or a two-phase line "
+                                      "without them (coolprop with a quality, thermo, coolprop-mixture or gerg-2008)")
         density = _given(line.density, "density", "kg/m3", DENSITY_RANGE)
         viscosity = _given(line.viscosity, "viscosity", "Pa s", VISCOSITY_RANGE)
         _check_same_point(line, pressure, temperature)

@@ -1,8 +1,8 @@
 """Two-phase lines: why single-phase sizing stops, and a labelled screen of the mixture.
 
-A line that is two-phase at its conditions (a mixture between its bubble and dew points, a liquid that
-flashes, a pure fluid on its saturation curve) is an error result: the single-phase Darcy-Weisbach
-sizing does not apply. The message gives, for screening only, the homogeneous (no-slip) density and
+A line that is two-phase at its conditions with a known vapour fraction is a two-phase line
+(:mod:`boresize.sizing.service_phase`). One whose vapour fraction is not fixed (a pure fluid on its
+saturation curve, given by pressure and temperature) is an error asking for a quality. The message gives, for screening only, the homogeneous (no-slip) density and
 the API RP 14E erosional velocity of the mixture at that density with C = 100 (US units), which is the
 standard's own two-phase use of its formula (API RP 14E, 5th ed., 1991, section 2.5, whose gas/liquid
 mixture density is the no-slip density at flowing conditions written in field units).
@@ -58,6 +58,8 @@ def two_phase_error(line: Line, state: FluidState) -> InputError:
         message += (f". Screen only, not a sizing: homogeneous density {density:.4g} kg/m3, API RP 14E mixture "
                     f"erosional velocity {velocity:.3g} m/s (C = 100, US units)")
     else:
-        message += "; the vapour fraction is not fixed by pressure and temperature on the saturation curve"
+        message += ("; the vapour fraction is not fixed by pressure and temperature on the saturation curve: "
+                    "give the line's quality (vapour mass fraction)")
     return InputError(message, field="temperature", value=conditions,
-                      expected="a liquid or gas state, or a two-phase method (not yet available)").for_line(line.tag)
+                      expected="a quality (vapour mass fraction, 0 to 1) for a two-phase line, or a liquid or gas "
+                               "state").for_line(line.tag)

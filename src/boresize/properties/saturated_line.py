@@ -20,7 +20,7 @@ __all__ = ["saturated_line"]
 def saturated_line(line: Line) -> Line:
     """``line`` (which gives a quality) with its temperature set to the saturation temperature at its pressure.
 
-    :raises InputError: a quality outside 0 to 1 or between them (two-phase), a mixture, another backend,
+    :raises InputError: a quality outside 0 to 1, a mixture, another backend,
         given density or viscosity, a pressure outside the saturation curve, a temperature or a phase that
         disagrees with the quality (field named in each)
     """
@@ -36,9 +36,9 @@ def saturated_line(line: Line) -> Line:
             field="temperature", value=line.temperature,
             expected=f"the temperature left blank or 'saturated', or within {SATURATION_MARGIN:g} K of "
                      f"{celsius_text(t_sat)}")
-    side = _SIDES[quality]
+    side = _SIDES.get(quality, "two-phase")
     if line.phase is not None and line.phase != side:
-        raise InputError(f"phase {line.phase} disagrees with quality {quality:g} (saturated "
-                         f"{'vapour' if side == 'gas' else 'liquid'})", field="phase",
+        what = {"gas": "saturated vapour", "liquid": "saturated liquid"}.get(side, "two-phase")
+        raise InputError(f"phase {line.phase} disagrees with quality {quality:g} ({what})", field="phase",
                          value=line.phase, expected=f"phase {side} or none with quality {quality:g}")
     return replace(line, temperature=t_sat)

@@ -4,8 +4,8 @@ Quality. A line may give its vapour mass fraction (``quality``) instead of a tem
 vapour, 0 saturated liquid, and the pressure alone then fixes the state (CoolProp's PQ flash). The line's
 temperature becomes the saturation temperature at its pressure (:func:`saturated_line`, called where the
 line is built, so that the record and the gas march use it); a temperature given beside a quality must
-agree with it within :data:`SATURATION_MARGIN`. A quality between 0 and 1 is a two-phase line: an error
-until a two-phase method exists. A quality is for pure fluids CoolProp knows; a mixture, another backend
+agree with it within :data:`SATURATION_MARGIN`. A quality between 0 and 1 is a two-phase line: saturated
+liquid and vapour at the line's pressure, mixed without slip (:mod:`boresize.properties.coolprop`). A quality is for pure fluids CoolProp knows; a mixture, another backend
 or a line that gives its own density or viscosity is an error.
 
 Near saturation. A pure fluid whose temperature lies within :data:`SATURATION_MARGIN` of the saturation
@@ -56,13 +56,11 @@ def refuse_quality(line: Line, backend: str) -> None:
 
 
 def check_quality(line: Line, quality: float) -> None:
-    """InputError unless the quality is 0 or 1 of a pure fluid whose properties the coolprop backend computes."""
+    """InputError unless the quality is from 0 to 1 (between them a two-phase line) of a pure fluid whose
+    properties the coolprop backend computes."""
     if not (math.isfinite(quality) and 0.0 <= quality <= 1.0):
         raise InputError(f"quality {quality:g} is outside 0 to 1", field="quality", value=quality,
                          expected="a vapour mass fraction from 0 to 1, e.g. 1, 0 or '100 %'")
-    if quality not in _SIDES:
-        raise InputError(f"quality {quality:g} is two-phase: two-phase lines are not sized yet", field="quality",
-                         value=quality, expected="1 (saturated vapour) or 0 (saturated liquid)")
     if is_mixture(line.fluid):
         raise InputError(f"quality {quality:g} is given for the mixture {line.fluid!r}: a saturated state by "
                          f"quality is available for pure fluids only", field="quality", value=quality,

@@ -191,6 +191,12 @@ class Sizer:
         return CandidateResult(candidate, hyd, self._verdicts(p, candidate, hyd))
 
     def _hydraulics(self, line: Line, state: FluidState, candidate: Candidate, mass_flow: float) -> Hydraulics:
+        if state.phase == "two-phase":  # the two-phase rating is wired here when it lands
+            raise InputError(f"two-phase hydraulics not available: {state.fluid_name or line.fluid} is two-phase "
+                             f"(vapour mass fraction {state.vapour_fraction:.3g}) and boresize cannot rate a "
+                             f"two-phase line yet", field="phase", value="two-phase",
+                             expected="a liquid or gas line until the two-phase hydraulics are available"
+                             ).for_line(line.tag)
         try:
             hyd = rate_line(line, state, candidate, mass_flow,
                             properties=lambda p, t: choose_backend(self.host, line).state(line, p, t))

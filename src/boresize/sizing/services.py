@@ -36,13 +36,13 @@ else:  # pragma: no cover
 
 __all__ = ["Service", "SizingConfig", "load_config", "read_toml"]
 
-SERVICE_KEYS = ("description", "phase", "design_margin", "pipe_class", "version")
+SERVICE_KEYS = ("description", "phase", "design_margin", "pipe_class", "version", "two_phase_method")
 TOP_KEYS = ("name", "version", "service", "pipe_class")
 #: The phases a service may accept: "dense" is a fluid above its critical point at a liquid-like density
-#: (:mod:`boresize.properties.coolprop`), judged only by services that name it.
-SERVICE_PHASES = ("liquid", "gas", "dense")
+#: (:mod:`boresize.properties.coolprop`), judged only by services that name it; "two-phase" a gas-liquid line.
+SERVICE_PHASES = ("liquid", "gas", "dense", "two-phase")
 #: The shipped criteria sets, one file per family, in ``boresize/criteria/sets/``.
-SHIPPED_SETS = ("liquid.toml", "gas.toml")
+SHIPPED_SETS = ("liquid.toml", "gas.toml", "two-phase.toml")
 
 
 _FEASIBILITY = LineFeasibility()
@@ -63,6 +63,8 @@ class Service:
     version: str = ""
     #: every phase the service accepts (``phase = ["liquid", "dense"]``), the first being ``phase``
     phases: tuple[str, ...] = ()
+    #: the two-phase pressure-drop correlation the service asks for (fluids' name); a line's own wins
+    two_phase_method: str | None = None
     #: (phase, names of the services in force that accept it), filled when the config is loaded
     takers: tuple[tuple[str, tuple[str, ...]], ...] = field(default=(), compare=False, repr=False)
 
@@ -170,6 +172,14 @@ def _service(name: str, table: Mapping[str, Any], host: PluginHost, origin: str,
             expected=f'at least one criterion besides {FEASIBILITY_ID}, e.g. velocity = {{ max = "3 m/s" }} '
                      f'(criteria: {", ".join(_named_ids(host))})')
     phases = _phases(table.get("phase"), where)
+    if "two-phase" in phases:  # a criterion that cannot judge a two-phase line would pass it unseen
+        blind = [c.id for c, _ in criteria if "two-phase" not in c.phases]
+        if blind:
+            raise CriteriaFileError(
+                f"service {name!r} accepts two-phase lines but {', '.join(blind)} cannot judge one",
+                field=where, value=", ".join(blind),
+                expected="criteria that judge two-phase lines (" + ", ".join(
+                    i for i in _named_ids(host) if "two-phase" in host.criteria.get(i).phases) + ")")
     margin = parse_quantity(table.get("design_margin", 0.0), f"{where}.design_margin", "dimensionless")
     if not 0.0 <= margin < 1.0:  # a negative margin would shrink the sizing flow: a silently small size
         raise CriteriaFileError(f"{table['design_margin']!r} is outside 0 to 100 %", field=f"{where}.design_margin",
@@ -180,7 +190,21 @@ def _service(name: str, table: Mapping[str, Any], host: PluginHost, origin: str,
     return Service(name=name, criteria=tuple(criteria), phase=phases[0] if phases else None, phases=phases,
                    design_margin=margin,
                    pipe_class=table.get("pipe_class"), description=str(table.get("description", "")), origin=origin,
-                   set_name=set_name, version=version)
+                   set_name=set_name, version=version,
+                   two_phase_method=_two_phase_method(table.get("two_phase_method"), f"{where}.two_phase_method"))
+
+
+def _two_phase_method(value: Any, where: str) -> str | None:
+    """A service's ``two_phase_method``: a correlation of ``fluids.two_phase.two_phase_correlations``."""
+    if value is None:
+        return None
+    from boresize.hydraulics.two_phase_names import two_phase_method_name, two_phase_methods
+
+    name = two_phase_method_name(value) if isinstance(value, str) else None
+    if name is None:
+        raise CriteriaFileError(f"unknown two-phase method {value!r}", field=where, value=value,
+                                expected=f"a correlation of the fluids library: {', '.join(two_phase_methods())}")
+    return name
 
 
 def _phases(value: Any, where: str) -> tuple[str, ...]:
@@ -191,7 +215,7 @@ def _phases(value: Any, where: str) -> tuple[str, ...]:
     for phase in given:
         if phase not in SERVICE_PHASES:
             raise CriteriaFileError(f"unknown phase {phase!r}", field=f"{where}.phase", value=phase,
-                                    expected='"liquid", "gas" or "dense", or a list of them')
+                                    expected='"liquid", "gas", "dense" or "two-phase", or a list of them')
     return tuple(dict.fromkeys(given))
 
 

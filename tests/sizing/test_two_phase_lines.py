@@ -1,0 +1,100 @@
+"""Two-phase lines: detection, the services that accept them, the line's and the service's two_phase_method,
+and the one place where the rating stops until the two-phase hydraulics land."""
+
+from __future__ import annotations
+
+import pytest
+
+from boresize.api import make_line
+from boresize.errors import CriteriaFileError, InputError
+from boresize.io.rows import line_from_row
+from boresize.sizing.services import load_config
+
+STEAM = {"tag": "TP-1", "fluid": "steam", "flow": "10 t/h", "pressure": "10 bar", "quality": "0.3"}
+
+
+def test_a_two_phase_line_reaches_the_rating_and_stops_there_with_one_clear_error(sizer):
+    result = sizer.run(line_from_row(STEAM))
+    assert result.status == "error" and result.error_field == "phase"
+    assert result.error == ("line TP-1: phase: two-phase hydraulics not available: Water is two-phase (vapour mass "
+                            "fraction 0.3) and boresize cannot rate a two-phase line yet; expected a liquid or gas "
+                            "line until the two-phase hydraulics are available")
+
+
+def test_a_line_without_service_that_flashes_to_two_phases_gets_the_two_phase_service(sizer):
+    from boresize.sizing.service_phase import default_service
+
+    line = make_line("TP-2", "propane 0.5, n-butane 0.5", "10 t/h", "8 bar", "40 degC")
+    from boresize.properties.select import fluid_state
+
+    state = fluid_state(sizer.host, line)
+    assert state.phase == "two-phase" and default_service(line, state) == "two-phase"
+
+
+@pytest.mark.parametrize(("service", "phase"), [("gas", "gas"), ("liquid", "liquid or dense"), ("steam", "gas")])
+def test_a_two_phase_line_in_a_single_phase_service_names_the_services_that_take_it(sizer, service, phase):
+    result = sizer.run(line_from_row(STEAM | {"service": service}))
+    assert result.status == "error" and result.error_field == "service"
+    assert (f"service {service!r} judges {phase} lines only; use service two-phase or two-phase-intermittent"
+            in result.error)
+
+
+def test_the_shipped_two_phase_services_accept_two_phase_and_judge_with_criteria_that_can(host):
+    config = load_config(host)
+    for name, c_us in (("two-phase", 100.0), ("two-phase-intermittent", 125.0)):
+        service = config.services[name]
+        assert service.accepts == ("two-phase",)
+        assert all("two-phase" in criterion.phases for criterion, _ in service.criteria)
+        ids = {criterion.id: options for criterion, options in service.criteria}
+        # API RP 14E (5th ed., 1991) section 2.5: C = 100 continuous, 125 intermittent (US units)
+        assert ids["erosional"]["c_us"] == c_us
+        assert {"erosional", "momentum", "drop-per-length"} <= set(ids)
+    assert dict(config.services["gas"].takers)["two-phase"] == ("two-phase", "two-phase-intermittent")
+
+
+def test_a_two_phase_service_with_a_criterion_blind_to_two_phase_is_refused(host, tmp_path):
+    path = tmp_path / "c.toml"
+    path.write_text('[service.wet]\nphase = "two-phase"\nvelocity = { max = "20 m/s" }\n', encoding="utf-8")
+    with pytest.raises(CriteriaFileError, match="accepts two-phase lines but velocity cannot judge one"):
+        load_config(host, path)
+
+
+def test_a_service_stores_its_two_phase_method_and_the_line_keeps_its_own(host, tmp_path):
+    path = tmp_path / "c.toml"
+    path.write_text('[service.wet]\nphase = "two-phase"\ntwo_phase_method = "beggs brill"\n'
+                    'erosional = { c_us = 100 }\n', encoding="utf-8")
+    assert load_config(host, path).services["wet"].two_phase_method == "Beggs-Brill"  # the fluids library's name
+    line = line_from_row(STEAM | {"two_phase_method": "lockhart martinelli"})
+    assert line.two_phase_method == "Lockhart_Martinelli"
+
+
+@pytest.mark.parametrize("bad", ["Begs-Brill", "42", "homogenous"])
+def test_an_unknown_two_phase_method_names_line_field_value_and_the_choices(bad):
+    with pytest.raises(InputError) as info:
+        line_from_row(STEAM | {"two_phase_method": bad})
+    assert info.value.field == "two_phase_method"
+    assert str(info.value).startswith(f"line TP-1: two_phase_method: unknown two-phase method {bad!r}; expected a "
+                                      f"correlation of the fluids library: Bankoff, ")
+    assert "Beggs-Brill" in str(info.value) and "Lockhart_Martinelli" in str(info.value)
+
+
+def test_phase_two_phase_on_a_single_phase_state_asks_for_a_quality(sizer):
+    line = make_line("TP-3", "water", "10 t/h", "5 bar", "40 degC", phase="two-phase", service="two-phase")
+    result = sizer.run(line)
+    assert result.status == "error" and result.error_field == "phase"
+    assert "a pure fluid's two-phase line is given by its pressure and quality" in result.error
+
+
+def test_near_saturation_in_a_single_phase_service_is_unchanged(sizer):
+    from CoolProp.CoolProp import PropsSI
+
+    t_sat = PropsSI("T", "P", 1e6, "Q", 0, "Water")  # CoolProp, IAPWS-95
+    result = sizer.run(make_line("TP-4", "water", "10 t/h", 1e6, t_sat + 0.2, si=True, service="steam"))
+    assert result.status == "pass"  # gas side, and the service's phase is gas
+
+
+def test_a_mixture_that_flashes_to_two_phases_against_the_lines_own_phase_is_an_error(sizer):
+    line = make_line("TP-5", "propane 0.5, n-butane 0.5", "10 t/h", "8 bar", "40 degC", phase="liquid")
+    result = sizer.run(line)
+    assert result.status == "error" and result.error_field == "phase"
+    assert "is two-phase at 40 degC and 8 bar abs" in result.error and "the line's phase is liquid" in result.error
