@@ -1,5 +1,5 @@
 """Two-phase lines: detection, the services that accept them, the line's and the service's two_phase_method,
-and the one place where the rating stops until the two-phase hydraulics land."""
+and a two-phase line rated end to end."""
 
 from __future__ import annotations
 
@@ -13,12 +13,29 @@ from boresize.sizing.services import load_config
 STEAM = {"tag": "TP-1", "fluid": "steam", "flow": "10 t/h", "pressure": "10 bar", "quality": "0.3"}
 
 
-def test_a_two_phase_line_reaches_the_rating_and_stops_there_with_one_clear_error(sizer):
-    result = sizer.run(line_from_row(STEAM))
-    assert result.status == "error" and result.error_field == "phase"
-    assert result.error == ("line TP-1: phase: two-phase hydraulics not available: Water is two-phase (vapour mass "
-                            "fraction 0.3) and boresize cannot rate a two-phase line yet; expected a liquid or gas "
-                            "line until the two-phase hydraulics are available")
+def test_a_two_phase_line_is_rated_by_the_two_phase_method_and_matches_fluids(sizer):
+    """Steam at quality 0.3 in service two-phase: the selected size's drop per length is fluids' Beggs-Brill on
+    CoolProp's saturated liquid and vapour at 10 bar (outside references: fluids.two_phase.Beggs_Brill,
+    CoolProp.PropsSI with Q = 0 and Q = 1)."""
+    from CoolProp.CoolProp import PropsSI
+    from fluids.two_phase import Beggs_Brill
+
+    result = sizer.run(line_from_row(STEAM | {"service": "two-phase"}))
+    assert result.status in ("pass", "fail") and result.selected is not None, result.error
+    hyd = result.selected.hydraulics
+    assert hyd.two_phase is not None and hyd.two_phase.method == "Beggs-Brill"
+    assert hyd.mass_flow == pytest.approx(10000 / 3600 * (1 + (result.design_margin or 0.0)))
+    p = 10e5
+    rhol, rhog = PropsSI("D", "P", p, "Q", 0, "Water"), PropsSI("D", "P", p, "Q", 1, "Water")
+    mul, mug = PropsSI("V", "P", p, "Q", 0, "Water"), PropsSI("V", "P", p, "Q", 1, "Water")
+    sigma = PropsSI("I", "P", p, "Q", 0, "Water")
+    cand = result.selected.candidate
+    expected = Beggs_Brill(m=hyd.mass_flow, x=0.3, rhol=rhol, rhog=rhog, mul=mul,
+                           mug=mug, sigma=sigma, P=p, D=cand.inside_diameter, angle=0.0,
+                           roughness=cand.roughness, L=1.0)
+    assert hyd.drop_per_length == pytest.approx(expected, rel=0.01)
+    assert hyd.two_phase.vapour_fraction == pytest.approx(0.3)
+    assert hyd.outlet_pressure is not None and 0 < hyd.outlet_pressure < p
 
 
 def test_a_line_without_service_that_flashes_to_two_phases_gets_the_two_phase_service(sizer):

@@ -187,19 +187,15 @@ class Sizer:
     def _rate(self, p: _Prepared, candidate: Candidate) -> CandidateResult:
         """Rate one candidate: a gas line whose drop exceeds the simple method's limit is marched, whatever its
         verdicts, so that every number it reports comes from the method its verdicts used."""
-        hyd = self._hydraulics(p.line, p.state, candidate, p.mass_flow)
+        hyd = self._hydraulics(p.line, p.state, candidate, p.mass_flow, p.service.two_phase_method)
         return CandidateResult(candidate, hyd, self._verdicts(p, candidate, hyd))
 
-    def _hydraulics(self, line: Line, state: FluidState, candidate: Candidate, mass_flow: float) -> Hydraulics:
-        if state.phase == "two-phase":  # the two-phase rating is wired here when it lands
-            raise InputError(f"two-phase hydraulics not available: {state.fluid_name or line.fluid} is two-phase "
-                             f"(vapour mass fraction {state.vapour_fraction:.3g}) and boresize cannot rate a "
-                             f"two-phase line yet", field="phase", value="two-phase",
-                             expected="a liquid or gas line until the two-phase hydraulics are available"
-                             ).for_line(line.tag)
+    def _hydraulics(self, line: Line, state: FluidState, candidate: Candidate, mass_flow: float,
+                    two_phase_method: str | None = None) -> Hydraulics:
         try:
             hyd = rate_line(line, state, candidate, mass_flow,
-                            properties=lambda p, t: choose_backend(self.host, line).state(line, p, t))
+                            properties=lambda p, t: choose_backend(self.host, line).state(line, p, t),
+                            two_phase_method=two_phase_method)
         except (OverflowError, ZeroDivisionError) as exc:
             raise _beyond_range(mass_flow, f"in NPS {candidate.nps}") from exc
         isfinite = math.isfinite  # an inf drop would fail every size, a NaN pass it
