@@ -47,8 +47,9 @@ def _without_outputs(monkeypatch) -> None:  # type: ignore[no-untyped-def]
     """A core-only install: every output module missing (``import`` of a None entry fails as uninstalled)."""
     import sys
 
-    for name in OUTPUT_MODULES:
-        monkeypatch.setitem(sys.modules, name, None)
+    for name in OUTPUT_MODULES:  # submodules too: an imported ``rich.console`` is found without its parent
+        for loaded in [m for m in sys.modules if m == name or m.startswith(name + ".")] or [name]:
+            monkeypatch.setitem(sys.modules, loaded, None)
 
 
 def test_the_core_install_sizes_and_writes_json_and_csv(tmp_path, monkeypatch, capsys):

@@ -47,6 +47,11 @@ def _in_corpus(plugins: list[str]) -> Iterator[None]:
     def entry_points(group: str) -> list[EntryPoint]:
         return [EntryPoint(*spec.split(" = "), group) for spec in plugins] if group == "boresize" else []
 
+    from boresize.sizing import batch
+
+    # The process's sizers are cached by spec, not by which entry points exist: one built by an earlier test with
+    # the real entry points would hide this case's plugins (a test-order failure), so each case starts clean.
+    batch._SIZERS.clear()
     here = os.getcwd()
     os.chdir(CORPUS)
     try:
@@ -55,6 +60,7 @@ def _in_corpus(plugins: list[str]) -> Iterator[None]:
             yield
     finally:
         os.chdir(here)
+        batch._SIZERS.clear()
 
 
 @functools.cache

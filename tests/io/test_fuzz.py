@@ -3,8 +3,8 @@
 Whatever text or object arrives, each entry point either gives a clean result or raises an error
 of boresize's own tree (:class:`boresize.errors.BoresizeError`) that names its field and what was
 expected: never another exception, never an infinite or NaN number, never a hang. A hang is caught
-two ways: a hypothesis ``deadline`` per example (slow inputs, the precursor of a hang) and a
-watchdog timer that interrupts an example running for seconds.
+by a watchdog timer that interrupts an example running for seconds (no per-example hypothesis deadline:
+on a loaded machine a 400 ms deadline failed examples that take under 1 ms when run again).
 
 The quick runs are derandomized (the same examples every time, so CI is stable); the ``slow``
 sweeps draw fresh random examples on every run. The properties are the package's contract
@@ -19,7 +19,6 @@ import math
 import signal
 import typing
 from collections.abc import Iterator
-from datetime import timedelta
 
 import pytest
 from hypothesis import HealthCheck, given, settings
@@ -33,9 +32,9 @@ from boresize.units import QuantityKind, parse_flow, parse_quantity, registry
 from boresize.api import size_rows
 
 KINDS = typing.get_args(QuantityKind)
-QUICK = settings(max_examples=150, deadline=timedelta(milliseconds=400), derandomize=True,
+QUICK = settings(max_examples=150, deadline=None, derandomize=True,
                  suppress_health_check=[HealthCheck.too_slow])
-SWEEP = settings(max_examples=3000, deadline=timedelta(milliseconds=400),
+SWEEP = settings(max_examples=3000, deadline=None,
                  suppress_health_check=[HealthCheck.too_slow])
 BUDGETS = [pytest.param(QUICK, id="quick"), pytest.param(SWEEP, id="sweep", marks=pytest.mark.slow)]
 WATCHDOG_S = 5.0  # an example still running after this long is a hang
