@@ -91,7 +91,7 @@ def test_an_unknown_two_phase_method_names_line_field_value_and_the_choices(bad)
         line_from_row(STEAM | {"two_phase_method": bad})
     assert info.value.field == "two_phase_method"
     assert str(info.value).startswith(f"line TP-1: two_phase_method: unknown two-phase method {bad!r}; expected a "
-                                      f"correlation of the fluids library: Bankoff, ")
+                                      f"correlation of the fluids library: homogeneous, Bankoff, ")
     assert "Beggs-Brill" in str(info.value) and "Lockhart_Martinelli" in str(info.value)
 
 
@@ -115,3 +115,26 @@ def test_a_mixture_that_flashes_to_two_phases_against_the_lines_own_phase_is_an_
     result = sizer.run(line)
     assert result.status == "error" and result.error_field == "phase"
     assert "is two-phase at 40 degC and 8 bar abs" in result.error and "the line's phase is liquid" in result.error
+
+
+def test_homogeneous_is_one_name_for_the_line_list_and_the_hydraulics(sizer):
+    """``homogeneous`` is accepted where the line list is read and where the line is rated (one list of names)."""
+    from boresize.hydraulics.two_phase import accepted_methods
+    from boresize.hydraulics.two_phase_names import two_phase_methods
+
+    assert accepted_methods() == two_phase_methods() and "homogeneous" in two_phase_methods()
+    result = sizer.run(line_from_row(STEAM | {"service": "two-phase", "two_phase_method": "Homogeneous"}))
+    assert result.selected is not None and result.selected.hydraulics.two_phase is not None
+    assert result.selected.hydraulics.two_phase.method == "homogeneous"
+
+
+def test_critical_two_phase_flow_says_why_it_cannot_flow(sizer):
+    """Steam-water at 0.05 bar abs, quality 0.5, 20 t/h: Beggs & Brill's acceleration term Ek = v_m v_sg rho_s / p
+    reaches 1 in every size the class offers (the fluids library's Beggs_Brill turns negative there); the line
+    fails as one that cannot flow, and the record says why (not 'at 0 m')."""
+    row = STEAM | {"service": "two-phase", "pressure": "0.05 bar", "flow": "20 t/h", "quality": "0.5",
+                   "length": "60 m"}
+    result = sizer.run(line_from_row(row))
+    assert result.status == "fail"
+    worst = result.candidates[-1].hydraulics
+    assert worst.choked and "acceleration term diverges" in worst.method and worst.outlet_pressure == 0.0

@@ -41,9 +41,10 @@ _SEGMENTS = 20
 
 
 def accepted_methods() -> tuple[str, ...]:
-    """The correlation names ``two_phase_method`` accepts: ``homogeneous`` and the fluids library's."""
-    from fluids.two_phase import two_phase_correlations
-    return ("homogeneous", *sorted(two_phase_correlations))
+    """The correlation names ``two_phase_method`` accepts: ``homogeneous`` and the fluids library's (one list, in
+    :mod:`boresize.hydraulics.two_phase_names`, which the line-list and criteria-file readers check against)."""
+    from boresize.hydraulics.two_phase_names import two_phase_methods
+    return two_phase_methods()
 
 
 def resolve_method(line: Line, method: str | None) -> str:
@@ -255,8 +256,8 @@ def rate_two_phase(line: Line, state: FluidState, candidate: Candidate, mass_flo
     outlet = line.pressure - total
     if choked:  # the line cannot pass this flow: no outlet pressure below zero is reported as a number to use
         outlet = 0.0
-        text += ("; CANNOT FLOW: the drop reaches the inlet pressure "
-                 f"{'at ' + format(march.reached, '.4g') + ' m' if march.stopped else 'at the outlet'}")
+        text += (f"; CANNOT FLOW: stops {format(march.reached, '.4g')} m from the inlet: {march.why}" if march.stopped
+                 else "; CANNOT FLOW: the drop reaches the inlet pressure at the outlet")
     two = TwoPhaseFlow(method=name, vapour_fraction=inlet.x, flow_regime=regime_name, regime_map=REGIME_MAP,
                        liquid_holdup=first.holdup, superficial_liquid_velocity=mass_flow * (1 - inlet.x) / (
                            inlet.rhol * area),
@@ -292,6 +293,7 @@ class _March:
     stopped: bool = False
     outlet_x: float | None = None
     note: str = "at the inlet"
+    why: str = ""  # why the march stopped, when it did
 
 
 def _march(line: Line, name: str, m: float, inlet: _Phases, bore: tuple[float, float], segments: int,
@@ -313,6 +315,10 @@ def _march(line: Line, name: str, m: float, inlet: _Phases, bore: tuple[float, f
         drop = step.friction + step.static + step.acceleration
         if not math.isfinite(drop) or drop >= p:
             out.stopped, out.reached = True, i * dx + (dx * p / drop if math.isfinite(drop) and drop > 0 else 0.0)
+            out.why = ("the drop reaches the local pressure" if math.isfinite(drop) else
+                       "the acceleration term diverges there (Beggs & Brill's Ek = v_m v_sg rho_s / p reaches 0.9: "
+                       "critical two-phase flow)" if math.isinf(step.acceleration) else
+                       "the correlation gives no finite drop there")
             out.friction += step.friction * (out.reached - i * dx) / dx if dx > 0 else 0.0
             return out
         out.friction += step.friction

@@ -1,7 +1,7 @@
 """The two-phase pressure-drop correlations a line or a service may name (``two_phase_method``).
 
 The names are the fluids library's own (the keys of ``fluids.two_phase.two_phase_correlations``, e.g.
-"Beggs-Brill", "Lockhart_Martinelli", "Friedel"); a name is matched without regard to case, spaces, hyphens
+"Beggs-Brill", "Lockhart_Martinelli", "Friedel") and ``homogeneous`` (Darcy-Weisbach at the no-slip density); a name is matched without regard to case, spaces, hyphens
 and underscores ("beggs brill") and stored as the library spells it. The rating itself is elsewhere (the two-phase hydraulics).
 """
 
@@ -15,10 +15,10 @@ __all__ = ["two_phase_methods", "two_phase_method_name"]
 
 @functools.lru_cache(maxsize=1)
 def two_phase_methods() -> tuple[str, ...]:
-    """The correlation names of ``fluids.two_phase.two_phase_correlations``, sorted."""
+    """``homogeneous`` and the correlation names of ``fluids.two_phase.two_phase_correlations``, sorted."""
     from fluids.two_phase import two_phase_correlations
 
-    return tuple(sorted(two_phase_correlations))
+    return ("homogeneous", *sorted(two_phase_correlations))
 
 
 def two_phase_method_name(text: str) -> str | None:

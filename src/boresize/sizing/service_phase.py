@@ -66,7 +66,7 @@ def check_phase(line: Line, state: FluidState, service: Service) -> None:
     if not accepts or found in accepts:
         return
     wanted = " or ".join(accepts)
-    why = f"the line's phase is {line.phase}" if line.phase is not None else f"service {service.name!r} needs a {wanted}"
+    why = f"the line's phase is {line.phase}" if line.phase is not None else f"service {service.name!r} needs a {wanted} line"
     if line.phase == "two-phase":
         raise InputError(
             f"{state.fluid_name or line.fluid} is {state.phase} at {conditions_text(line)} ({state.source}); the "
