@@ -17,7 +17,7 @@ import pytest
 from boresize.api import run_lines
 from boresize.io.csv_reader import parse_csv_text
 from boresize.report.html import render_html
-from boresize.report.plot import DROP_COLOUR, VELOCITY_COLOUR
+from boresize.report.plot import CASE_COLOURS, SELECTED_COLOUR
 
 DEMO = Path(__file__).resolve().parents[2] / "examples" / "demo-unit"
 CHROMIUM = Path("/usr/bin/chromium")
@@ -155,7 +155,8 @@ def test_report_renders_in_headless_chromium_with_the_plot_visible(host, tmp_pat
         rgb = [int(colour[i:i + 2], 16) / 255 for i in (1, 3, 5)]
         return int(((abs(pixels - rgb) < 0.06).all(axis=-1)).sum())
 
-    assert count(VELOCITY_COLOUR) > 150 and count(DROP_COLOUR) > 150  # both plot series are on screen
+    # the one case's series in both panels (first palette colour) and the selected size's band are on screen
+    assert count(CASE_COLOURS[0]) > 300 and count(SELECTED_COLOUR) > 2000
     dom = subprocess.run([str(CHROMIUM), *flags, "--dump-dom", page.as_uri()], capture_output=True, text=True,
                          timeout=120, check=True).stdout
     assert "<script" not in dom and "&lt;script&gt;alert" in dom  # the tag is text in the browser's DOM
