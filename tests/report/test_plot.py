@@ -102,3 +102,19 @@ def test_a_narrow_span_gets_a_linear_axis_with_labelled_ticks() -> None:
     assert svg is not None
     labels = [text for group, text in _parse(svg.split('id="axes_2"')[0]).texts if group.startswith("ytick_")]
     assert len(labels) >= 4 and labels[0] == "0"  # a linear axis starts at zero
+
+
+def test_case_names_are_text_not_mathematics_or_markup_and_many_cases_stay_apart() -> None:
+    from boresize.io.csv_reader import parse_csv_text
+
+    rows = ["tag,fluid,flow,pressure,temperature,length,case,service"]
+    names = ["$\\frac$", "<b>max</b>", *(f"c{k}" for k in range(3, 9))]  # an unbalanced TeX command, markup, 8 cases
+    rows += [f"H-1,water,{10 + 2 * k} t/h,5 barg,20 degC,50 m,{name},liquid" for k, name in enumerate(names)]
+    run = run_lines(parse_csv_text("\n".join(rows) + "\n", "hostile.csv"), plugins=False)
+    svg = line_plot_svg(run.results[0])
+    assert svg is not None and "<b>" not in svg
+    texts = [text for _, text in _parse(svg).texts]
+    assert "$\\frac$" in texts and "<b>max</b>" in texts  # as written, in the legend
+    # all seven palette colours are drawn (the eighth case reuses the first colour with another marker)
+    assert {c.lower() for c in CASE_COLOURS} <= set(re.findall(r"stroke: (#[0-9a-f]{6})", svg))
+    assert len(set(re.findall(r'<defs>\s*<path id="(m[0-9a-f]+)"', svg))) >= 6  # six marker shapes

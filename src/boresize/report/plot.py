@@ -128,7 +128,7 @@ def _draw(axes: Any, labels: list[str], series: Series, unit: str, chosen: str |
         axes.text(at, 1.01, f"selected NPS {_label(chosen or '')}", transform=axes.get_xaxis_transform(),
                   ha="center", va="bottom", fontsize=7, fontweight="bold")
     axes.set_xlim(-0.5, len(labels) - 0.5)
-    axes.set_xticks(range(len(labels)), labels, rotation=45)
+    axes.set_xticks(range(len(labels)), [_label(label) for label in labels], rotation=45)
     axes.grid(True, which="major", alpha=0.3)
     return handles
 
