@@ -193,3 +193,19 @@ def test_the_demo_prints_to_at_most_two_pages_a_line_without_console_errors(tmp_
     assert dom.stdout.count("<svg") == lines
     assert "<img" not in dom.stdout and "<link" not in dom.stdout and "<script" not in dom.stdout
     assert "@import" not in html and not re.search(r"url\((?!#)", html)  # only the SVGs' own clip paths
+
+
+def test_the_cases_of_a_line_stand_side_by_side_in_one_table(demo):
+    html, results, _ = demo
+    section = html[html.index('id="line-2"'):html.index('id="line-3"')]  # 140-P-002: three cases
+    table = next(t for t in _tables(section) if t[0][0] == "Cases side by side")
+    assert table[0] == ["Cases side by side", "Unit", "normal", "maximum", "minimum"]
+    rows = {row[0]: row[2:] for row in table[1:] if len(row) > 2}  # the last row of a name: as used, results
+    flows = [row[2:] for row in table[1:] if row[0] == "flow"]
+    # examples/demo-unit/lines.csv: 45, 54 and 20 t/h as given, in kg/h as used; every case passes at NPS 4
+    assert flows == [["45 t/h", "54 t/h", "20 t/h"], ["45000", "54000", "20000"]]
+    assert rows["status"] == ["pass", "pass", "pass"] and len(rows["velocity"]) == 3
+    assert section.count('class="differs"') >= 3  # flow, pressure, results at least
+    assert "Input (as given" not in section and "As used" not in section  # no repeated input blocks
+    single = html[html.index('id="line-1"'):html.index('id="line-2"')]
+    assert "Input (as given" in single and "Cases side by side" not in single

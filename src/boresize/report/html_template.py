@@ -22,7 +22,7 @@ th, td { border: 1px solid #bbb; padding: 2px 6px; text-align: left; vertical-al
 th { background: #eee; } td.num { text-align: right; font-variant-numeric: tabular-nums; }
 .pass { background: #d4f4d4; } .fail { background: #f9d0d0; } .error { background: #f6e3b0; }
 .warn { background: #fff3b0; } .not-applicable { background: #eeeeee; color: #666; }
-tr.selected td { font-weight: bold; }
+tr.selected td { font-weight: bold; } tr.differs td { background: #eef4fb; font-weight: bold; }
 .caution { border: 2px solid #c0392b; padding: 8px; background: #fff6f5; }
 .plot svg { max-width: 100%; height: auto; }
 .line { page-break-inside: avoid; }
@@ -91,13 +91,23 @@ controlling criterion: {{ line.controlling }}{% if line.case %}; governing case:
 </table>
 {% endif %}
 {% if line.plot %}<div class="plot">{{ line.plot | safe }}</div>{% endif %}
+{% if line.side %}
+<table class="cases"><tr><th>Cases side by side</th><th>Unit</th>{% for name in line.side.names %}<th>{{ name }}</th>{% endfor %}</tr>
+{% for row in line.side.rows %}
+{% if loop.first or row.section != loop.previtem.section %}<tr><th colspan="{{ 2 + line.side.names | length }}">{{ row.section }}</th></tr>{% endif %}
+<tr{% if row.differs %} class="differs"{% endif %}><td>{{ row.name }}</td><td>{{ row.unit }}</td>{% for value in row["values"] %}<td{% if row.section != "input (as given)" %} class="num"{% endif %}>{{ value }}</td>{% endfor %}</tr>
+{% endfor %}
+</table>
+{% endif %}
 {% for case in line.cases %}
 {% if line.cases | length > 1 %}<h3>Case {{ case.name }} <span class="{{ case.status }}">&nbsp;{{ case.status }}&nbsp;</span></h3>{% endif %}
 {% if case.error %}<p class="error">{{ case.error }}</p>{% endif %}
 <div class="pair">
+{% if case.given %}
 <table><tr><th>Input (as given{% if case.differs_from is not none %}; what differs from case {{ case.differs_from }}{% endif %})</th><th>Value</th><th>Default unit of the column</th></tr>
 {% for name, value, unit in case.given %}<tr><td>{{ name }}</td><td>{{ value }}</td><td>{{ unit }}</td></tr>{% endfor %}
 </table>
+{% endif %}
 {% if case.used %}
 <table><tr><th>As used{% if case.differs_from is not none %} (what differs from case {{ case.differs_from }}){% endif %}</th><th>Value</th><th>Unit</th></tr>
 {% for name, value, unit in case.used %}<tr><td>{{ name }}</td><td class="num">{{ value }}</td><td>{{ unit }}</td></tr>{% endfor %}
