@@ -214,3 +214,32 @@ def test_the_summary_row_has_fluid_flow_pressure_and_temperature(page: str) -> N
     cells = dict(zip(head, row))
     assert cells["Fluid"] == "water" and cells["P in [bar abs]"] == "6.000" and cells["T [degC]"] == "30.0"
     assert float(cells["Sizing flow [kg/h]"]) >= 40000  # 40 t/h, and the service's design margin if any
+
+
+def test_the_document_block_reaches_the_json_document_and_the_workbook_cover(tmp_path: Path) -> None:
+    from jsonschema import Draft202012Validator
+    from openpyxl import load_workbook
+
+    from boresize.api import document_schema
+
+    (tmp_path / "lines.csv").write_text(LINES, encoding="utf-8")
+    (tmp_path / "sheet.toml").write_text(SHEET, encoding="utf-8")
+    run = run_lines(tmp_path / "lines.csv", document=tmp_path / "sheet.toml")
+    expected = {"project": "Walk-through", "unit": "Unit 7", "number": "CALC-7-001", "revision": "2",
+                "date": "2026-12-03", "prepared": "P. Reparer", "checked": "C. Hecker", "approved": "",
+                "notes": "For the test."}
+    doc = run.document()
+    assert doc["document"] == expected
+    assert list(Draft202012Validator(document_schema()).iter_errors(doc)) == []
+    assert "document" not in run_lines(tmp_path / "lines.csv").document()  # no block given: no key
+    written = __import__("json").loads(run.write(tmp_path / "r.json").read_text(encoding="utf-8"))
+    assert written["document"] == expected
+    cover = load_workbook(run.write(tmp_path / "r.xlsx"))["cover"]
+    cells = {row[0]: row[1] for row in cover.iter_rows(values_only=True) if row and row[0] in expected}
+    assert {k: v or "" for k, v in cells.items()} == expected
+    # a block given to write() alone replaces the run's own in that file
+    other = load_workbook(run.write(tmp_path / "o.xlsx", document={"project": "Other"}))["cover"]
+    assert any(row[:2] == ("project", "Other") for row in other.iter_rows(values_only=True))
+    extra = dict(doc)
+    extra["document"] = {**expected, "owner": "x"}  # the schema refuses an undeclared key in the block
+    assert list(Draft202012Validator(document_schema()).iter_errors(extra))

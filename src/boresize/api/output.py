@@ -47,7 +47,9 @@ def _csv(path: Path, run: Run) -> None:
 def _xlsx(path: Path, run: Run) -> None:
     from boresize.io.xlsx import write_xlsx
 
-    write_xlsx(path, run.results, run.line_list.headers or None, trace=run.trace.to_dict())
+    block = run.document_block
+    write_xlsx(path, run.results, run.line_list.headers or None, trace=run.trace.to_dict(),
+               document=dict(block.rows()) if block is not None else None)
 
 
 def _html(path: Path, run: Run) -> None:

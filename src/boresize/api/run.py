@@ -124,7 +124,8 @@ class Run:
 
         doc = document(self.results, criteria_source=self.trace.criteria_source,
                        lines_source=self.line_list.source, traceability=self.trace.to_dict(),
-                       criterion_seconds=self.criterion_seconds if timings else None)
+                       criterion_seconds=self.criterion_seconds if timings else None,
+                       document_block=dict(self.document_block.rows()) if self.document_block else None)
         for entry, room in zip(doc["lines"], self.headrooms or ()):
             entry.update(headroom_to_dict(room))
         return doc

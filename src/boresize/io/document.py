@@ -42,7 +42,7 @@ def _is_two_phase(result: LineResult) -> bool:
     return result.selected is not None and result.selected.hydraulics.two_phase is not None
 
 
-SCHEMA_VERSION = "1.1"
+SCHEMA_VERSION = "1.2"
 """The document's ``schema_version``: the major number changes when a key is removed or changes meaning, the minor
 number when one is added. The schema itself ships as ``boresize/schema/document.schema.json``."""
 
@@ -208,8 +208,11 @@ TWO_PHASE_KEYS = ("two_phase_method", "flow_regime", "regime_map", "liquid_holdu
 
 def document(results: Sequence[LineResult], *, criteria_source: str, lines_source: str,
              traceability: Mapping[str, Any] | None = None,
-             criterion_seconds: Mapping[str, float] | None = None) -> dict[str, Any]:
-    """The whole JSON document: lines in input order, a summary, the caution and (given) the traceability.
+             criterion_seconds: Mapping[str, float] | None = None,
+             document_block: Mapping[str, str] | None = None) -> dict[str, Any]:
+    """The whole JSON document: lines in input order, a summary, the caution and (given) the traceability and
+    the calculation sheet's document block (``document``: project, unit, number, revision, date, prepared, checked,
+    approved, notes, each text; schema 1.2).
 
     Given ``criterion_seconds`` (criterion id -> seconds its evaluate took over the run), the summary holds them
     as ``criterion_seconds``, rounded to the microsecond.
@@ -227,6 +230,8 @@ def document(results: Sequence[LineResult], *, criteria_source: str, lines_sourc
         doc["summary"]["criterion_seconds"] = {ident: round(t, 6) for ident, t in criterion_seconds.items()}
     if traceability is not None:
         doc["traceability"] = dict(traceability)
+    if document_block is not None:
+        doc["document"] = dict(document_block)
     doc["lines"] = [result_to_dict(r) for r in results]
     return doc
 

@@ -266,11 +266,9 @@ def _line_view(result: LineResult, headers: Mapping[str, str], units: Mapping[st
               "given": _given(c, headers, units), "used": _used(c), "candidates": _window(c.candidates, chosen),
               "verdicts": _verdicts(c), "two_phase": _two_phase(c), "totals": _totals(c), "fittings": _fittings(c),
               "equations": _equations(c), "differs_from": None} for c in case_rows(result)]
-    for later in cases[1:]:  # a later case shows only the inputs that differ from the first: no repeated rows
-        first = cases[0]
-        later["given"] = [row for row in later["given"] if row not in first["given"] or row[0] == "case"]
-        later["used"] = [row for row in later["used"] if row not in first["used"]]
-        later["differs_from"] = first["name"]
+    side = _side_by_side(case_rows(result), cases) if len(cases) > 1 else None
+    for case in cases if side else ():  # the inputs and key results are in the side-by-side table
+        case["given"], case["used"] = [], []
     return {"tag": result.tag, "status": result.status, "mode": result.mode, "service": result.service or "-",
             "case_count": len(result.cases) or 1, "nps": sel.candidate.nps if sel else "",
             "schedule": sel.candidate.schedule if sel else "",
@@ -284,7 +282,47 @@ def _line_view(result: LineResult, headers: Mapping[str, str], units: Mapping[st
             "controlling": _controlling(result), "utilisation": _pct(controlling_utilisation(result)[0]),
             "case": case_name(result) if result.cases else "", "governing": list(result.governing),
             "error": result.error, "notes": list(result.notes), "cases": cases,
-            "plot": line_plot_svg(result) if plot else None}
+            "plot": line_plot_svg(result) if plot else None, "side": side}
+
+
+def _union(lists: Sequence[Sequence[tuple[str, str, str]]]) -> list[tuple[str, str]]:
+    """(name, unit) of every row of any case, in first-seen order."""
+    seen: dict[tuple[str, str], None] = {}
+    for rows in lists:
+        for name, _, unit in rows:
+            seen.setdefault((name, unit), None)
+    return list(seen)
+
+
+def _side_by_side(results: Sequence[LineResult], cases: Sequence[Mapping[str, Any]]) -> dict[str, Any]:
+    """The cases of a line in one table, a column per case: the inputs as given, as used, and the key results at
+    the selected size; rows whose values differ between cases are marked (``differs``)."""
+    rows: list[dict[str, Any]] = []
+
+    def add(section: str, name: str, unit: str, values: list[str]) -> None:
+        rows.append({"section": section, "name": name, "unit": unit, "values": values,
+                     "differs": len(set(values)) > 1})
+
+    for section, key in (("input (as given)", "given"), ("as used", "used")):
+        for name, unit in _union([c[key] for c in cases]):
+            if name == "case":
+                continue
+            add(section, name, unit, [next((v for n, v, u in c[key] if (n, u) == (name, unit)), "")
+                                      for c in cases])
+    results_rows: list[tuple[str, str, Any]] = [
+        ("status", "", lambda r: r.status),
+        ("velocity", "m/s", lambda r: _sig(r.selected.hydraulics.velocity, 4) if r.selected else "-"),
+        ("drop per length", "kPa/100 m",
+         lambda r: _sig(r.selected.hydraulics.drop_per_length / 10.0, 4) if r.selected else "-"),
+        ("total drop", "kPa", lambda r: _sig(r.selected.hydraulics.total_drop / 1e3, 4) if r.selected else "-"),
+        ("outlet pressure", "bar abs", lambda r: _sig(r.selected.hydraulics.outlet_pressure / 1e5, 4)
+         if r.selected and r.selected.hydraulics.outlet_pressure is not None else "-"),
+        ("worst criterion", "", lambda r: f"{r.selected.worst.criterion} {_pct(r.selected.worst.utilisation)}"
+         if r.selected and r.selected.worst else "-"),
+    ]
+    for name, unit, read in results_rows:
+        add("at the selected size", name, unit, [str(read(r)) for r in results])
+    return {"names": [c["name"] for c in cases], "statuses": [c["status"] for c in cases], "rows": rows}
 
 
 def _controlling(result: LineResult) -> str:

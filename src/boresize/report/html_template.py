@@ -22,12 +22,33 @@ th, td { border: 1px solid #bbb; padding: 2px 6px; text-align: left; vertical-al
 th { background: #eee; } td.num { text-align: right; font-variant-numeric: tabular-nums; }
 .pass { background: #d4f4d4; } .fail { background: #f9d0d0; } .error { background: #f6e3b0; }
 .warn { background: #fff3b0; } .not-applicable { background: #eeeeee; color: #666; }
-tr.selected td { font-weight: bold; }
+tr.selected td { font-weight: bold; } tr.differs td { background: #eef4fb; font-weight: bold; }
 .caution { border: 2px solid #c0392b; padding: 8px; background: #fff6f5; }
 .plot svg { max-width: 100%; height: auto; }
 .line { page-break-inside: avoid; }
 .small { color: #555; font-size: 11px; }
 table.document th { width: 8em; } td.tag { white-space: nowrap; } td.eq { font-family: "DejaVu Serif", "Times New Roman", serif; white-space: nowrap; }
+.pair { display: flex; flex-wrap: wrap; gap: 0 12px; align-items: flex-start; }
+.print-head { display: none; }
+/* Printed (A4): each line record starts a page headed by the document block in one row, no table is split,
+   the plot and type are smaller, so that a line takes one or two pages. */
+@page { size: A4; margin: 10mm 9mm 11mm 9mm; }
+@media print {
+  body { margin: 0; font-size: 8px; }
+  h1 { font-size: 14px; margin: 0 0 4px 0; } h2 { font-size: 11px; margin: 6px 0 3px 0; } h3 { font-size: 9.5px; margin: 4px 0 2px 0; }
+  p { margin: 3px 0; } th, td { padding: 0 3px; }
+  table { margin: 2px 0 5px 0; break-inside: avoid; page-break-inside: avoid; }
+  tr { break-inside: avoid; page-break-inside: avoid; }
+  .line { break-before: page; page-break-before: always; break-inside: auto; page-break-inside: auto; }
+  .line h2 { margin-top: 0; }
+  .plot svg { width: 150mm; max-width: 100%; height: auto; }
+  .plot, h2, h3 { break-inside: avoid; page-break-inside: avoid; break-after: avoid; page-break-after: avoid; }
+  .print-head { display: block; font-size: 7.5px; color: #444; border-bottom: 1px solid #999; margin: 0 0 3px 0; }
+  .caution { padding: 3px 5px; } a { color: inherit; text-decoration: none; }
+  td.eq { white-space: normal; } .small { font-size: 7px; }
+  .pair > table { max-width: 93mm; } .records-head { display: none; }
+  #traceability { break-before: page; page-break-before: always; }
+}
 </style>
 </head>
 <body>
@@ -56,9 +77,10 @@ table.document th { width: 8em; } td.tag { white-space: nowrap; } td.eq { font-f
 {% endfor %}
 </table>
 
-<h2>Calculation records</h2>
+<h2 class="records-head">Calculation records</h2>
 {% for line in lines %}
 <div class="line" id="line-{{ loop.index }}">
+<div class="print-head">{% if title %}{{ title }}{% else %}line sizing report{% endif %}{% for name, value in document if name in ("unit", "date", "prepared", "checked", "approved") and value %} &middot; {{ name }} {{ value }}{% endfor %} &middot; line {{ loop.index }} of {{ lines | length }}</div>
 <h2>{{ line.tag }} <span class="{{ line.status }}">&nbsp;{{ line.status }}&nbsp;</span></h2>
 {% if line.error %}<p class="error">{{ line.error }}</p>{% endif %}
 {% if line.nps %}<p>Selected: NPS {{ line.nps }} Sch {{ line.schedule }} ({{ line.mode }});
@@ -69,17 +91,29 @@ controlling criterion: {{ line.controlling }}{% if line.case %}; governing case:
 </table>
 {% endif %}
 {% if line.plot %}<div class="plot">{{ line.plot | safe }}</div>{% endif %}
+{% if line.side %}
+<table class="cases"><tr><th>Cases side by side</th><th>Unit</th>{% for name in line.side.names %}<th>{{ name }}</th>{% endfor %}</tr>
+{% for row in line.side.rows %}
+{% if loop.first or row.section != loop.previtem.section %}<tr><th colspan="{{ 2 + line.side.names | length }}">{{ row.section }}</th></tr>{% endif %}
+<tr{% if row.differs %} class="differs"{% endif %}><td>{{ row.name }}</td><td>{{ row.unit }}</td>{% for value in row["values"] %}<td{% if row.section != "input (as given)" %} class="num"{% endif %}>{{ value }}</td>{% endfor %}</tr>
+{% endfor %}
+</table>
+{% endif %}
 {% for case in line.cases %}
 {% if line.cases | length > 1 %}<h3>Case {{ case.name }} <span class="{{ case.status }}">&nbsp;{{ case.status }}&nbsp;</span></h3>{% endif %}
 {% if case.error %}<p class="error">{{ case.error }}</p>{% endif %}
+<div class="pair">
+{% if case.given %}
 <table><tr><th>Input (as given{% if case.differs_from is not none %}; what differs from case {{ case.differs_from }}{% endif %})</th><th>Value</th><th>Default unit of the column</th></tr>
 {% for name, value, unit in case.given %}<tr><td>{{ name }}</td><td>{{ value }}</td><td>{{ unit }}</td></tr>{% endfor %}
 </table>
+{% endif %}
 {% if case.used %}
 <table><tr><th>As used{% if case.differs_from is not none %} (what differs from case {{ case.differs_from }}){% endif %}</th><th>Value</th><th>Unit</th></tr>
 {% for name, value, unit in case.used %}<tr><td>{{ name }}</td><td class="num">{{ value }}</td><td>{{ unit }}</td></tr>{% endfor %}
 </table>
 {% endif %}
+</div>
 {% if case.two_phase %}
 <table class="two-phase"><tr><th>Two-phase flow (selected size)</th><th>Value</th><th>Unit or source</th></tr>
 {% for name, value, unit in case.two_phase %}<tr><td>{{ name }}</td><td class="num">{{ value }}</td><td>{{ unit }}</td></tr>{% endfor %}
@@ -97,6 +131,7 @@ controlling criterion: {{ line.controlling }}{% if line.case %}; governing case:
 {% endfor %}
 </table>
 {% endif %}
+<div class="pair">
 {% if case.totals %}
 <table class="totals"><tr><th>Hydraulics at the selected size</th><th>Value</th><th>Unit</th></tr>
 {% for name, value, unit in case.totals %}<tr><td>{{ name }}</td><td{% if unit %} class="num"{% endif %}>{{ value }}</td><td>{{ unit }}</td></tr>{% endfor %}
@@ -108,6 +143,7 @@ controlling criterion: {{ line.controlling }}{% if line.case %}; governing case:
 <td class="num">{{ f.leq }}</td><td>{{ f.source }}</td></tr>{% endfor %}
 </table>
 {% endif %}
+</div>
 {% if case.equations %}
 <table class="equations"><tr><th>Quantity</th><th>Equation</th><th>With the numbers (SI)</th><th>Result</th></tr>
 {% for name, eq, numbers, result in case.equations %}<tr><td>{{ name }}</td><td class="eq">{{ eq }}</td>
