@@ -140,9 +140,10 @@ def test_csv_and_xlsx_columns(mixed, tmp_path: Path):
 
 
 def test_the_dataframe_columns_are_the_json_keys(mixed):
+    """two_phase_method is also a line-list input column, so its result column takes the result_ prefix (as phase)."""
     frame = results_dataframe(mixed)
     assert frame["flow_regime"].tolist()[1] == "intermittent" and frame["result_phase"].tolist() == ["liquid", "two-phase"]
-    assert frame["mixture_density_kg_m3"].tolist()[1] == 43.25 and frame["two_phase_method"].isna().tolist()[0]
+    assert frame["mixture_density_kg_m3"].tolist()[1] == 43.25 and frame["result_two_phase_method"].isna().tolist()[0]
 
 
 def test_the_html_page_shows_the_block_and_the_caution_for_a_two_phase_line_only(mixed, run):
