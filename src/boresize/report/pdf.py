@@ -110,7 +110,7 @@ def _sheet_class() -> type:
 
 def _printable(text: object, covered: frozenset[int]) -> str:
     """The text with every character the font lacks replaced by "?" (no control characters either)."""
-    return "".join(ch if ord(ch) in covered else ("  " if ch == "\t" else "?") for ch in str(text))
+    return "".join(ch if ord(ch) in covered or ch == "\n" else ("  " if ch == "\t" else "?") for ch in str(text))
 
 
 def build_pdf(results: Sequence[LineResult], *, trace: Mapping[str, Any], title: str,
@@ -120,8 +120,6 @@ def build_pdf(results: Sequence[LineResult], *, trace: Mapping[str, Any], title:
     from boresize.optional import needs
 
     with needs("the PDF calculation sheet"):
-        from fpdf.fonts import FontFace
-
         pdf = _sheet_class()(title, document)
 
     from boresize.report.html import _line_view, _trace_rows
@@ -134,7 +132,6 @@ def build_pdf(results: Sequence[LineResult], *, trace: Mapping[str, Any], title:
     pdf.sheet_title = clean(title)
     if document is not None:
         pdf.block = DocumentBlock(**{key: clean(value) for key, value in document.rows()})
-    heading_face = FontFace(emphasis="BOLD", fill_color=(235, 235, 235))
 
     def heading(text: str, size: float = 9.5) -> None:
         pdf.set_font(FONT, "B", size)
@@ -146,24 +143,66 @@ def build_pdf(results: Sequence[LineResult], *, trace: Mapping[str, Any], title:
         pdf.multi_cell(0, size * 0.45, clean(text), new_x="LMARGIN", new_y="NEXT")
         pdf.ln(0.8)
 
+    def wrap(text: str, width: float) -> list[str]:
+        """``text`` in lines no wider than ``width`` mm in the current font (a long word is cut)."""
+        lines: list[str] = []
+        for part in text.split("\n"):
+            if pdf.get_string_width(part) <= width:
+                lines.append(part)
+                continue
+            line, used = "", 0.0
+            space = pdf.get_string_width(" ")
+            for word in part.split(" "):
+                w = pdf.get_string_width(word)
+                while w > width:  # a word wider than the column: cut it
+                    if line:
+                        lines.append(line)
+                        line, used = "", 0.0
+                    cut = max(1, int(len(word) * width / w))
+                    lines.append(word[:cut])
+                    word = word[cut:]
+                    w = pdf.get_string_width(word)
+                if line and used + space + w > width:
+                    lines.append(line)
+                    line, used = "", 0.0
+                line, used = (f"{line} {word}", used + space + w) if line else (word, w)
+            lines.append(line)
+        return lines
+
     def table(head: Sequence[str], rows: Sequence[Sequence[object]], widths: Sequence[float],
               status_column: int | None = None, size: float = 7.0) -> None:
+        """A ruled grid, its heading repeated after a page break (drawn cell by cell: fpdf2's own table takes
+        about a second a line)."""
         if not rows:
             return
-        pdf.set_font(FONT, "", size)
         scale = min(1.0, pdf.epw / sum(widths))  # never wider than the page
-        with pdf.table(col_widths=tuple(w * scale for w in widths), width=sum(widths) * scale, align="LEFT", line_height=size * 0.46,
-                       headings_style=heading_face, padding=0.6, text_align="LEFT") as grid:
-            top = grid.row()
-            for text in head:
-                top.cell(clean(text))
-            for values in rows:
-                row = grid.row()
-                for i, value in enumerate(values):
-                    style = None
-                    if i == status_column and str(value) in _FILLS:
-                        style = FontFace(fill_color=_FILLS[str(value)])
-                    row.cell(clean(value) if value is not None else "-", style=style)
+        cols = [w * scale for w in widths]
+        step, pad = size * 0.42, 0.6
+
+        def draw(values: Sequence[object], bold: bool) -> None:
+            pdf.set_font(FONT, "B" if bold else "", size)
+            cells = [wrap(clean("-" if value is None else value), w - 2 * pad) for value, w in zip(values, cols)]
+            height = max(len(c) for c in cells) * step + 2 * pad
+            if pdf.get_y() + height > pdf.page_break_trigger and not bold:
+                pdf.add_page()
+                draw(head, True)
+                pdf.set_font(FONT, "", size)
+            x, y = pdf.l_margin, pdf.get_y()
+            for i, (lines, w) in enumerate(zip(cells, cols)):
+                fill = (235, 235, 235) if bold else _FILLS.get(str(values[i])) if i == status_column else None
+                if fill:
+                    pdf.set_fill_color(*fill)
+                pdf.rect(x, y, w, height, style="DF" if fill else "D")
+                for k, line in enumerate(lines):
+                    pdf.text(x + pad, y + pad + (k + 0.78) * step, line)
+                x += w
+            pdf.set_y(y + height)
+
+        if pdf.get_y() + 4 * step > pdf.page_break_trigger:  # a heading never ends a page
+            pdf.add_page()
+        draw(head, True)
+        for values in rows:
+            draw(values, False)
         pdf.ln(1.5)
 
     by_field = {parse_header(h).field: h for h in headers or ()}
