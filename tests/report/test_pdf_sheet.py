@@ -101,7 +101,7 @@ def test_every_page_has_the_document_block_and_sheet_n_of_m(demo):  # type: igno
 def test_the_summary_sheet_and_a_line_record(demo):  # type: ignore[no-untyped-def]
     run, pdf, data, texts = demo
     first = texts[0].replace(" | ", " ")  # a heading wrapped in its cell is two text runs
-    assert "checked by a competent engineer" in first and "local codes govern" in first and "For the test." in first
+    assert "They must be checked by a competent engineer" in first and "For the test." in first  # not the footer's
     for head in ("Tag", "Fluid", "Flow [kg/h]", "P in [bar abs]", "T [°C]", "Size", "v [m/s]", "Δp [kPa/100 m]",
                  "Controlling", "Util.", "Status"):
         assert head in first, head
@@ -180,3 +180,21 @@ def test_no_lines_and_a_line_in_error():  # type: ignore[no-untyped-def]
     assert run.results[0].status == "error"
     pdf, data, texts = _sheet(run)
     assert pdf.pages_count == 2 and "Error:" in texts[1] and "flow" in texts[1]
+
+
+def test_a_two_phase_line_has_its_block_and_caution():  # type: ignore[no-untyped-def]
+    import io
+    import sys
+
+    sys.path.insert(0, str(Path(__file__).resolve().parents[1] / "io"))
+    from test_two_phase_outputs import two_phase  # the hand-built two-phase result of the output tests
+
+    from boresize.report.pdf import build_pdf
+
+    run = run_lines(io.StringIO("tag,fluid,flow,pressure,temperature\nTP-1,water,20 t/h,5 bara,40 degC\n"),
+                    plugins=False)
+    pdf = build_pdf([two_phase(run.results[0])], trace={}, title="tp")
+    pdf.set_compression(False)
+    texts = page_texts(pdf, bytes(pdf.output()))
+    assert "Two-phase lines carry large uncertainty" in texts[0]
+    assert "Two-phase flow (selected size)" in " ".join(texts[1:]) and "liquid holdup" in " ".join(texts[1:])

@@ -135,12 +135,12 @@ def build_pdf(results: Sequence[LineResult], *, trace: Mapping[str, Any], title:
 
     def heading(text: str, size: float = 9.5) -> None:
         pdf.set_font(FONT, "B", size)
-        pdf.multi_cell(0, size * 0.5, clean(text), new_x="LMARGIN", new_y="NEXT")
+        pdf.multi_cell(0, size * 0.5, clean(text), align="L", new_x="LMARGIN", new_y="NEXT")
         pdf.ln(0.8)
 
     def para(text: str, size: float = 7.5) -> None:
         pdf.set_font(FONT, "", size)
-        pdf.multi_cell(0, size * 0.45, clean(text), new_x="LMARGIN", new_y="NEXT")
+        pdf.multi_cell(0, size * 0.45, clean(text), align="L", new_x="LMARGIN", new_y="NEXT")
         pdf.ln(0.8)
 
     def wrap(text: str, width: float) -> list[str]:
