@@ -21,17 +21,17 @@ test: $(STAMP)
 	$(BIN)/python -m pytest
 
 # The demo unit has one line that fails on purpose (exit code 1); only a usage error (2) stops make.
-# It also writes the calculation report and the result workbook to out/, and compares revision 2
+# It also writes the calculation report, its paged PDF sheet and the result workbook to out/, and compares revision 2
 # of the line list (flows raised 30 % on some lines) with the first (diff exits 1 when lines changed).
 DEMO := examples/demo-unit
 demo: $(STAMP)
 	mkdir -p out
 	$(BIN)/boresize size $(DEMO)/lines.csv --criteria $(DEMO)/criteria.toml --document $(DEMO)/document.toml \
-	  --output out/demo-report.html --output out/demo-results.xlsx; \
+	  --output out/demo-report.html --output out/demo-sheet.pdf --output out/demo-results.xlsx; \
 	  status=$$?; [ $$status -le 1 ]
 	$(BIN)/boresize diff $(DEMO)/lines.csv $(DEMO)/lines-rev2.csv --criteria $(DEMO)/criteria.toml; \
 	  status=$$?; [ $$status -le 1 ]
-	@echo "Calculation report written to out/demo-report.html (open it in a browser); results in out/demo-results.xlsx"
+	@echo "Calculation report written to out/demo-report.html (open it in a browser), the paged sheet to out/demo-sheet.pdf; results in out/demo-results.xlsx"
 
 # Every benchmark in benchmarks/ (bench_batch.py: 2,000 lines on 2 worker processes against the property floor;
 # bench_mixtures.py: 300 natural-gas lines through the CLI against the thermo and CoolProp floors).

@@ -107,7 +107,7 @@ class UsageError(BoresizeError, ValueError):
 #: import name -> the extra of boresize that installs it (pyproject.toml's [project.optional-dependencies];
 #: ``boresize[outputs]`` installs them all)
 OPTIONAL_MODULES: dict[str, str] = {"matplotlib": "report", "openpyxl": "xlsx", "jinja2": "report",
-                                    "rich": "progress"}
+                                    "fpdf": "report", "rich": "progress"}
 
 
 class MissingModuleError(BoresizeError, ImportError):

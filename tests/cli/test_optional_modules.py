@@ -40,7 +40,7 @@ def test_another_missing_module_is_not_dressed_up():
     assert not isinstance(caught.value, MissingModuleError)
 
 
-OUTPUT_MODULES = ("matplotlib", "openpyxl", "jinja2", "rich")
+OUTPUT_MODULES = ("matplotlib", "openpyxl", "jinja2", "fpdf", "rich")
 
 
 def _without_outputs(monkeypatch) -> None:  # type: ignore[no-untyped-def]
@@ -66,6 +66,7 @@ def test_the_core_install_sizes_and_writes_json_and_csv(tmp_path, monkeypatch, c
 @pytest.mark.parametrize(("suffix", "options", "extra", "module"), [
     (".xlsx", [], "xlsx", "openpyxl"),
     (".html", [], "report", "jinja2"),
+    (".pdf", [], "report", "fpdf"),
     (".json", ["--progress"], "progress", "rich"),
 ])
 def test_each_output_names_its_extra(tmp_path, monkeypatch, capsys, suffix, options, extra, module):

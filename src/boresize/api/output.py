@@ -1,4 +1,4 @@
-"""Writing a run to files, the kind chosen by the extension: .json, .csv, .xlsx or .html.
+"""Writing a run to files, the kind chosen by the extension: .json, .csv, .xlsx, .html or .pdf.
 
 The table :data:`WRITERS` maps an extension to a function ``(path, run)``; every writer takes the run
 (its results, the line list as read, its traceability record). A new output format is one entry here.
@@ -59,6 +59,13 @@ def _html(path: Path, run: Run) -> None:
                headers=run.line_list.headers or None, units=run.line_list.units, document=run.document_block)
 
 
+def _pdf(path: Path, run: Run) -> None:
+    from boresize.report.pdf import write_pdf
+
+    write_pdf(path, run.results, trace=run.trace.to_dict(), title=page_title(run),
+              headers=run.line_list.headers or None, units=run.line_list.units, document=run.document_block)
+
+
 def page_title(run: Run) -> str:
     """A title for an output page: the document block's number and project, else the line list's file name
     (never its folder: a title must not show a local path)."""
@@ -68,7 +75,7 @@ def page_title(run: Run) -> str:
 
 
 #: extension -> the writer of that kind of file
-WRITERS: dict[str, Callable[[Path, Run], None]] = {".json": _json, ".csv": _csv, ".xlsx": _xlsx, ".html": _html}
+WRITERS: dict[str, Callable[[Path, Run], None]] = {".json": _json, ".csv": _csv, ".xlsx": _xlsx, ".html": _html, ".pdf": _pdf}
 OUTPUT_SUFFIXES = tuple(WRITERS)
 
 

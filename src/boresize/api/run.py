@@ -3,7 +3,7 @@
 The one path from a line list to files, for scripts, notebooks and the ``boresize`` command alike::
 
     run = run_lines("lines.csv", "criteria.toml", workers=2)
-    run.write("results.xlsx")        # .json, .csv, .xlsx or .html, chosen by the extension
+    run.write("results.xlsx")        # .json, .csv, .xlsx, .html or .pdf, chosen by the extension
     run.document()                   # the JSON document as a dict
     print(run.table())               # the terminal table
 
@@ -138,7 +138,7 @@ class Run:
         return text + (_headroom_text(self.headrooms) if self.headrooms is not None else "")
 
     def write(self, path: str | Path, document: DocumentBlock | Mapping[str, Any] | str | Path | None = None) -> Path:
-        """Write the run to ``path``: .json, .csv, .xlsx or .html by its extension; returns the path.
+        """Write the run to ``path``: .json, .csv, .xlsx, .html or .pdf by its extension; returns the path.
 
         :param document: a document block for this file (a TOML file's path, a mapping of its keys or a
             :class:`~boresize.io.document_block.DocumentBlock`) instead of the run's own
