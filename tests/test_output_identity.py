@@ -81,6 +81,9 @@ def test_a_run_keeping_only_the_selected_sizes_writes_the_same_csv(tmp_path: Pat
         with pytest.raises(InputError, match=r"kept only the selected ones \(keep='selected'\)") as caught:
             lean.write(tmp_path / refused)
         assert caught.value.field == "keep" and not (tmp_path / refused).exists()
+    with pytest.raises(InputError, match="cannot tell what to write") as unknown:  # the extension is the fault
+        lean.write(tmp_path / "lean.txt")
+    assert unknown.value.field == "output"
     with pytest.raises(InputError, match="the JSON document needs every rated size"):
         lean.document()
 

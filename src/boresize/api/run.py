@@ -167,9 +167,9 @@ class Run:
         :raises InputError: (field "output") an extension boresize does not write, a missing or unwritable
             folder, a read-only file, a file that cannot be written (the earlier one is then left as it was)
         """
-        from boresize.api.output import write_run
+        from boresize.api.output import WRITERS, write_run
 
-        if Path(path).suffix.lower() not in LEAN_OUTPUTS:
+        if Path(path).suffix.lower() in set(WRITERS) - set(LEAN_OUTPUTS):  # an unknown one: write_run names it
             self._need_full(f"writing {str(path)!r}")
         block = as_document_block(document)
         return write_run(path, self if block is None else replace(self, document_block=block))
