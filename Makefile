@@ -34,7 +34,9 @@ demo: $(STAMP)
 	@echo "Calculation report written to out/demo-report.html (open it in a browser), the paged sheet to out/demo-sheet.pdf; results in out/demo-results.xlsx"
 
 # Every benchmark in benchmarks/ (bench_batch.py: 2,000 lines on 2 worker processes against the property floor;
-# bench_mixtures.py: 300 natural-gas lines through the CLI against the thermo and CoolProp floors).
+# bench_mixtures.py: 300 natural-gas lines through the CLI against the thermo and CoolProp floors;
+# bench_scale.py: the CLI against the CoolProp floor at 2,000 lines and one line, time per line and peak memory
+# up to 50,000 lines).
 bench: $(STAMP)
 	@for script in benchmarks/bench_*.py; do echo "== $$script"; $(BIN)/python $$script || exit 1; done
 

@@ -7,7 +7,7 @@ The public API is small (see README "From Python"): build a line with :func:`mak
 pint Quantities, or numbers with their unit stated) or :func:`line_from_stream` (a simulation
 stream's T, P, mass flow and mole fractions), then :func:`size`, :func:`check` or
 :func:`size_many` (any ``concurrent.futures.Executor``); a whole line list (a file, stdin, a
-DataFrame) goes through :func:`run_lines`, whose :class:`Run` writes itself to .json, .csv, .xlsx or
+DataFrame) goes through :func:`run_lines`, whose :class:`Run` writes itself to .json, .jsonl, .csv, .xlsx or
 .html. Results are :class:`SizingResult` objects with pint quantities, plain floats and ``to_dict()``. DataFrames go in and out through
 :func:`size_dataframe`, :func:`read_dataframe` and :func:`results_dataframe`. :class:`Sizer` is the
 engine underneath. Every name loads on first use: importing boresize loads neither pint, CoolProp,

@@ -144,7 +144,7 @@ def test_every_unusable_output_is_named_before_any_sizing(tmp_path: Path,
     assert captured.err == (f"boresize: error: output: folder {str(missing.parent)!r} does not exist; expected a "
                             f"file in an existing folder\n"
                             f"boresize: error: output: cannot tell what to write to {str(unknown)!r} from its "
-                            f"extension; expected a file ending in .json, .csv, .xlsx, .html, .pdf\n")
+                            f"extension; expected a file ending in .json, .jsonl, .csv, .xlsx, .html, .pdf\n")
     assert not good.exists()
 
 

@@ -1,4 +1,4 @@
-"""Writing a run to files, the kind chosen by the extension: .json, .csv, .xlsx, .html or .pdf.
+"""Writing a run to files, the kind chosen by the extension: .json, .jsonl, .csv, .xlsx, .html or .pdf.
 
 The table :data:`WRITERS` maps an extension to a function ``(path, run)``; every writer takes the run
 (its results, the line list as read, its traceability record). A new output format is one entry here.
@@ -38,6 +38,21 @@ def _json(path: Path, run: Run) -> None:
     path.write_text(strict_json(run.document()) + "\n", encoding="utf-8")
 
 
+def _jsonl(path: Path, run: Run) -> None:
+    """JSON Lines: one record per line, each the JSON document's entry for it (the ``lines`` items, with headroom
+    when asked for), written one at a time: never the whole document in memory."""
+    from boresize.io.document import dumps_record, result_to_dict
+    from boresize.sizing.headroom import headroom_to_dict
+
+    rooms = run.headrooms or ()
+    with open(path, "w", encoding="utf-8", newline="\n") as handle:
+        for number, result in enumerate(run.results):
+            entry = result_to_dict(result)
+            if number < len(rooms):
+                entry.update(headroom_to_dict(rooms[number]))
+            handle.write(dumps_record(entry) + "\n")
+
+
 def _csv(path: Path, run: Run) -> None:
     from boresize.io.csv_writer import write_csv
 
@@ -75,7 +90,8 @@ def page_title(run: Run) -> str:
 
 
 #: extension -> the writer of that kind of file
-WRITERS: dict[str, Callable[[Path, Run], None]] = {".json": _json, ".csv": _csv, ".xlsx": _xlsx, ".html": _html, ".pdf": _pdf}
+WRITERS: dict[str, Callable[[Path, Run], None]] = {".json": _json, ".jsonl": _jsonl, ".csv": _csv, ".xlsx": _xlsx,
+                                                   ".html": _html, ".pdf": _pdf}
 OUTPUT_SUFFIXES = tuple(WRITERS)
 
 

@@ -3,7 +3,7 @@
 The one path from a line list to files, for scripts, notebooks and the ``boresize`` command alike::
 
     run = run_lines("lines.csv", "criteria.toml", workers=2)
-    run.write("results.xlsx")        # .json, .csv, .xlsx, .html or .pdf, chosen by the extension
+    run.write("results.xlsx")        # .json, .jsonl, .csv, .xlsx, .html or .pdf, chosen by the extension
     run.document()                   # the JSON document as a dict
     print(run.table())               # the terminal table
 
@@ -21,7 +21,7 @@ from collections.abc import Callable, Iterable, Mapping, Sequence
 from concurrent.futures import Executor
 from dataclasses import dataclass, replace
 from pathlib import Path
-from typing import IO, TYPE_CHECKING, Any, Union, cast
+from typing import IO, TYPE_CHECKING, Any, Literal, Union, cast
 
 from boresize.api.calls import Item as LineItem, checked_item, default_sizer, reread_item
 from boresize.api.result import SizingResult
@@ -40,11 +40,19 @@ if TYPE_CHECKING:
     from boresize.io.line_items import Cells
     from boresize.sizing.engine import Sizer
 
-__all__ = ["SLOW_CRITERION_SECONDS", "SLOW_CRITERION_SHARE", "CriterionTime", "LineSource", "Run", "read_lines", "roughness_value", "run_lines", "size_dataframe", "size_rows"]
+__all__ = ["KEEP", "SLOW_CRITERION_SECONDS", "SLOW_CRITERION_SHARE", "CriterionTime", "LineSource", "Run", "read_lines", "roughness_value", "run_lines", "size_dataframe", "size_rows"]
 
 #: What :func:`run_lines` reads lines from.
 LineSource = Union[str, Path, IO[str], IO[bytes], "pd.DataFrame", LineList, Iterable[LineItem]]
 
+
+#: What a run keeps of each line's result: ``full`` (every rated candidate, for the JSON document, the workbook's
+#: candidates sheet and the HTML report) or ``selected`` (the selected size and its verdicts: what the CSV and the
+#: table show; measured: about a third of the memory a line's full result takes, see benchmarks/bench_scale.py)
+KEEP = ("full", "selected")
+Keep = Literal["full", "selected"]
+#: Outputs a run that kept only the selected sizes can still write (they never read the other candidates).
+LEAN_OUTPUTS = (".csv",)
 
 #: A criterion is noted as slow (``boresize size`` on stderr) when its evaluate took more than this many
 #: seconds in all over the run ...
@@ -75,6 +83,7 @@ class Run:
     :param sizing_seconds: the sizing time the shares of :meth:`slow_criteria` are of: the run's wall time
         times its worker processes
     :param document_block: the calculation sheet's project, number, revision, signatures (the HTML page's head)
+    :param keep: what was kept of each result (:data:`KEEP`): ``selected`` writes only CSV and the table
     """
 
     results: tuple[SizingResult, ...]
@@ -84,6 +93,15 @@ class Run:
     criterion_times: tuple[CriterionTime, ...] = ()
     sizing_seconds: float = 0.0
     document_block: DocumentBlock | None = None
+    keep: Keep = "full"
+
+    def _need_full(self, what: str) -> None:
+        """:raises InputError: (field "keep") when this run kept only each line's selected size."""
+        if self.keep != "full":
+            raise InputError(f"{what} needs every rated size of each line, and this run kept only the selected "
+                             f"ones (keep={self.keep!r})", field="keep", value=self.keep,
+                             expected=f"a run made with keep='full' (the default), or an output ending in "
+                                      f"{', '.join(LEAN_OUTPUTS)}")
 
     @property
     def criterion_seconds(self) -> dict[str, float]:
@@ -122,6 +140,7 @@ class Run:
         from boresize.io.document import document
         from boresize.sizing.headroom import headroom_to_dict
 
+        self._need_full("the JSON document")
         doc = document(self.results, criteria_source=self.trace.criteria_source,
                        lines_source=self.line_list.source, traceability=self.trace.to_dict(),
                        criterion_seconds=self.criterion_seconds if timings else None,
@@ -138,7 +157,7 @@ class Run:
         return text + (_headroom_text(self.headrooms) if self.headrooms is not None else "")
 
     def write(self, path: str | Path, document: DocumentBlock | Mapping[str, Any] | str | Path | None = None) -> Path:
-        """Write the run to ``path``: .json, .csv, .xlsx, .html or .pdf by its extension; returns the path.
+        """Write the run to ``path``: .json, .jsonl, .csv, .xlsx, .html or .pdf by its extension; returns the path.
 
         :param document: a document block for this file (a TOML file's path, a mapping of its keys or a
             :class:`~boresize.io.document_block.DocumentBlock`) instead of the run's own
@@ -149,8 +168,10 @@ class Run:
         :raises InputError: (field "output") an extension boresize does not write, a missing or unwritable
             folder, a read-only file, a file that cannot be written (the earlier one is then left as it was)
         """
-        from boresize.api.output import write_run
+        from boresize.api.output import WRITERS, write_run
 
+        if Path(path).suffix.lower() in set(WRITERS) - set(LEAN_OUTPUTS):  # an unknown one: write_run names it
+            self._need_full(f"writing {str(path)!r}")
         block = as_document_block(document)
         return write_run(path, self if block is None else replace(self, document_block=block))
 
@@ -160,7 +181,7 @@ def run_lines(lines: LineSource, criteria: str | Path | None = None, *, workers:
               corroded_roughness: str | float | None = None,
               plugins: bool = True, progress: bool | None = False, headroom: bool = False,
               units_row: bool | None = None, bare_pressure: BarePressure | None = None,
-              document: DocumentBlock | Mapping[str, Any] | str | Path | None = None) -> Run:
+              document: DocumentBlock | Mapping[str, Any] | str | Path | None = None, keep: Keep = "full") -> Run:
     """Size (or check) every line of a line list; see the module docstring for what ``lines`` may be.
 
     :param criteria: a criteria TOML file (the shipped sets when None)
@@ -179,11 +200,16 @@ def run_lines(lines: LineSource, criteria: str | Path | None = None, *, workers:
         has a note, and the summary counts them
     :param document: the calculation sheet's document block (project, unit, number, revision, date, prepared,
         checked, approved, notes): a TOML file's path, a mapping of those keys or a DocumentBlock; read before sizing
+    :param keep: ``full`` (default) keeps every rated candidate of each line; ``selected`` only the selected size
+        and its verdicts, dropping the rest as each line is sized (memory for long lists; the run then writes only
+        CSV and the table, :data:`KEEP`)
     :raises InputError: an unreadable line list, a bad option (naming it), a bad document block
     """
     if isinstance(workers, bool) or not isinstance(workers, int) or workers < 1:
         raise InputError(f"workers {workers!r} is not a whole number of 1 or more", field="workers", value=workers,
                          expected="1 or more processes")
+    if keep not in KEEP:
+        raise InputError(f"keep {keep!r} is not known", field="keep", value=keep, expected=" or ".join(KEEP))
     block = as_document_block(document)
     roughness = None if corroded_roughness is None else roughness_value(corroded_roughness)
     mode = None if bare_pressure is None else bare_pressure_mode(bare_pressure)
@@ -194,14 +220,19 @@ def run_lines(lines: LineSource, criteria: str | Path | None = None, *, workers:
     start = time.perf_counter()
     results = run_items(items, spec, sizer=sizer, executor=executor, workers=workers, progress=progress,
                         retry_hint="one process (workers=1, or --workers 1 on the command line)",
-                        criterion_seconds=seconds)
+                        criterion_seconds=seconds, each=_lean if keep == "selected" else None)
     wall = (time.perf_counter() - start) * (workers if executor is None else 1)
     times = tuple(CriterionTime(ident, _owner(sizer, ident), spent) for ident, spent in seconds.items())
     if cells is not None:
         results = [_with_cells(result, own) for result, own in zip(results, cells)]
     rooms = tuple(_headroom(sizer, r) for r in results) if headroom else None
     trace = _trace(sizer, spec, line_list, str(criteria) if criteria else sizer.config.origin)
-    return Run(tuple(SizingResult.of(r) for r in results), line_list, trace, rooms, times, wall, block)
+    return Run(tuple(SizingResult.of(r) for r in results), line_list, trace, rooms, times, wall, block, keep)
+
+
+def _lean(result: LineResult) -> LineResult:
+    """The result without its rated candidates (its selected one, verdicts and cases' selected ones kept)."""
+    return replace(result, candidates=(), cases=tuple(_lean(c) for c in result.cases))
 
 
 def _owner(sizer: Sizer, ident: str) -> str:

@@ -8,6 +8,7 @@ from pathlib import Path
 
 from boresize import api
 from boresize.api import tools
+from boresize.api.run import LEAN_OUTPUTS, Keep
 from boresize.cli.fields import SINGLE_LINE_FIELDS, print_json
 from boresize.errors import InputError, UsageError, printable
 
@@ -93,6 +94,13 @@ def _note_slow_criteria(run: api.Run) -> None:
               f"{share:.0%} of the {run.sizing_seconds:.1f} s of sizing", file=sys.stderr)
 
 
+def _keep(json: bool, outputs: list[Path]) -> Keep:
+    """``selected`` when nothing asked for reads the other rated sizes (the table, CSV files), else ``full``.
+    measured: 50,000 lines to CSV, peak memory see benchmarks/bench_scale.py and README (Performance)."""
+    lean = not json and all(path.suffix.lower() in LEAN_OUTPUTS for path in outputs)
+    return "selected" if lean else "full"
+
+
 def run_size(args: argparse.Namespace) -> int:
     """Size the lines; exit 0 all pass, 1 some fail or error, 2 a usage error or any output not written."""
     lines = _lines(args)
@@ -105,7 +113,8 @@ def run_size(args: argparse.Namespace) -> int:
     progress = False if args.quiet and args.progress is None else args.progress
     run = api.run_lines(lines, args.criteria, workers=_workers(args), every_size=args.every_size,
                         corroded_roughness=roughness, plugins=not args.no_plugins, progress=progress,
-                        headroom=args.headroom, bare_pressure=args.bare_pressure, document=document)
+                        headroom=args.headroom, bare_pressure=args.bare_pressure, document=document,
+                        keep=_keep(args.json, outputs))
     written = _write_outputs(run, outputs, args.quiet)
     _note_slow_criteria(run)
     if args.timings:

@@ -70,8 +70,9 @@ def _add_diff(diff: argparse.ArgumentParser) -> None:
 
 def _add_run_options(size: argparse.ArgumentParser) -> None:
     size.add_argument("--output", "-o", action="append", default=[], metavar="FILE",
-                      help="write the results to FILE: .json, .csv, .xlsx (with a candidates sheet), .html "
-                           "(the calculation report) or .pdf (the paged calculation sheet); repeat for several. Every FILE is checked before sizing; each is "
+                      help="write the results to FILE: .json, .jsonl (JSON Lines: one record a line), .csv, .xlsx (with a "
+                           "candidates sheet), .html (the calculation report) or .pdf (the paged calculation sheet); "
+                           "repeat for several. Every FILE is checked before sizing; each is "
                            "written to a temporary file beside it and renamed when complete, so an earlier file "
                            "is replaced whole or left intact; one that cannot be written is reported with its "
                            "path, the others are still written, and the exit code is 2")

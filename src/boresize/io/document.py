@@ -15,7 +15,7 @@ from typing import Any
 from boresize import __version__
 from boresize.model import CandidateResult, FluidState, LineResult, TwoPhaseFlow, Verdict, bare_pressure_count
 
-__all__ = ["CAUTION", "SCHEMA_VERSION", "TWO_PHASE_CAUTION", "two_phase_count", "document", "document_schema", "dumps_strict", "result_to_dict", "verdict_to_dict", "candidate_to_dict"]
+__all__ = ["CAUTION", "SCHEMA_VERSION", "TWO_PHASE_CAUTION", "two_phase_count", "document", "document_schema", "dumps_strict", "dumps_record", "result_to_dict", "verdict_to_dict", "candidate_to_dict"]
 
 CAUTION = (
     "boresize results are screening calculations. They must be checked by a competent engineer against the "
@@ -241,6 +241,11 @@ def dumps_strict(payload: Any) -> str:
     fail no size can meet) is written as null, with a note naming it in the ``notes`` of the nearest object that has
     them (a line's), never as the bare ``NaN`` or ``Infinity`` that strict JSON readers refuse."""
     return json.dumps(_finite(payload, "", None), indent=2, ensure_ascii=False, allow_nan=False)
+
+
+def dumps_record(payload: Any) -> str:
+    """``payload`` as one line of strict JSON (a JSON Lines record): :func:`dumps_strict`'s values, no indent."""
+    return json.dumps(_finite(payload, "", None), ensure_ascii=False, allow_nan=False, separators=(",", ":"))
 
 
 def _finite(value: Any, where: str, notes: list[Any] | None) -> Any:

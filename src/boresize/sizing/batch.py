@@ -303,7 +303,8 @@ def _progress(total: int, show: bool | None, stream: TextIO | None) -> Iterator[
 def run_items(items: Sequence[Item], spec: SizerSpec | None = None, *, sizer: Sizer | None = None,
               executor: Executor | ExecutorLike | None = None, workers: int = 1, progress: bool | None = None,
               chunk_size: int | None = None, progress_stream: TextIO | None = None,
-              retry_hint: str = "--workers 1", criterion_seconds: dict[str, float] | None = None) -> list[LineResult]:
+              retry_hint: str = "--workers 1", criterion_seconds: dict[str, float] | None = None,
+              each: Callable[[LineResult], LineResult] | None = None) -> list[LineResult]:
     """Size or check every line; one result per item, in input order.
 
     :param items: the lines (see :data:`Item`), e.g. :func:`boresize.io.line_items.line_items`'s
@@ -318,6 +319,8 @@ def run_items(items: Sequence[Item], spec: SizerSpec | None = None, *, sizer: Si
     :param retry_hint: how the caller asks for one process, for the message when a worker dies
     :param criterion_seconds: given, the seconds spent in each criterion's evaluate over these lines are added
         to it (criterion id -> seconds, summed over every process)
+    :param each: given, what is kept of each result is ``each(result)``, applied as each line is sized here (so a
+        run in this process never holds the full results of all lines at once), or as each chunk comes back
     :raises InputError: a parallel run given a ``sizer`` but no ``spec`` (workers could not rebuild it), an
         executor without ``submit`` and ``map``
     """
@@ -340,7 +343,8 @@ def run_items(items: Sequence[Item], spec: SizerSpec | None = None, *, sizer: Si
         results: list[LineResult] = []
         with _COLLECTOR_PAUSE, bar() as advance:
             for item in items:
-                results.append(size_item(engine, item))
+                result = size_item(engine, item)
+                results.append(result if each is None else each(result))
                 advance(1)
         _add(criterion_seconds, _since(before, engine.criterion_seconds()))
         return results
@@ -353,9 +357,10 @@ def run_items(items: Sequence[Item], spec: SizerSpec | None = None, *, sizer: Si
     if not rest:
         return head
     count = (executor_workers(executor) if executor is not None else None) or workers
-    return head + run_chunks(_run_chunk, spec, _chunks(rest, count, chunk_size), executor=executor,
+    done = head + run_chunks(_run_chunk, spec, _chunks(rest, count, chunk_size), executor=executor,
                              workers=workers, retry_hint=retry_hint, progress=bar, already_done=len(head),
                              lost=_lost, criterion_seconds=criterion_seconds)
+    return done if each is None else [each(result) for result in done]
 
 
 def _lost(item: Item, cause: str) -> LineResult:

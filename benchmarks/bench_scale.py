@@ -1,0 +1,176 @@
+"""Benchmark: speed and memory at scale, the command line as a user runs it against the property floor.
+
+Every figure is measured on a child process and read from its own resource usage (``os.wait4``): CPU time
+(user + system) and peak resident memory (``ru_maxrss``), so a machine loaded by other work changes the wall
+clock but hardly these. Boresize and the floor are run interleaved, ``--repeats`` times each, and the least CPU
+time of each is kept. Printed:
+
+(a) 2,000 pure-fluid lines, ``boresize size LINES.csv --json --workers 1`` (one process, stdout to /dev/null)
+    against the floor: a process that imports CoolProp, then per line one ``AbstractState`` PT update, density
+    and viscosity (one reused state per fluid) -- the ratio of CPU times (target 1.2x, issue 19);
+(b) CPU time per line at 1,000, 10,000 and 50,000 lines (``-o results.csv``) beyond the one-line run of (d)
+    (start-up), and the 50k/1k ratio (flat: 1.0);
+(c) peak memory of 50,000 lines to CSV and to JSON Lines (``.jsonl``; ``.json`` where it is not written);
+(d) one line through the command line against the floor for one line (with its CoolProp import): the
+    difference (target: the floor + 0.3 s).
+
+The line lists are the demo unit's lines whose properties CoolProp gives (the heavy fuel oil with table values
+left out) repeated with flows scaled 0.6-1.4x and temperatures moved +/-5 K (``bench_batch.build_line_list``'s
+rule), each row its own line. Not run by the unit tests: ``make bench``.
+
+Run: ``.venv/bin/python benchmarks/bench_scale.py [--repeats 3] [--big 50000] [--quick]``
+"""
+
+from __future__ import annotations
+
+import argparse
+import csv
+import json
+import os
+import subprocess
+import sys
+import tempfile
+from pathlib import Path
+
+ROOT = Path(__file__).resolve().parents[1]
+DEMO = ROOT / "examples" / "demo-unit"
+TARGET_RATIO = 1.2  # issue 19: 2,000 lines within 1.2x the floor
+TARGET_ONE_LINE = 0.3  # issue 19: one line within the floor + 0.3 s
+TARGET_MEMORY_MB = 500.0  # issue 19: 50,000 lines in at most 500 MB
+CLI = "import sys; from boresize.cli import main; sys.exit(main())"  # what the console script runs
+FLOOR = """
+import json, sys
+import CoolProp.CoolProp as CP
+points = json.load(open(sys.argv[1]))
+states = {}
+for name, p, t in points:
+    state = states.get(name) or states.setdefault(name, CP.AbstractState("HEOS", name))
+    try:
+        state.update(CP.PT_INPUTS, p, t)
+        state.rhomass()
+        state.viscosity()
+    except ValueError:
+        pass
+"""
+
+
+def build_pure_list(count: int, folder: Path) -> Path:
+    """A ``count``-line CSV of the demo's CoolProp lines (no table values, no cases), varied deterministically."""
+    with open(DEMO / "lines.csv", encoding="utf-8") as handle:
+        reader = csv.DictReader(handle)
+        headers = [h for h in reader.fieldnames or () if h != "case"]
+        demo = [row for row in reader if not row["density"]]
+    path = folder / f"lines-{count}.csv"
+    with open(path, "w", encoding="utf-8", newline="") as handle:
+        writer = csv.DictWriter(handle, headers, extrasaction="ignore")
+        writer.writeheader()
+        for i in range(count):
+            row = dict(demo[i % len(demo)])
+            scale = 0.6 + 0.8 * ((i * 7919) % 1000) / 1000.0
+            number, unit = row["flow"].split(" ", 1)
+            row["flow"] = f"{float(number) * scale:.5g} {unit}"
+            t_number, t_unit = row["temperature"].split(" ", 1)
+            row["temperature"] = f"{float(t_number) + ((i * 104729) % 100) / 10.0 - 5.0:.3f} {t_unit}"
+            row["tag"] = f"{row['tag']}-{i:05d}"
+            writer.writerow(row)
+    return path
+
+
+def points_file(lines: Path) -> Path:
+    """The floor's input: (CoolProp name, p [Pa abs], T [K]) of every line, as JSON beside the line list."""
+    from boresize.io import read_line_list
+    from boresize.io.rows import line_from_row
+    from boresize.properties.coolprop import CoolPropBackend
+
+    backend, points = CoolPropBackend(), []
+    line_list = read_line_list(lines)
+    for position, row in enumerate(line_list.rows, start=1):
+        line = line_from_row(row, line_list.units, position)
+        points.append((backend.resolve(line.fluid), line.pressure, line.temperature))
+    path = lines.with_suffix(".points.json")
+    path.write_text(json.dumps(points), encoding="utf-8")
+    return path
+
+
+def child(argv: list[str]) -> tuple[float, float]:
+    """(CPU seconds, peak resident MB) of a child process running ``argv`` (stdout discarded)."""
+    env = dict(os.environ, PYTHONPATH=os.pathsep.join(filter(None, [str(ROOT / "src"),
+                                                                     os.environ.get("PYTHONPATH")])))
+    with tempfile.TemporaryFile() as errors:
+        process = subprocess.Popen(argv, stdout=subprocess.DEVNULL, stderr=errors, env=env)
+        _, status, usage = os.wait4(process.pid, 0)
+        process.returncode = os.waitstatus_to_exitcode(status)
+        if process.returncode not in (0, 1):  # 1: a line failed its criteria, which is a result
+            errors.seek(0)
+            raise SystemExit(f"{argv} exited {process.returncode}: {errors.read().decode()[-2000:]}")
+    return usage.ru_utime + usage.ru_stime, usage.ru_maxrss / 1024.0
+
+
+def boresize(lines: Path, *extra: str) -> list[str]:
+    return [sys.executable, "-c", CLI, "size", str(lines), "--workers", "1", "--quiet",
+            "--criteria", str(DEMO / "criteria.toml"), *extra]
+
+
+def floor(points: Path) -> list[str]:
+    return [sys.executable, "-c", FLOOR, str(points)]
+
+
+def least(pairs: list[tuple[float, float]]) -> tuple[float, float]:
+    return min(p[0] for p in pairs), max(p[1] for p in pairs)
+
+
+def interleaved(first: list[str], second: list[str], repeats: int) -> tuple[tuple[float, float], tuple[float, float]]:
+    """Each command run ``repeats`` times, alternately; the least CPU time and the peak memory of each."""
+    a, b = [], []
+    for _ in range(repeats):
+        a.append(child(first))
+        b.append(child(second))
+    return least(a), least(b)
+
+
+def main() -> None:
+    parser = argparse.ArgumentParser(description=__doc__.split("\n")[0])
+    parser.add_argument("--repeats", type=int, default=3, help="runs of each side of a comparison (least kept)")
+    parser.add_argument("--big", type=int, default=50000, help="lines of the largest list (memory, time per line)")
+    parser.add_argument("--quick", action="store_true", help="one repeat, 5,000 lines as the largest list")
+    args = parser.parse_args()
+    if args.quick:
+        args.repeats, args.big = 1, 5000
+    from boresize.api.output import WRITERS
+
+    stream = ".jsonl" if ".jsonl" in WRITERS else ".json"
+    print(f"machine: {os.cpu_count()} cores, load average {' '.join(f'{v:.1f}' for v in os.getloadavg())}; "
+          f"CPU times of child processes, least of {args.repeats} interleaved runs")
+    with tempfile.TemporaryDirectory(prefix="bench-scale-") as name:
+        folder = Path(name)
+        two = build_pure_list(2000, folder)
+        (cli, _), (bare, _) = interleaved(boresize(two, "--json"), floor(points_file(two)), args.repeats)
+        ratio = cli / bare
+        print(f"(a) 2,000 lines, boresize size --json --workers 1: {cli:.2f} s CPU; floor (import CoolProp, "
+              f"AbstractState PT + density + viscosity per line): {bare:.2f} s; ratio {ratio:.2f}x "
+              f"(target {TARGET_RATIO}x: {'met' if ratio <= TARGET_RATIO else 'NOT met'})")
+        one = build_pure_list(1, folder)
+        (start, _), (bare, _) = interleaved(boresize(one), floor(points_file(one)), args.repeats)
+        print(f"(d) one line, boresize size: {start:.2f} s CPU; floor (import CoolProp, one state): {bare:.2f} s; "
+              f"difference {start - bare:+.2f} s (target +{TARGET_ONE_LINE} s: "
+              f"{'met' if start - bare <= TARGET_ONE_LINE else 'NOT met'})")
+        per_line: dict[int, float] = {}
+        memory: dict[str, float] = {}
+        for count in sorted({1000, 10000, args.big}):
+            lines = build_pure_list(count, folder)
+            runs = args.repeats if count <= 10000 else 1
+            cpu, peak = least([child(boresize(lines, "-o", str(folder / "out.csv"))) for _ in range(runs)])
+            per_line[count] = (cpu - start) / (count - 1)
+            print(f"(b) {count:>6} lines to CSV: {cpu:.2f} s CPU, {per_line[count] * 1e3:.3f} ms/line beyond the "
+                  f"one-line run's {start:.2f} s (start-up), peak {peak:.0f} MB")
+            if count == args.big:
+                memory[".csv"] = peak
+                _, memory[stream] = child(boresize(lines, "-o", str(folder / f"out{stream}")))
+        flat = per_line[args.big] / per_line[1000]
+        print(f"(b) time per line {args.big} / 1,000 lines: {flat:.2f} (flat: 1.0)")
+        for suffix, peak in memory.items():
+            print(f"(c) {args.big} lines to {suffix}: peak {peak:.0f} MB (target {TARGET_MEMORY_MB:.0f} MB: "
+                  f"{'met' if peak <= TARGET_MEMORY_MB else 'NOT met'})")
+
+if __name__ == "__main__":
+    main()
