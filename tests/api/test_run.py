@@ -107,7 +107,7 @@ def test_the_run_writes_every_format(reference: Run, tmp_path: Path) -> None:
 
 def test_an_output_of_an_unknown_kind_is_refused(reference: Run, tmp_path: Path) -> None:
     with pytest.raises(InputError, match=r"^output: cannot tell what to write to '.*out\.ods' from its extension; "
-                                         r"expected a file ending in \.json, \.csv, \.xlsx, \.html, \.pdf$"):
+                                         r"expected a file ending in \.json, \.jsonl, \.csv, \.xlsx, \.html, \.pdf$"):
         reference.write(tmp_path / "out.ods")
 
 
@@ -184,7 +184,7 @@ def test_an_output_that_is_a_folder_is_named(reference: Run, tmp_path: Path) -> 
     folder = tmp_path / "out.csv"
     folder.mkdir()
     with pytest.raises(InputError, match=r"^output: '.*out\.csv' is a folder; expected a file name ending in "
-                                         r"\.json, \.csv, \.xlsx, \.html, \.pdf$"):
+                                         r"\.json, \.jsonl, \.csv, \.xlsx, \.html, \.pdf$"):
         reference.write(folder)
 
 
