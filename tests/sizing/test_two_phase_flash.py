@@ -84,3 +84,12 @@ def test_a_mixture_line_re_flashes_isothermally_and_says_so(sizer):
     assert hyd.two_phase is not None and hyd.two_phase.segments > 1
     assert "isothermal" in hyd.method
     assert hyd.two_phase.outlet_vapour_fraction is not None
+
+
+def test_a_line_may_name_the_homogeneous_method_the_hydraulics_offer(sizer):
+    """two_phase_method "homogeneous" (any case) was refused by the line reader though the hydraulics rate it."""
+    row = {"tag": "H-1", "fluid": "R134a", "flow": "5 t/h", "pressure": "5 bara", "quality": "0.3", "length": "60 m",
+           "service": "two-phase", "two_phase_method": "Homogeneous"}
+    result = sizer.run(line_from_row(row))
+    assert result.status in ("pass", "fail"), result.error
+    assert result.selected.hydraulics.two_phase.method == "homogeneous"

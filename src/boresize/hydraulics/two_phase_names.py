@@ -22,8 +22,11 @@ def two_phase_methods() -> tuple[str, ...]:
 
 
 def two_phase_method_name(text: str) -> str | None:
-    """The fluids library's spelling of the correlation ``text`` names (case and separators ignored), else None."""
+    """The fluids library's spelling of the correlation ``text`` names (case and separators ignored), or
+    "homogeneous" (the no-slip method the two-phase hydraulics offers besides the library's), else None."""
     wanted = _key(text)
+    if wanted == "homogeneous":
+        return "homogeneous"
     return next((name for name in two_phase_methods() if _key(name) == wanted), None) if wanted else None
 
 

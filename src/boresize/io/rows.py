@@ -203,7 +203,7 @@ def _two_phase_method(raw: str | None) -> str | None:
     name = two_phase_method_name(raw)
     if name is None:
         raise InputError(f"unknown two-phase method {raw!r}", field="two_phase_method", value=raw,
-                         expected=f"a correlation of the fluids library: {', '.join(two_phase_methods())}")
+                         expected=f"homogeneous or a correlation of the fluids library: {', '.join(two_phase_methods())}")
     return name
 
 

@@ -203,7 +203,7 @@ def _two_phase_method(value: Any, where: str) -> str | None:
     name = two_phase_method_name(value) if isinstance(value, str) else None
     if name is None:
         raise CriteriaFileError(f"unknown two-phase method {value!r}", field=where, value=value,
-                                expected=f"a correlation of the fluids library: {', '.join(two_phase_methods())}")
+                                expected=f"homogeneous or a correlation of the fluids library: {', '.join(two_phase_methods())}")
     return name
 
 
