@@ -13,7 +13,7 @@ from fluids.two_phase_voidage import Woldesemayat_Ghajar
 from hypothesis import given, settings
 from hypothesis import strategies as st
 
-from boresize.errors import InputError
+from boresize.errors import InputError, PropertyError
 from boresize.hydraulics.line import rate_line
 from boresize.hydraulics.two_phase import accepted_methods, beggs_brill_holdup, rate_two_phase
 from boresize.hydraulics.two_phase import _Phases
@@ -172,7 +172,13 @@ def test_march_refreshes_along_the_line() -> None:
         return FluidState(density=5.0, viscosity=1e-5, phase="gas", source="coolprop", model="HEOS")
 
     h = rate_two_phase(line(length=300.0), saturated(x=0.1), PIPE, 3.0, properties=gas_only)
-    assert "held at the inlet" in h.method
+    assert "then held: the backend gave a gas state, not two-phase" in h.method
+
+    def failing(p: float, t: float) -> FluidState:
+        raise PropertyError("too close to the dew curve")
+
+    h = rate_two_phase(line(length=300.0), saturated(x=0.1), PIPE, 3.0, properties=failing)
+    assert "then held: the property backend failed at" in h.method and "too close to the dew curve" in h.method
 
 
 def test_holdup_helper_matches_fluids_beggs_brill_static() -> None:

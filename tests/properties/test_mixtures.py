@@ -200,7 +200,7 @@ def test_mixed_line_list_sizes_the_good_lines_and_records_each_source(batch: dic
     from boresize.report.terminal import render_table
 
     expected = {"P-1": "coolprop", "G-1": "gerg-2008", "L-1": "gerg-2008", "F-1": "table", "B-1": "coolprop-mixture",
-                "P-2": "coolprop"}
+                "P-2": "coolprop", "X-2P": "gerg-2008"}
     table = render_table(list(batch.values()), sizer.config.origin, sizer.config.version)
     unjudged = {"F-1", "B-1"}  # line-list values and CoolProp's brines give no vapour pressure: flashing says error
     for tag, source in expected.items():
@@ -212,6 +212,16 @@ def test_mixed_line_list_sizes_the_good_lines_and_records_each_source(batch: dic
         assert entry["status"] in ("pass", "fail"), entry.get("error")
         row = next(line for line in table.splitlines() if line.startswith(tag + " "))
         assert row.rstrip().endswith(source)  # the table's Source column
+
+
+def test_a_two_phase_mixture_through_gerg_is_sized_with_thermos_surface_tension(batch: dict[str, Any]) -> None:
+    """X-2P (propane 0.6, n-butane 0.4 at 4 bar, 20 degC) flashes to two phases; GERG-2008 (CoolProp) gives no
+    surface tension of a mixture, so the liquid's comes from thermo's SurfaceTensionMixture and Beggs-Brill rates it
+    (tests/sizing/test_two_phase_flash.py checks the value against thermo)."""
+    result = batch["X-2P"]
+    assert result.status in ("pass", "fail") and result.service == "two-phase", result.error
+    assert result.state.phase == "two-phase" and result.state.surface_tension is not None
+    assert result.selected.hydraulics.two_phase.method == "Beggs-Brill"
 
 
 def test_natural_gas_in_mmscfd_converts_with_the_eos_at_60_degf(batch: dict[str, Any]) -> None:
@@ -226,8 +236,6 @@ def test_natural_gas_in_mmscfd_converts_with_the_eos_at_60_degf(batch: dict[str,
 
 
 @pytest.mark.parametrize(("tag", "field", "message"), [
-    ("X-2P", "surface_tension", r"line X-2P: surface_tension: the Beggs-Brill correlation needs the surface tension, "
-                                r"which the state lacks"),
     ("X-UNK", "fluid", r"line X-UNK: fluid: unknown component 'metane' \(close matches: methane"),
     ("X-SUM", "fluid", r"line X-SUM: fluid: the mole fractions sum to 0.9, not 1"),
     ("X-FLASH", "temperature", r"line X-FLASH: temperature: Water is gas at 120 degC and 1 bar abs, vapour pressure "

@@ -90,8 +90,8 @@ def test_an_unknown_two_phase_method_names_line_field_value_and_the_choices(bad)
     with pytest.raises(InputError) as info:
         line_from_row(STEAM | {"two_phase_method": bad})
     assert info.value.field == "two_phase_method"
-    assert str(info.value).startswith(f"line TP-1: two_phase_method: unknown two-phase method {bad!r}; expected a "
-                                      f"correlation of the fluids library: homogeneous, Bankoff, ")
+    assert str(info.value).startswith(f"line TP-1: two_phase_method: unknown two-phase method {bad!r}; expected "
+                                      f"homogeneous or a correlation of the fluids library: Bankoff, ")
     assert "Beggs-Brill" in str(info.value) and "Lockhart_Martinelli" in str(info.value)
 
 

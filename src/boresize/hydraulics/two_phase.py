@@ -16,7 +16,7 @@ import math
 from collections.abc import Callable
 from dataclasses import dataclass
 
-from boresize.errors import InputError
+from boresize.errors import InputError, PropertyError
 from boresize.hydraulics.darcy import _pipe_flow
 from boresize.hydraulics.fittings import fittings_loss
 from boresize.hydraulics.friction import darcy_friction_factor
@@ -298,19 +298,19 @@ class _March:
 
 def _march(line: Line, name: str, m: float, inlet: _Phases, bore: tuple[float, float], segments: int,
            properties: Properties | None, state: FluidState) -> _March:
-    out = _March(segments=segments)
+    out = _March(segments=segments, outlet_x=inlet.x)
     dx, dz = line.length / segments, line.elevation / segments
     ph, p, p_flash = inlet, line.pressure, line.pressure
     along = properties is not None and segments > 1 and state.source != "table"
-    held = False
+    how = str(getattr(properties, "label", f"at (p, inlet T = {line.temperature:.5g} K), isothermal"))
+    held = ""
     for i in range(segments):
         if along and not held and p < p_flash * (1 - _REEVALUATE):
-            new = properties(p, line.temperature) if properties is not None else state
-            if _usable(new):
-                ph, p_flash = _phases(new, line.tag), p
+            p_flash = _grid(line.pressure, p)  # on a grid, so the sizes of one line share their flashes (cached)
+            new, held = _reflash(properties, p_flash, line)
+            if new is not None:
+                ph = _phases(new, line.tag)
                 out.outlet_x = ph.x
-            else:
-                held = True
         step = _segment(name, m, ph, p, bore, dx, dz, line.tag)[0]
         drop = step.friction + step.static + step.acceleration
         if not math.isfinite(drop) or drop >= p:
@@ -320,19 +320,46 @@ def _march(line: Line, name: str, m: float, inlet: _Phases, bore: tuple[float, f
                        "critical two-phase flow)" if math.isinf(step.acceleration) else
                        "the correlation gives no finite drop there")
             out.friction += step.friction * (out.reached - i * dx) / dx if dx > 0 else 0.0
+            out.note = _note(segments, how, held, along) + " until the line could not flow"
             return out
         out.friction += step.friction
         out.static += step.static
         out.acceleration += step.acceleration
         p -= drop
         out.reached = (i + 1) * dx
-    if segments == 1:
-        out.note = "at the inlet (drop within 5 % of the inlet pressure: one segment)"
-    elif held:
-        out.note = ("held at the inlet's after the first re-flash: the property backend gave no two-phase state "
-                    f"at (p, T = {line.temperature:.5g} K) along the line")
-    elif along:
-        out.note = f"re-flashed at (p, inlet T) each {_REEVALUATE:.0%} of pressure fall along the line"
-    else:
-        out.note = "held at the inlet's (no property callable along the line)"
+    if along and not held and p < p_flash and getattr(properties, "cheap", False):  # the outlet's own quality
+        new, held = _reflash(properties, p, line)
+        out.outlet_x = new.vapour_fraction if new is not None else out.outlet_x
+    out.note = _note(segments, how, held, along)
     return out
+
+
+def _grid(inlet: float, p: float) -> float:
+    """The highest pressure [Pa abs] of the grid inlet * (1 - 2 %)^k at or below ``p``'s step: the re-flash
+    pressure, at most 2 % above ``p``."""
+    k = math.floor(math.log(p / inlet) / math.log(1.0 - _REEVALUATE))
+    return inlet * (1.0 - _REEVALUATE) ** k
+
+
+def _note(segments: int, how: str, held: str, along: bool) -> str:
+    if segments == 1:
+        return "at the inlet (drop within 5 % of the inlet pressure: one segment)"
+    if held:
+        return f"re-flashed {how} each {_REEVALUATE:.0%} of pressure fall, then held: {held}"
+    if along:
+        return (f"re-flashed {how} each {_REEVALUATE:.0%} of pressure fall along the line (at the inlet "
+                f"pressure times {1 - _REEVALUATE:g}^k)")
+    return "held at the inlet's (no property callable along the line)"
+
+
+def _reflash(properties: Properties | None, p: float, line: Line) -> tuple[FluidState | None, str]:
+    """Flash at ``p`` [Pa abs]: (the state, '') when it is two-phase, else (None, why not); the march then holds
+    the last two-phase properties."""
+    assert properties is not None
+    try:
+        new = properties(p, line.temperature)
+    except (InputError, PropertyError) as exc:
+        return None, f"the property backend failed at {p / 1e5:.4g} bar abs ({exc})"
+    if not _usable(new):
+        return None, f"the backend gave a {new.phase} state, not two-phase, at {p / 1e5:.4g} bar abs"
+    return new, ""

@@ -10,20 +10,28 @@ from __future__ import annotations
 import functools
 import re
 
-__all__ = ["two_phase_methods", "two_phase_method_name"]
+__all__ = ["library_methods", "two_phase_methods", "two_phase_method_name"]
 
 
 @functools.lru_cache(maxsize=1)
-def two_phase_methods() -> tuple[str, ...]:
-    """``homogeneous`` and the correlation names of ``fluids.two_phase.two_phase_correlations``, sorted."""
+def library_methods() -> tuple[str, ...]:
+    """The correlation names of ``fluids.two_phase.two_phase_correlations``, sorted."""
     from fluids.two_phase import two_phase_correlations
 
-    return ("homogeneous", *sorted(two_phase_correlations))
+    return tuple(sorted(two_phase_correlations))
+
+
+def two_phase_methods() -> tuple[str, ...]:
+    """Every name ``two_phase_method`` accepts: ``homogeneous`` and the fluids library's correlations."""
+    return ("homogeneous", *library_methods())
 
 
 def two_phase_method_name(text: str) -> str | None:
-    """The fluids library's spelling of the correlation ``text`` names (case and separators ignored), else None."""
+    """The fluids library's spelling of the correlation ``text`` names (case and separators ignored), or
+    "homogeneous" (the no-slip method the two-phase hydraulics offers besides the library's), else None."""
     wanted = _key(text)
+    if wanted == "homogeneous":
+        return "homogeneous"
     return next((name for name in two_phase_methods() if _key(name) == wanted), None) if wanted else None
 
 

@@ -198,12 +198,12 @@ def _two_phase_method(raw: str | None) -> str | None:
     """The line's two-phase correlation, as the fluids library names it (case ignored)."""
     if raw is None:
         return None
-    from boresize.hydraulics.two_phase_names import two_phase_method_name, two_phase_methods
+    from boresize.hydraulics.two_phase_names import library_methods, two_phase_method_name
 
     name = two_phase_method_name(raw)
     if name is None:
         raise InputError(f"unknown two-phase method {raw!r}", field="two_phase_method", value=raw,
-                         expected=f"a correlation of the fluids library: {', '.join(two_phase_methods())}")
+                         expected=f"homogeneous or a correlation of the fluids library: {', '.join(library_methods())}")
     return name
 
 

@@ -156,6 +156,23 @@ class CoolPropBackend:
             quality = quality if own else None
         return self._cached_state(name, float(pressure), float(temperature), hint, quality)
 
+    def isenthalpic(self, line: Line, inlet: FluidState) -> _Isenthalpic | None:
+        """The flash along a pure two-phase line: (p [Pa abs], T [K, ignored]) -> the state at the inlet's
+        specific enthalpy (CoolProp's HmassP flash), so the quality rises as the pressure falls (an adiabatic
+        line: friction work stays in the fluid, kinetic and potential energy changes neglected); None for a
+        state not two-phase by quality."""
+        if inlet.phase != "two-phase" or inlet.vapour_fraction is None or inlet.pressure is None:
+            return None
+        name = self.resolve(line.fluid)
+        with self._lock:
+            state = self._abstract_state(name)
+            try:
+                state.update(_cp().PQ_INPUTS, inlet.pressure, inlet.vapour_fraction)
+            except ValueError as exc:
+                raise PropertyError(f"coolprop: CoolProp failed for {name} at {inlet.pressure / 1e5:.6g} bar abs, "
+                                    f"quality {inlet.vapour_fraction:g}: {exc}") from exc
+            return _Isenthalpic(self, name, float(state.hmass()))
+
     def saturation_temperature(self, fluid: str, pressure: float) -> tuple[str, float]:
         """(CoolProp name, saturation temperature [K]) of a pure fluid at ``pressure`` [Pa abs].
 
@@ -367,3 +384,28 @@ def coolprop_saturation(fluid: str, pressure: float) -> tuple[str, float]:
     """(CoolProp name, saturation temperature [K]) of a pure fluid at ``pressure`` [Pa abs]
     (see :meth:`CoolPropBackend.saturation_temperature`)."""
     return _shared().saturation_temperature(fluid, pressure)
+
+
+class _Isenthalpic:
+    """(p [Pa abs], T [K, ignored]) -> the state of a pure fluid at one specific enthalpy [J/kg] and ``p``: two-phase
+    by CoolProp's HmassP flash quality, else the one-phase state at the flash's temperature."""
+
+    label = "isenthalpically (CoolProp's HmassP flash at the inlet's enthalpy)"
+    cheap = True  # a flash cheap enough to redo at the outlet's own pressure (two-phase march)
+
+    def __init__(self, backend: CoolPropBackend, name: str, enthalpy: float) -> None:
+        self._backend, self._name, self._h = backend, name, enthalpy
+
+    def __call__(self, pressure: float, temperature: float) -> FluidState:
+        backend = self._backend
+        with backend._lock:
+            state = backend._abstract_state(self._name)
+            try:
+                state.update(_cp().HmassP_INPUTS, self._h, pressure)
+            except ValueError as exc:
+                raise PropertyError(f"coolprop: CoolProp's HmassP flash failed for {self._name} at "
+                                    f"{pressure / 1e5:.6g} bar abs, h {self._h / 1e3:.6g} kJ/kg: {exc}") from exc
+            quality, t = float(state.Q()), float(state.T())
+        if 0.0 < quality < 1.0:
+            return backend._cached_state(self._name, float(pressure), t, "two-phase", quality)
+        return backend._cached_state(self._name, float(pressure), t, None, None)

@@ -50,18 +50,21 @@ class Point:
     #: of a two-phase point: (liquid density [kg/m3], gas density [kg/m3], liquid viscosity [Pa s], gas viscosity
     #: [Pa s]); None for one phase
     phases: tuple[float, float, float, float] | None = None
+    #: of a two-phase point: the liquid phase's surface tension [N/m], None where not known
+    surface_tension: float | None = None
 
     def phase_fields(self) -> dict[str, float | None]:
         """The FluidState fields of a two-phase point's phases (none for one phase); CoolProp gives no
-        surface tension of a mixture, so ``surface_tension`` is None (:data:`NO_SURFACE_TENSION` says so)."""
+        surface tension of a mixture: ``surface_tension`` is thermo's of the liquid phase (:func:`_sigma`)."""
         if self.phases is None:
             return {}
         rho_l, rho_g, mu_l, mu_g = self.phases
         return {"liquid_density": rho_l, "gas_density": rho_g, "liquid_viscosity": mu_l, "gas_viscosity": mu_g,
-                "surface_tension": None}
+                "surface_tension": self.surface_tension}
 
 
-#: The note of a two-phase HEOS mixture state: CoolProp has no surface tension model for mixtures.
+#: The note of a two-phase HEOS mixture state: CoolProp has no surface tension model for mixtures, so the
+#: liquid phase's is thermo's (:func:`_sigma`); this note where that too fails.
 NO_SURFACE_TENSION = "surface tension not known: CoolProp gives none for a mixture"
 
 
@@ -95,16 +98,17 @@ def heos_point(state: Any, phases: Any, names: tuple[str, ...], pressure: float,
         notes = ("gas phase imposed: no bubble or dew point at this temperature",) if gas_known else ()
         quality = 0.0 if phase == "liquid" else 1.0
         return Point(phase, state.rhomass(), state.viscosity(), quality, state.speed_sound(), gas_known, notes)
-    return _two_phase(state, phases, pressure, temperature)
+    return _two_phase(state, phases, names, pressure, temperature)
 
 
-def _two_phase(state: Any, phases: Any, pressure: float, temperature: float) -> Point:
+def _two_phase(state: Any, phases: Any, names: tuple[str, ...], pressure: float, temperature: float) -> Point:
     """Homogeneous density and McAdams viscosity from the two phases, each evaluated with its phase imposed."""
     from CoolProp import CoolProp as CP
 
     molar_gas = state.Q()
     gas_mass = molar_gas * state.saturated_vapor_keyed_output(CP.imolar_mass)
     quality = gas_mass / (gas_mass + (1.0 - molar_gas) * state.saturated_liquid_keyed_output(CP.imolar_mass))
+    sigma, sigma_note = _sigma(names, tuple(state.mole_fractions_liquid()), pressure, temperature)
     viscosities = []
     for fractions, imposed in ((state.mole_fractions_vapor(), CP.iphase_gas),
                                (state.mole_fractions_liquid(), CP.iphase_liquid)):
@@ -121,7 +125,26 @@ def _two_phase(state: Any, phases: Any, pressure: float, temperature: float) -> 
             f"liquid {rho_liquid:.4g} kg/m3, {viscosities[1] * 1e3:.4g} mPa s; homogeneous density, McAdams viscosity",)
     return Point("two-phase", homogeneous_density(quality, rho_gas, rho_liquid),
                  mcadams_viscosity(quality, viscosities[0], viscosities[1]), quality, None, False,
-                 (*note, NO_SURFACE_TENSION), (rho_liquid, rho_gas, viscosities[1], viscosities[0]))
+                 (*note, sigma_note), (rho_liquid, rho_gas, viscosities[1], viscosities[0]), sigma)
+
+
+def _sigma(names: tuple[str, ...], liquid_zs: tuple[float, ...], pressure: float,
+           temperature: float) -> tuple[float | None, str]:
+    """The liquid phase's surface tension [N/m] and its note: CoolProp has none for a mixture, so thermo's
+    SurfaceTensionMixture over the pure components, the method of the thermo backend
+    (:func:`boresize.properties.thermo_evaluate.liquid_surface_tension`), on CoolProp's liquid composition."""
+    from CoolProp import CoolProp as CP
+
+    from boresize.properties.thermo_evaluate import liquid_surface_tension
+
+    try:
+        cas = tuple(CP.get_fluid_param_string(name, "CAS") for name in names)
+    except ValueError:
+        return None, NO_SURFACE_TENSION
+    sigma, note = liquid_surface_tension(cas, liquid_zs, temperature, pressure)
+    if sigma is None:
+        return None, f"{NO_SURFACE_TENSION}; {note}"
+    return sigma, f"{note}, on CoolProp's liquid-phase composition (CoolProp gives none for a mixture)"
 
 
 def _guard_z(z: float, phase: str, names: tuple[str, ...], pressure: float, temperature: float) -> None:

@@ -16,7 +16,7 @@ if TYPE_CHECKING:
     from boresize.properties.thermo import Fluid
     from boresize.properties.thermo_phases import PhaseResult, ThermoPackage
 
-__all__ = ["evaluate_pure", "evaluate_mixture", "liquid_direct", "gas_direct", "no_envelope"]
+__all__ = ["evaluate_pure", "evaluate_mixture", "liquid_direct", "gas_direct", "no_envelope", "liquid_surface_tension"]
 
 
 def evaluate_pure(package: ThermoPackage, fluid: Fluid, eos: str, pressure: float, temperature: float,
@@ -159,6 +159,20 @@ def _two_phase(package: ThermoPackage, fluid: Fluid, eos: str, pressure: float, 
                    vapour=bubble, bubble=bubble, dew=dew, notes=notes)
     return replace(state, liquid_density=liquid.density, gas_density=gas.density, liquid_viscosity=liquid.viscosity,
                    gas_viscosity=gas.viscosity, surface_tension=sigma)
+
+
+def liquid_surface_tension(cas: tuple[str, ...], liquid_zs: tuple[float, ...], temperature: float,
+                           pressure: float) -> tuple[float | None, str]:
+    """The surface tension [N/m] of a liquid phase of mole fractions ``liquid_zs`` over the components ``cas`` at
+    ``temperature`` [K], by the same method as this backend's two-phase states (:func:`_surface_tension`), and the
+    note that says so; for a backend with no surface tension of its own (CoolProp's mixtures)."""
+    from boresize.properties.thermo_phases import load_package
+
+    try:
+        package = load_package(tuple(cas), "PR")  # the EOS does not enter the surface tension
+    except (InputError, PropertyError, ValueError, KeyError) as exc:
+        return None, f"surface tension not known: thermo could not load the components ({exc})"
+    return _surface_tension(package, tuple(liquid_zs), temperature, pressure)
 
 
 def _surface_tension(package: ThermoPackage, liquid_zs: tuple[float, ...], temperature: float,

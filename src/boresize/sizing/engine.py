@@ -11,7 +11,7 @@ import math
 import sys
 import threading
 from bisect import bisect_left
-from collections.abc import Mapping, Sequence
+from collections.abc import Callable, Mapping, Sequence
 from contextlib import redirect_stdout
 from dataclasses import replace
 from pathlib import Path
@@ -193,8 +193,7 @@ class Sizer:
     def _hydraulics(self, line: Line, state: FluidState, candidate: Candidate, mass_flow: float,
                     two_phase_method: str | None = None) -> Hydraulics:
         try:
-            hyd = rate_line(line, state, candidate, mass_flow,
-                            properties=lambda p, t: choose_backend(self.host, line).state(line, p, t),
+            hyd = rate_line(line, state, candidate, mass_flow, properties=self._along(line, state),
                             two_phase_method=two_phase_method)
         except (OverflowError, ZeroDivisionError) as exc:
             raise _beyond_range(mass_flow, f"in NPS {candidate.nps}") from exc
@@ -203,6 +202,16 @@ class Sizer:
                 and isfinite(hyd.drop_per_length) and isfinite(hyd.total_drop)):
             raise _beyond_range(mass_flow, f"in NPS {candidate.nps}")
         return hyd
+
+    def _along(self, line: Line, state: FluidState) -> Callable[[float, float], FluidState]:
+        """The properties along the line, (p [Pa abs], T [K]) -> FluidState: a pure fluid's two-phase state
+        re-flashed at the inlet's enthalpy where its backend offers that (``isenthalpic``), else at (p, T)."""
+        if state.phase == "two-phase" and state.source == "coolprop":
+            isenthalpic = getattr(choose_backend(self.host, line), "isenthalpic", None)
+            flash = isenthalpic(line, state) if isenthalpic is not None else None
+            if flash is not None:
+                return flash  # type: ignore[no-any-return]
+        return lambda p, t: choose_backend(self.host, line).state(line, p, t)
 
     def _verdicts(self, p: _Prepared, candidate: Candidate, hyd: Hydraulics) -> tuple[Verdict, ...]:
         judge, line, state, name = self._judge, p.line, p.state, p.service.name

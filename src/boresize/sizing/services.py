@@ -198,12 +198,12 @@ def _two_phase_method(value: Any, where: str) -> str | None:
     """A service's ``two_phase_method``: a correlation of ``fluids.two_phase.two_phase_correlations``."""
     if value is None:
         return None
-    from boresize.hydraulics.two_phase_names import two_phase_method_name, two_phase_methods
+    from boresize.hydraulics.two_phase_names import library_methods, two_phase_method_name
 
     name = two_phase_method_name(value) if isinstance(value, str) else None
     if name is None:
         raise CriteriaFileError(f"unknown two-phase method {value!r}", field=where, value=value,
-                                expected=f"a correlation of the fluids library: {', '.join(two_phase_methods())}")
+                                expected=f"homogeneous or a correlation of the fluids library: {', '.join(library_methods())}")
     return name
 
 
