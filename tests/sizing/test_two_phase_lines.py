@@ -52,7 +52,7 @@ def test_a_line_without_service_that_flashes_to_two_phases_gets_the_two_phase_se
 def test_a_two_phase_line_in_a_single_phase_service_names_the_services_that_take_it(sizer, service, phase):
     result = sizer.run(line_from_row(STEAM | {"service": service}))
     assert result.status == "error" and result.error_field == "service"
-    assert (f"service {service!r} judges {phase} lines only; use service two-phase or two-phase-intermittent"
+    assert (f"service {service!r} judges {phase} lines only; use service letdown or two-phase or two-phase-intermittent"
             in result.error)
 
 
@@ -66,7 +66,7 @@ def test_the_shipped_two_phase_services_accept_two_phase_and_judge_with_criteria
         # API RP 14E (5th ed., 1991) section 2.5: C = 100 continuous, 125 intermittent (US units)
         assert ids["erosional"]["c_us"] == c_us
         assert {"erosional", "momentum", "drop-per-length"} <= set(ids)
-    assert dict(config.services["gas"].takers)["two-phase"] == ("two-phase", "two-phase-intermittent")
+    assert dict(config.services["gas"].takers)["two-phase"] == ("letdown", "two-phase", "two-phase-intermittent")
 
 
 def test_a_two_phase_service_with_a_criterion_blind_to_two_phase_is_refused(host, tmp_path):

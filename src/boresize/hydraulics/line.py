@@ -40,7 +40,8 @@ def is_gas(state: FluidState) -> bool:
 
 
 def rate_line(line: Line, state: FluidState, candidate: Candidate, mass_flow: float,
-              properties: Properties | None = None, two_phase_method: str | None = None) -> Hydraulics:
+              properties: Properties | None = None, two_phase_method: str | None = None,
+              letdown: bool = False) -> Hydraulics:
     """Hydraulics of ``candidate`` carrying ``mass_flow`` [kg/s] along ``line`` (SI throughout).
 
     :param line: length [m], elevation [m, rise positive], fittings, fixed_drop [Pa], inlet pressure
@@ -49,6 +50,9 @@ def rate_line(line: Line, state: FluidState, candidate: Candidate, mass_flow: fl
     :param properties: (p [Pa abs], T [K]) -> FluidState, the equation of state along a gas line; None
         (or line-list values) scales the inlet density as an ideal gas
     :param two_phase_method: the service's two-phase correlation (the line's own ``two_phase_method`` wins)
+    :param letdown: the service accepts two-phase lines: a liquid line whose pressure falls below its vapour (or
+        bubble) pressure within its length is rated two-phase from that point
+        (:func:`boresize.hydraulics.two_phase.rate_letdown`)
     :returns: Hydraulics with every drop [Pa], the outlet pressure [Pa abs] and the method text
     :raises InputError: an unknown fitting or method (field "fittings", "fittings_method", "compressible",
         "two_phase_method"), a two-phase state without its per-phase values
@@ -72,6 +76,15 @@ def rate_line(line: Line, state: FluidState, candidate: Candidate, mass_flow: fl
                          mach=mach, fittings_k=loss.k_total, fittings_method=loss.method)
         return _compressible(line, state, hyd, loss, (diameter, roughness), properties, fraction)
     total = drop + fittings + static + line.fixed_drop
+    bubble = state.bubble_pressure if state.bubble_pressure is not None else state.vapour_pressure
+    if letdown and state.phase == "liquid" and bubble is not None and line.pressure - total < bubble:
+        from boresize.hydraulics.two_phase import rate_letdown
+        liquid = Hydraulics(mass_flow=mass_flow, volume_flow=mass_flow / density, velocity=v, reynolds=re,
+                            friction_factor=f, regime=regime, drop_per_length=dpl, drop=drop,
+                            momentum=density * v * v, method=_simple_text(state, fraction, loss, regime))
+        flashed = rate_letdown(line, state, liquid, candidate, mass_flow, two_phase_method, properties)
+        if flashed is not None:
+            return flashed
     return Hydraulics(mass_flow=mass_flow, volume_flow=mass_flow / density, velocity=v, reynolds=re,
                       friction_factor=f, regime=regime, drop_per_length=dpl, drop=drop, momentum=density * v * v,
                       mach=mach, fittings_drop=fittings, static_drop=static, fixed_drop=line.fixed_drop,

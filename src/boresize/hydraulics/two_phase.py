@@ -14,7 +14,7 @@ from __future__ import annotations
 
 import math
 from collections.abc import Callable
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 
 from boresize.errors import InputError, PropertyError
 from boresize.hydraulics.darcy import _pipe_flow
@@ -22,7 +22,7 @@ from boresize.hydraulics.fittings import fittings_loss
 from boresize.hydraulics.friction import darcy_friction_factor
 from boresize.model import Candidate, FluidState, Hydraulics, Line, TwoPhaseFlow
 
-__all__ = ["DEFAULT_METHOD", "REGIME_NAMES", "accepted_methods", "rate_two_phase", "flow_regime", "beggs_brill_holdup",
+__all__ = ["DEFAULT_METHOD", "REGIME_NAMES", "accepted_methods", "rate_letdown", "rate_two_phase", "flow_regime", "beggs_brill_holdup",
            "resolve_method"]
 
 Properties = Callable[[float, float], FluidState]
@@ -35,7 +35,14 @@ REGIME_NAMES = ("stratified smooth", "stratified wavy", "intermittent", "annular
                 "elongated bubble", "stratified", "wave", "slug", "annular mist", "dispersed bubble")
 FITTINGS_METHOD = ("homogeneous two-phase multiplier, K rho_m v_m^2/2 at the no-slip density (Collier & Thome, "
                    "Convective Boiling and Condensation, 3rd ed., 1994)")
-_REEVALUATE = 0.02  # re-flash when the pressure has fallen 2 % since the last flash
+_REEVALUATE = 0.02  # re-flash when the pressure has fallen 2 % since the last flash (a pure fluid's HmassP flash)
+#: a mixture's flash (a CoolProp HEOS PT flash takes 25-35 ms) is redone each 5 % of pressure fall, on the same grid
+#: for every size of the line (cached by the backend)
+# measured (benchmarks/bench_two_phase.py, propane 0.6 / n-butane 0.4, 10 bar abs, 50 degC, median of 10, 2 cores
+# shared): 2 % -> 5 %: coolprop-mixture 447 -> 61 ms a line, gerg-2008 331 -> 69 ms; water by quality unchanged
+# (9.8 ms, its HmassP flash keeps 2 %). The inlet's own HEOS PT flash takes 25-35 ms, so 20 ms is out of reach for
+# a line whose inlet is not already cached.
+_REEVALUATE_SLOW = 0.05
 _MARCH = 0.05  # march in segments when the drop is above 5 % of the inlet pressure
 _SEGMENTS = 20
 
@@ -304,9 +311,10 @@ def _march(line: Line, name: str, m: float, inlet: _Phases, bore: tuple[float, f
     along = properties is not None and segments > 1 and state.source != "table"
     how = str(getattr(properties, "label", f"at (p, inlet T = {line.temperature:.5g} K), isothermal"))
     held = ""
+    every = _REEVALUATE if getattr(properties, "cheap", False) else _REEVALUATE_SLOW
     for i in range(segments):
-        if along and not held and p < p_flash * (1 - _REEVALUATE):
-            p_flash = _grid(line.pressure, p)  # on a grid, so the sizes of one line share their flashes (cached)
+        if along and not held and p < p_flash * (1 - every):
+            p_flash = _grid(line.pressure, p, every)  # on a grid, so the sizes of one line share their flashes (cached)
             new, held = _reflash(properties, p_flash, line)
             if new is not None:
                 ph = _phases(new, line.tag)
@@ -320,7 +328,7 @@ def _march(line: Line, name: str, m: float, inlet: _Phases, bore: tuple[float, f
                        "critical two-phase flow)" if math.isinf(step.acceleration) else
                        "the correlation gives no finite drop there")
             out.friction += step.friction * (out.reached - i * dx) / dx if dx > 0 else 0.0
-            out.note = _note(segments, how, held, along) + " until the line could not flow"
+            out.note = _note(segments, how, held, along, every) + " until the line could not flow"
             return out
         out.friction += step.friction
         out.static += step.static
@@ -330,25 +338,25 @@ def _march(line: Line, name: str, m: float, inlet: _Phases, bore: tuple[float, f
     if along and not held and p < p_flash and getattr(properties, "cheap", False):  # the outlet's own quality
         new, held = _reflash(properties, p, line)
         out.outlet_x = new.vapour_fraction if new is not None else out.outlet_x
-    out.note = _note(segments, how, held, along)
+    out.note = _note(segments, how, held, along, every)
     return out
 
 
-def _grid(inlet: float, p: float) -> float:
-    """The highest pressure [Pa abs] of the grid inlet * (1 - 2 %)^k at or below ``p``'s step: the re-flash
-    pressure, at most 2 % above ``p``."""
-    k = math.floor(math.log(p / inlet) / math.log(1.0 - _REEVALUATE))
-    return inlet * (1.0 - _REEVALUATE) ** k
+def _grid(inlet: float, p: float, every: float = _REEVALUATE) -> float:
+    """The highest pressure [Pa abs] of the grid inlet * (1 - every)^k at or below ``p``'s step: the re-flash
+    pressure, at most ``every`` (a fraction) above ``p``."""
+    k = math.floor(math.log(p / inlet) / math.log(1.0 - every))
+    return inlet * (1.0 - every) ** k
 
 
-def _note(segments: int, how: str, held: str, along: bool) -> str:
+def _note(segments: int, how: str, held: str, along: bool, every: float = _REEVALUATE) -> str:
     if segments == 1:
         return "at the inlet (drop within 5 % of the inlet pressure: one segment)"
     if held:
-        return f"re-flashed {how} each {_REEVALUATE:.0%} of pressure fall, then held: {held}"
+        return f"re-flashed {how} each {every:.0%} of pressure fall, then held: {held}"
     if along:
-        return (f"re-flashed {how} each {_REEVALUATE:.0%} of pressure fall along the line (at the inlet "
-                f"pressure times {1 - _REEVALUATE:g}^k)")
+        return (f"re-flashed {how} each {every:.0%} of pressure fall along the line (at the inlet "
+                f"pressure times {1 - every:g}^k)")
     return "held at the inlet's (no property callable along the line)"
 
 
@@ -363,3 +371,100 @@ def _reflash(properties: Properties | None, p: float, line: Line) -> tuple[Fluid
     if not _usable(new):
         return None, f"the backend gave a {new.phase} state, not two-phase, at {p / 1e5:.4g} bar abs"
     return new, ""
+
+
+_FLASH_STEP = 1e-3  # the two-phase part starts from a flash this fraction below the bubble pressure
+
+
+def rate_letdown(line: Line, state: FluidState, liquid: Hydraulics, candidate: Candidate, mass_flow: float,
+                 method: str | None, properties: Properties | None) -> Hydraulics | None:
+    """A liquid letdown line that reaches its bubble pressure before its end: liquid to the flash point, two-phase
+    after it; None when the liquid part does not reach the bubble pressure within the pipe (or nothing says where
+    it is: no vapour or bubble pressure, no property callable), the liquid answer then standing.
+
+    The pressure falls linearly along the pipe at the liquid gradient (friction plus rho g dz / L), so the flash
+    point is x_f = (p_in - p_bubble) / gradient. From there the line is rated by :func:`rate_two_phase` from the
+    flash at p_bubble (1 - 0.1 %) by ``properties`` (a pure fluid's isenthalpic HmassP flash at the inlet liquid's
+    enthalpy, a mixture's flash at (p, T)); the fittings (two-phase multiplier) and fixed allowances are taken in
+    the two-phase part, the conservative side. Flow regime, holdup, mixture velocity and density (the erosional
+    and momentum criteria's) are the outlet's, the most vapour and so the worst point.
+    """
+    bubble = state.bubble_pressure if state.bubble_pressure is not None else state.vapour_pressure
+    if bubble is None or properties is None or not (math.isfinite(bubble) and 0.0 < bubble < line.pressure):
+        return None
+    if not (line.length > 0.0 and math.isfinite(line.length)):
+        return None
+    gradient = liquid.drop_per_length + state.density * G * line.elevation / line.length
+    if not (math.isfinite(gradient) and gradient > 0.0):
+        return None
+    x_f = (line.pressure - bubble) / gradient
+    if x_f >= line.length:
+        return None
+    flashed = _flash(properties, bubble * (1.0 - _FLASH_STEP), line)
+    rest = line.length - x_f
+    tail = _tail(line, bubble, rest)
+    two = rate_two_phase(tail, flashed, candidate, mass_flow, method, properties)
+    assert two.two_phase is not None
+    liquid_drop = liquid.drop_per_length * x_f
+    liquid_static = state.density * G * line.elevation * x_f / line.length
+    record = replace(two.two_phase, flash_point=x_f)
+    velocity, momentum, where = two.velocity, two.momentum, "the flash point (the outlet could not be flashed)"
+    if not two.choked and two.outlet_pressure is not None:
+        outlet = _outlet_flow(properties, two.outlet_pressure, line, candidate, mass_flow, record)
+        if outlet is not None:
+            record, where = outlet, "the outlet, the most vapour and the worst point"
+            velocity, momentum = record.mixture_velocity, record.mixture_density * record.mixture_velocity ** 2
+    friction = liquid_drop + two.drop
+    total = line.pressure if two.choked else liquid_drop + liquid_static + two.total_drop
+    text = (f"letdown: liquid for {x_f:.4g} m to the bubble pressure {bubble / 1e5:.4g} bar abs ({liquid.method}), "
+            f"then two-phase for {rest:.4g} m from a flash at {bubble * (1 - _FLASH_STEP) / 1e5:.4g} bar abs "
+            f"(fittings and allowances taken there; flow regime, holdup, mixture velocity and density at {where}): "
+            f"{two.method}")
+    return replace(two, velocity=velocity, momentum=momentum, drop=friction,
+                   drop_per_length=friction / (x_f + (two.choke_length if two.choked and two.choke_length else rest)),
+                   static_drop=liquid_static + two.static_drop, total_drop=total,
+                   outlet_pressure=0.0 if two.choked else line.pressure - total, method=text,
+                   choke_length=x_f + two.choke_length if two.choke_length is not None else None, two_phase=record)
+
+
+def _tail(line: Line, pressure: float, length: float) -> Line:
+    """The two-phase part of a letdown line: from the flash point at ``pressure`` [Pa abs] for ``length`` [m]."""
+    return replace(line, pressure=pressure, length=length, elevation=line.elevation * length / line.length)
+
+
+def _flash(properties: Properties, p: float, line: Line) -> FluidState:
+    try:
+        flashed = properties(p, line.temperature)
+    except (InputError, PropertyError) as exc:
+        raise InputError(f"the flash below the bubble pressure at {p / 1e5:.4g} bar abs failed ({exc})",
+                         field="pressure", value=line.pressure,
+                         expected="a letdown line whose property backend flashes below its bubble pressure",
+                         tag=line.tag) from exc
+    if not _usable(flashed):
+        raise InputError(f"the flash at {p / 1e5:.4g} bar abs, just below the bubble pressure, gave a "
+                         f"{flashed.phase} state without per-phase values, not a two-phase one", field="phase",
+                         value=flashed.phase, expected="a backend giving the two-phase state of a flashing liquid",
+                         tag=line.tag)
+    return flashed
+
+
+def _outlet_flow(properties: Properties, p: float, line: Line, candidate: Candidate, m: float,
+                 record: TwoPhaseFlow) -> TwoPhaseFlow | None:
+    """The two-phase record at the outlet pressure ``p`` [Pa abs]; None when the flash there fails."""
+    try:
+        state = properties(p, line.temperature)
+    except (InputError, PropertyError):
+        return None
+    if not _usable(state):
+        return None
+    ph = _phases(state, line.tag)
+    diameter = candidate.inside_diameter
+    roughness = line.roughness if line.roughness is not None else candidate.roughness
+    area = 0.25 * math.pi * diameter**2
+    angle = _angle(line.length, line.elevation)
+    holdup = beggs_brill_holdup(m, ph, diameter, angle) if ph.sigma is not None else 1.0 - _void(
+        m, ph, diameter, p, angle)[0]
+    return replace(record, flow_regime=flow_regime(m, ph, diameter, roughness, angle), liquid_holdup=holdup,
+                   superficial_liquid_velocity=m * (1 - ph.x) / (ph.rhol * area),
+                   superficial_gas_velocity=m * ph.x / (ph.rhog * area), mixture_velocity=m / (ph.rho_m * area),
+                   mixture_density=ph.rho_m, outlet_vapour_fraction=ph.x)

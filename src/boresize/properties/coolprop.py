@@ -161,6 +161,8 @@ class CoolPropBackend:
         specific enthalpy (CoolProp's HmassP flash), so the quality rises as the pressure falls (an adiabatic
         line: friction work stays in the fluid, kinetic and potential energy changes neglected); None for a
         state not two-phase by quality."""
+        if inlet.phase == "liquid" and inlet.pressure is not None and inlet.temperature is not None:
+            return self._liquid_enthalpy(line, inlet)  # a letdown line: the liquid flashes downstream
         if inlet.phase != "two-phase" or inlet.vapour_fraction is None or inlet.pressure is None:
             return None
         name = self.resolve(line.fluid)
@@ -171,6 +173,19 @@ class CoolPropBackend:
             except ValueError as exc:
                 raise PropertyError(f"coolprop: CoolProp failed for {name} at {inlet.pressure / 1e5:.6g} bar abs, "
                                     f"quality {inlet.vapour_fraction:g}: {exc}") from exc
+            return _Isenthalpic(self, name, float(state.hmass()))
+
+    def _liquid_enthalpy(self, line: Line, inlet: FluidState) -> _Isenthalpic:
+        """The isenthalpic flash from a liquid inlet (CoolProp's PT flash gives its enthalpy)."""
+        assert inlet.pressure is not None and inlet.temperature is not None
+        name = self.resolve(line.fluid)
+        with self._lock:
+            state = self._abstract_state(name)
+            try:
+                state.update(_cp().PT_INPUTS, inlet.pressure, inlet.temperature)
+            except ValueError as exc:
+                raise PropertyError(f"coolprop: CoolProp failed for {name} at {inlet.pressure / 1e5:.6g} bar abs, "
+                                    f"{inlet.temperature:.6g} K: {exc}") from exc
             return _Isenthalpic(self, name, float(state.hmass()))
 
     def saturation_temperature(self, fluid: str, pressure: float) -> tuple[str, float]:

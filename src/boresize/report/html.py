@@ -169,7 +169,7 @@ def _totals(case: LineResult) -> list[tuple[str, str, str]]:
             ("fittings (sum K " + _num(h.fittings_k, 5) + ")", _kpa(h.fittings_drop), "kPa"),
             ("static head (rise +)", _kpa(h.static_drop), "kPa"),
             ("fixed allowances", _kpa(h.fixed_drop), "kPa"),
-            ("acceleration (gas)", _kpa(h.acceleration_drop), "kPa"),
+            ("acceleration" if h.two_phase is not None else "acceleration (gas)", _kpa(h.acceleration_drop), "kPa"),
             ("total drop", _kpa(h.total_drop), "kPa"),
             ("outlet pressure", _num(None if h.outlet_pressure is None else h.outlet_pressure / 1e5, 6), "bar abs"),
             ("choked", ("yes" + (f", at {_num(h.choke_length)} m from the inlet" if h.choke_length is not None

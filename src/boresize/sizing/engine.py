@@ -187,14 +187,15 @@ class Sizer:
     def _rate(self, p: _Prepared, candidate: Candidate) -> CandidateResult:
         """Rate one candidate: a gas line whose drop exceeds the simple method's limit is marched, whatever its
         verdicts, so that every number it reports comes from the method its verdicts used."""
-        hyd = self._hydraulics(p.line, p.state, candidate, p.mass_flow, p.service.two_phase_method)
+        letdown = _letdown(p.service, p.state)
+        hyd = self._hydraulics(p.line, p.state, candidate, p.mass_flow, p.service.two_phase_method, letdown)
         return CandidateResult(candidate, hyd, self._verdicts(p, candidate, hyd))
 
     def _hydraulics(self, line: Line, state: FluidState, candidate: Candidate, mass_flow: float,
-                    two_phase_method: str | None = None) -> Hydraulics:
+                    two_phase_method: str | None = None, letdown: bool = False) -> Hydraulics:
         try:
-            hyd = rate_line(line, state, candidate, mass_flow, properties=self._along(line, state),
-                            two_phase_method=two_phase_method)
+            hyd = rate_line(line, state, candidate, mass_flow, properties=self._along(line, state, letdown),
+                            two_phase_method=two_phase_method, letdown=letdown)
         except (OverflowError, ZeroDivisionError) as exc:
             raise _beyond_range(mass_flow, f"in NPS {candidate.nps}") from exc
         isfinite = math.isfinite  # an inf drop would fail every size, a NaN pass it
@@ -203,10 +204,11 @@ class Sizer:
             raise _beyond_range(mass_flow, f"in NPS {candidate.nps}")
         return hyd
 
-    def _along(self, line: Line, state: FluidState) -> Callable[[float, float], FluidState]:
-        """The properties along the line, (p [Pa abs], T [K]) -> FluidState: a pure fluid's two-phase state
-        re-flashed at the inlet's enthalpy where its backend offers that (``isenthalpic``), else at (p, T)."""
-        if state.phase == "two-phase" and state.source == "coolprop":
+    def _along(self, line: Line, state: FluidState, letdown: bool = False) -> Callable[[float, float], FluidState]:
+        """The properties along the line, (p [Pa abs], T [K]) -> FluidState: a pure fluid's two-phase state (or a
+        letdown line's liquid) re-flashed at the inlet's enthalpy where its backend offers that (``isenthalpic``),
+        else at (p, T)."""
+        if (state.phase == "two-phase" or letdown) and state.source == "coolprop":
             isenthalpic = getattr(choose_backend(self.host, line), "isenthalpic", None)
             flash = isenthalpic(line, state) if isenthalpic is not None else None
             if flash is not None:
@@ -215,9 +217,12 @@ class Sizer:
 
     def _verdicts(self, p: _Prepared, candidate: Candidate, hyd: Hydraulics) -> tuple[Verdict, ...]:
         judge, line, state, name = self._judge, p.line, p.state, p.service.name
+        judges = p.judges  # a letdown line that flashed is judged as the two-phase line it becomes
+        if hyd.two_phase is not None and state.phase != "two-phase":
+            judges = _applicable(p.service, "two-phase")
         with redirect_stdout(sys.stderr):  # a plugin's print() must not corrupt --json on stdout
             return tuple(judge(criterion, CriterionContext(line, state, candidate, hyd, options, name))
-                         for criterion, options in p.judges)
+                         for criterion, options in judges)
 
     def criterion_seconds(self) -> dict[str, float]:
         """Seconds this thread spent in each criterion's evaluate since the sizer was built (criterion id ->
@@ -328,6 +333,11 @@ def _applicable(service: Service, phase: str) -> Judges:
     copy (a plugin that wrote to its options would change every later line judged with them)."""
     group = phase_group(phase)
     return tuple((c, MappingProxyType(dict(o))) for c, o in service.criteria if phase in c.phases or group in c.phases)
+
+
+def _letdown(service: Service, state: FluidState) -> bool:
+    """A liquid line whose service also accepts two-phase lines: rated two-phase past its flash point."""
+    return state.phase == "liquid" and "two-phase" in service.accepts
 
 
 def _first_guess(p: _Prepared) -> float | None:
