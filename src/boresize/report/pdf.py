@@ -282,7 +282,7 @@ def build_pdf(results: Sequence[LineResult], *, trace: Mapping[str, Any], title:
         verdicts = [((c["name"] or "-",) if several else ()) + (v["criterion"], v["status"], v["value"], v["limit"],
                     v["unit"], v["utilisation"], v["reason"]) for c in cases for v in c["verdicts"]]
         table((("Case",) if several else ()) + ("Criterion", "Status", "Value", "Limit", "Unit", "Util.", "Reason"),
-              verdicts, ((16,) if several else ()) + (28, 15, 13, 13, 14, 10, 93 - (16 if several else 0)),
+              verdicts, ((16,) if several else ()) + (28, 19, 13, 13, 14, 10, 89 - (16 if several else 0)),
               status_column=2 if several else 1, size=6.5)
 
     # traceability, on the last sheet
