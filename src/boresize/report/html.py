@@ -226,6 +226,15 @@ def _equations(case: LineResult) -> list[tuple[str, str, str, str]]:
     if marched:
         rows.append(("pipe friction (marched)", "Δp_f = Σ f (ΔL/D) ρ v²/2 over the segments",
                      "properties re-evaluated along the line: not one step by hand", f"{_kpa(h.drop)} kPa"))
+        check = _isothermal_outlet(h.mass_flow, d, rho, line.pressure, f, length, h.fittings_k)
+        if check is not None and not h.choked:
+            g_flux = h.mass_flow / (math.pi * d * d / 4)
+            rows.append(("outlet pressure (hand check: isothermal ideal gas, inlet f)",
+                         "p₁² − p₂² = G² (p₁/ρ₁) [f (L + ΣK D/f)/D + 2 ln(p₁/p₂)]; G = m / (π D² / 4); "
+                         "then less Δp_s and Δp_fixed",
+                         f"G = {_q(g_flux)} kg/(m² s), p₁ = {_q(line.pressure)} Pa, ρ₁ = {_q(rho)}, f = {_q(f)}, "
+                         f"L = {_q(length)}, ΣK = {_q(h.fittings_k)}, D = {_q(d)}; solved for p₂ by iteration",
+                         f"{_kpa(check - h.static_drop - h.fixed_drop)} kPa abs"))
     else:
         rows.append(("pipe friction (Darcy-Weisbach)", "Δp_f = f (L/D) ρ v² / 2",
                      f"{_q(f)} × ({_q(length)} / {_q(d)}) × {_q(q)}",
@@ -245,6 +254,27 @@ def _equations(case: LineResult) -> list[tuple[str, str, str, str]]:
         rows.append(("outlet pressure", "p_out = p_in − Δp",
                      f"{_kpa(line.pressure)} − {_kpa(h.total_drop)}", f"{_kpa(h.outlet_pressure)} kPa abs"))
     return rows
+
+
+def _isothermal_outlet(mass_flow: float, diameter: float, density: float, inlet: float, friction: float,
+                       length: float, k_sum: float) -> float | None:
+    """The outlet pressure of isothermal ideal-gas flow with one friction factor [Pa abs] (Crane TP-410's
+    isothermal equation with the acceleration term), fittings as equivalent length K D/f: the hand check of a
+    marched gas line. None when no outlet pressure satisfies it (choked) or the iteration does not settle."""
+    if min(mass_flow, diameter, density, inlet, friction) <= 0:
+        return None
+    g_flux = mass_flow / (math.pi * diameter * diameter / 4)
+    resistance = friction * (length + k_sum * diameter / friction) / diameter
+    outlet = inlet
+    for _ in range(200):
+        square = inlet * inlet - g_flux * g_flux * inlet / density * (resistance + 2 * math.log(inlet / outlet))
+        if square <= 0:
+            return None
+        new = math.sqrt(square)
+        if abs(new - outlet) < 1e-9 * inlet:
+            return new
+        outlet = new
+    return None
 
 
 def _window(candidates: Sequence[CandidateResult], chosen: str | None) -> list[dict[str, Any]]:
