@@ -150,6 +150,8 @@ def test_a_checker_redoes_a_marched_gas_line_by_the_isothermal_equation(tmp_path
                                                                 + 2 * math.log(p1 / p2)))
     marched = _numbers(parsed.row("Hydraulics at the selected size", "outlet pressure")[1])[0] * 1e5
     assert p2 == pytest.approx(_numbers(check[3])[0] * 1e3, rel=ROUNDED)
+    given = parsed.table("Input (as given)")
+    assert all(len(row) == 2 for row in given)  # no header of GAS names a unit: no empty unit column
     # the march (real gas, f along the line, 16 segments) and the one-step equation agree within a few tenths of
     # a per cent of the outlet pressure for this near-ideal gas
     assert p2 == pytest.approx(marched, rel=5e-3)
