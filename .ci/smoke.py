@@ -1,6 +1,6 @@
 """Smoke subset for the lowest-versions install (.ci/lowest-versions): a pure fluid, three mixtures (aqueous,
-GERG-2008, thermo's cubic EOS), the HTML report and the workbook, through the installed `boresize` command.
-Plain asserts: needs no test extra."""
+GERG-2008, thermo's cubic EOS), the HTML report, the PDF sheet and the workbook, through the installed `boresize`
+command. Plain asserts: needs no test extra."""
 
 from __future__ import annotations
 
@@ -25,7 +25,7 @@ def main() -> int:
         folder = Path(tmp)
         lines = folder / "lines.csv"
         lines.write_text(LINES, encoding="utf-8")
-        outputs = [folder / "r.json", folder / "r.html", folder / "r.xlsx"]
+        outputs = [folder / "r.json", folder / "r.html", folder / "r.xlsx", folder / "r.pdf"]
         command = [sys.executable, "-m", "boresize", "size", str(lines)]
         for output in outputs:
             command += ["--output", str(output)]
@@ -48,7 +48,9 @@ def main() -> int:
         book = load_workbook(outputs[2])
         cells = {str(cell.value) for sheet in book.worksheets for row in sheet.iter_rows() for cell in row}
         assert "S-MEG" in cells, "the workbook lacks the lines"
-    print("smoke: pure fluid, mixtures, HTML report and workbook: ok")
+        sheet = outputs[3].read_bytes()  # fpdf2's floor (the report extra): a summary sheet, then one a line at least
+        assert sheet.startswith(b"%PDF-") and sheet.count(b"/Type /Page\n") >= 1 + len(results), "the PDF sheet"
+    print("smoke: pure fluid, mixtures, HTML report, PDF sheet and workbook: ok")
     return 0
 
 

@@ -46,6 +46,20 @@ def _sig(value: float | None, digits: int = 4) -> str:
     return f"{round(value, places):.{max(places, 0)}f}"
 
 
+#: Significant figures of every computed quantity on the record (velocity, pressures, drops, density, viscosity,
+#: flow, Re, f, K...): the same number of figures wherever a quantity appears (summary, inputs as used, totals,
+#: equations, candidates, verdicts), so that "2.213 bar abs" never stands next to "5.51325 bar abs".
+FIGURES = 4
+
+
+def _q(value: float | None) -> str:
+    """A computed quantity to :data:`FIGURES` significant figures: fixed notation from 0.001 to below 10 million
+    (trailing zeros kept: 4.000), else scientific (2.921e-04)."""
+    if value is None or not math.isfinite(value) or value == 0 or 1e-3 <= abs(value) < 1e7:
+        return _sig(value, FIGURES)
+    return f"{value:.{FIGURES - 1}e}"
+
+
 def _pct(value: float | None) -> str:
     return "-" if value is None else f"{value:.0%}"
 
@@ -70,28 +84,28 @@ def _used(case: LineResult) -> list[tuple[str, str, str]]:
     if line is None:
         return []
     rows = [("fluid", line.fluid + (f" ({state.fluid_name})" if state and state.fluid_name else ""), ""),
-            ("flow", _num(line.flow.value * 3600, 6), _FLOW_UNITS[line.flow.basis] + (
+            ("flow", _q(line.flow.value * 3600), _FLOW_UNITS[line.flow.basis] + (
                 f" at {line.flow.reference_name}" if line.flow.reference_name else "")),
             ("design margin", _margin(case), ""),
-            ("sizing mass flow", _num(case.sizing_flow * 3600 if case.sizing_flow else None, 6), "kg/h"),
-            ("inlet pressure", _num(line.pressure / 1e5, 5), "bar abs"),
+            ("sizing mass flow", _q(case.sizing_flow * 3600 if case.sizing_flow else None), "kg/h"),
+            ("inlet pressure", _q(line.pressure / 1e5), "bar abs"),
             ("temperature", f"{line.temperature - 273.15:.1f}", "degC"), ("length", _num(line.length, 6), "m"),
             ("elevation (rise +)", _num(line.elevation, 6), "m")]
     if sel is not None:
         rough = line.roughness if line.roughness is not None else sel.candidate.roughness
         rows += [("pipe class", sel.candidate.pipe_class, ""), ("roughness", _num(rough * 1e3), "mm")]
     if state is not None:
-        rows += [("density", _num(state.density, 5), "kg/m3"), ("viscosity", _num(state.viscosity * 1e3, 4), "mPa s"),
+        rows += [("density", _q(state.density), "kg/m3"), ("viscosity", _q(state.viscosity * 1e3), "mPa s"),
                  ("phase", state.phase, ""), ("property source", f"{state.source}: {state.model}", "")]
         if state.family:
             rows.append(("fluid family", state.family, ""))
         if state.validity:
             rows.append(("model validity", state.validity, ""))
         if state.vapour_pressure:
-            rows.append(("vapour pressure", _num(state.vapour_pressure / 1e5, 5), "bar abs"))
+            rows.append(("vapour pressure", _q(state.vapour_pressure / 1e5), "bar abs"))
     rows += [("service", case.service or "-", ""), ("criteria set", case.criteria_set or "-", "")]
     if case.first_guess_diameter:
-        rows.append(("Swamee-Jain first guess (not used for verdicts)", _num(case.first_guess_diameter * 1e3), "mm ID"))
+        rows.append(("Swamee-Jain first guess (not used for verdicts)", _q(case.first_guess_diameter * 1e3), "mm ID"))
     return rows
 
 
@@ -110,30 +124,30 @@ def _two_phase(case: LineResult) -> list[tuple[str, str, str]]:
         return None if value is None else value * factor
 
     rows = [("pressure-drop correlation", flow.method, "fluids"), ("flow regime", flow.flow_regime, flow.regime_map),
-            ("vapour mass fraction (inlet)", _num(flow.vapour_fraction), "-"),
-            ("liquid holdup", _num(flow.liquid_holdup), "-"),
-            ("superficial liquid velocity", _num(flow.superficial_liquid_velocity), "m/s"),
-            ("superficial gas velocity", _num(flow.superficial_gas_velocity), "m/s"),
-            ("mixture velocity", _num(flow.mixture_velocity), "m/s"),
-            ("mixture density (no-slip, erosional limit)", _num(flow.mixture_density, 5), "kg/m3"),
-            ("liquid density", _num(prop("liquid_density"), 5), "kg/m3"),
-            ("gas density", _num(prop("gas_density"), 5), "kg/m3"),
-            ("liquid viscosity", _num(scaled(prop("liquid_viscosity"), 1e3)), "mPa s"),
-            ("gas viscosity", _num(scaled(prop("gas_viscosity"), 1e3)), "mPa s"),
-            ("surface tension", _num(scaled(prop("surface_tension"), 1e3)), "mN/m")]
+            ("vapour mass fraction (inlet)", _q(flow.vapour_fraction), "-"),
+            ("liquid holdup", _q(flow.liquid_holdup), "-"),
+            ("superficial liquid velocity", _q(flow.superficial_liquid_velocity), "m/s"),
+            ("superficial gas velocity", _q(flow.superficial_gas_velocity), "m/s"),
+            ("mixture velocity", _q(flow.mixture_velocity), "m/s"),
+            ("mixture density (no-slip, erosional limit)", _q(flow.mixture_density), "kg/m3"),
+            ("liquid density", _q(prop("liquid_density")), "kg/m3"),
+            ("gas density", _q(prop("gas_density")), "kg/m3"),
+            ("liquid viscosity", _q(scaled(prop("liquid_viscosity"), 1e3)), "mPa s"),
+            ("gas viscosity", _q(scaled(prop("gas_viscosity"), 1e3)), "mPa s"),
+            ("surface tension", _q(scaled(prop("surface_tension"), 1e3)), "mN/m")]
     if flow.fittings_method:
         rows.append(("fittings (two-phase multiplier)", flow.fittings_method, ""))
     if flow.segments > 1:
         rows.append(("segments marched", str(flow.segments), ""))
     if flow.outlet_vapour_fraction is not None:
-        rows.append(("vapour mass fraction (outlet)", _num(flow.outlet_vapour_fraction), "-"))
+        rows.append(("vapour mass fraction (outlet)", _q(flow.outlet_vapour_fraction), "-"))
     if flow.flash_point is not None:
-        rows.append(("flashes (bubble pressure reached) at", _num(flow.flash_point), "m from the inlet"))
+        rows.append(("flashes (bubble pressure reached) at", _q(flow.flash_point), "m from the inlet"))
     return rows
 
 
 def _kpa(value: float | None) -> str:
-    return _num(None if value is None else value / 1e3, 6)
+    return _q(None if value is None else value / 1e3)
 
 
 def _fittings(case: LineResult) -> list[dict[str, str]]:
@@ -149,8 +163,8 @@ def _fittings(case: LineResult) -> list[dict[str, str]]:
                              inside_diameter=cand.inside_diameter, nps=cand.nps_value)
     except (ValueError, ArithmeticError):  # the line was rated with them: only a changed table could refuse them
         return []
-    return [{"kind": item.spec, "count": _num(item.count), "k": _num(item.k, 5),
-             "leq": _num(item.equivalent_length, 5), "source": item.source} for item in loss.items]
+    return [{"kind": item.spec, "count": _num(item.count), "k": _q(item.k),
+             "leq": _q(item.equivalent_length), "source": item.source} for item in loss.items]
 
 
 def _segments(h: Hydraulics) -> str:
@@ -166,12 +180,12 @@ def _totals(case: LineResult) -> list[tuple[str, str, str]]:
     h = sel.hydraulics
     rows = [("drop method", h.method, ""), ("segments", _segments(h), ""),
             ("pipe friction", _kpa(h.drop), "kPa"),
-            ("fittings (sum K " + _num(h.fittings_k, 5) + ")", _kpa(h.fittings_drop), "kPa"),
+            ("fittings (sum K " + _q(h.fittings_k) + ")", _kpa(h.fittings_drop), "kPa"),
             ("static head (rise +)", _kpa(h.static_drop), "kPa"),
             ("fixed allowances", _kpa(h.fixed_drop), "kPa"),
             ("acceleration" if h.two_phase is not None else "acceleration (gas)", _kpa(h.acceleration_drop), "kPa"),
             ("total drop", _kpa(h.total_drop), "kPa"),
-            ("outlet pressure", _num(None if h.outlet_pressure is None else h.outlet_pressure / 1e5, 6), "bar abs"),
+            ("outlet pressure", _q(None if h.outlet_pressure is None else h.outlet_pressure / 1e5), "bar abs"),
             ("choked", ("yes" + (f", at {_num(h.choke_length)} m from the inlet" if h.choke_length is not None
                                  else "")) if h.choked else "no", "")]
     if h.fittings_method:
@@ -194,33 +208,42 @@ def _equations(case: LineResult) -> list[tuple[str, str, str, str]]:
     v, f, re_, length = h.velocity, h.friction_factor, h.reynolds, line.length
     q = 0.5 * rho * v * v
     rows = [("velocity", "v = m / (ρ π D² / 4)",
-             f"{_num(h.mass_flow, 6)} / ({_num(rho, 6)} × π × {_num(d, 6)}² / 4)",
-             f"{_num(v, 6)} m/s"),
+             f"{_q(h.mass_flow)} / ({_q(rho)} × π × {_q(d)}² / 4)",
+             f"{_q(v)} m/s"),
             ("Reynolds number", "Re = ρ v D / μ",
-             f"{_num(rho, 6)} × {_num(v, 6)} × {_num(d, 6)} / {_num(mu, 6)}", _num(re_, 6)),
-            ("relative roughness", "ε / D", f"{_num(rough, 6)} / {_num(d, 6)}", _num(rough / d, 6))]
+             f"{_q(rho)} × {_q(v)} × {_q(d)} / {_q(mu)}", _q(re_)),
+            ("relative roughness", "ε / D", f"{_q(rough)} / {_q(d)}", _q(rough / d))]
     if h.regime == "laminar":
-        rows.append(("friction factor (laminar)", "f = 64 / Re", f"64 / {_num(re_, 6)}", _num(f, 6)))
+        rows.append(("friction factor (laminar)", "f = 64 / Re", f"64 / {_q(re_)}", _q(f)))
     else:
         rows.append(("friction factor (Colebrook-White)",
                      "1/√f = −2 log₁₀(ε/(3.7 D) + 2.51/(Re √f))",
-                     f"1/√f = −2 log₁₀({_num(rough / d, 6)}/3.7 + 2.51/({_num(re_, 6)} √f))",
-                     _num(f, 6)))
-    rows.append(("velocity head", "q = ρ v² / 2", f"{_num(rho, 6)} × {_num(v, 6)}² / 2",
-                 f"{_num(q, 6)} Pa"))
+                     f"1/√f = −2 log₁₀({_q(rough / d)}/3.7 + 2.51/({_q(re_)} √f))",
+                     _q(f)))
+    rows.append(("velocity head", "q = ρ v² / 2", f"{_q(rho)} × {_q(v)}² / 2",
+                 f"{_q(q)} Pa"))
     marched = h.acceleration_drop != 0.0 or "segments" in h.method
     if marched:
         rows.append(("pipe friction (marched)", "Δp_f = Σ f (ΔL/D) ρ v²/2 over the segments",
                      "properties re-evaluated along the line: not one step by hand", f"{_kpa(h.drop)} kPa"))
+        check = _isothermal_outlet(h.mass_flow, d, rho, line.pressure, f, length, h.fittings_k)
+        if check is not None and not h.choked:
+            g_flux = h.mass_flow / (math.pi * d * d / 4)
+            rows.append(("outlet pressure (hand check: isothermal ideal gas, inlet f)",
+                         "p₁² − p₂² = G² (p₁/ρ₁) [f (L + ΣK D/f)/D + 2 ln(p₁/p₂)]; G = m / (π D² / 4); "
+                         "then less Δp_s and Δp_fixed",
+                         f"G = {_q(g_flux)} kg/(m² s), p₁ = {_q(line.pressure)} Pa, ρ₁ = {_q(rho)}, f = {_q(f)}, "
+                         f"L = {_q(length)}, ΣK = {_q(h.fittings_k)}, D = {_q(d)}; solved for p₂ by iteration",
+                         f"{_kpa(check - h.static_drop - h.fixed_drop)} kPa abs"))
     else:
         rows.append(("pipe friction (Darcy-Weisbach)", "Δp_f = f (L/D) ρ v² / 2",
-                     f"{_num(f, 6)} × ({_num(length, 6)} / {_num(d, 6)}) × {_num(q, 6)}",
+                     f"{_q(f)} × ({_q(length)} / {_q(d)}) × {_q(q)}",
                      f"{_kpa(h.drop)} kPa"))
         rows.append(("fittings", "Δp_k = (Σ K + f L_eq/D) ρ v² / 2",
-                     f"{_num(h.fittings_drop / q if q else 0.0, 6)} × {_num(q, 6)}",
+                     f"{_q(h.fittings_drop / q if q else 0.0)} × {_q(q)}",
                      f"{_kpa(h.fittings_drop)} kPa"))
         rows.append(("static head", "Δp_s = ρ g Δz",
-                     f"{_num(rho, 6)} × 9.80665 × {_num(line.elevation, 6)}", f"{_kpa(h.static_drop)} kPa"))
+                     f"{_q(rho)} × 9.80665 × {_q(line.elevation)}", f"{_kpa(h.static_drop)} kPa"))
     parts = [_kpa(h.drop), _kpa(h.fittings_drop), _kpa(h.static_drop), _kpa(h.fixed_drop)]
     total_eq = "Δp = Δp_f + Δp_k + Δp_s + Δp_fixed"
     if marched:
@@ -233,6 +256,27 @@ def _equations(case: LineResult) -> list[tuple[str, str, str, str]]:
     return rows
 
 
+def _isothermal_outlet(mass_flow: float, diameter: float, density: float, inlet: float, friction: float,
+                       length: float, k_sum: float) -> float | None:
+    """The outlet pressure of isothermal ideal-gas flow with one friction factor [Pa abs] (Crane TP-410's
+    isothermal equation with the acceleration term), fittings as equivalent length K D/f: the hand check of a
+    marched gas line. None when no outlet pressure satisfies it (choked) or the iteration does not settle."""
+    if min(mass_flow, diameter, density, inlet, friction) <= 0:
+        return None
+    g_flux = mass_flow / (math.pi * diameter * diameter / 4)
+    resistance = friction * (length + k_sum * diameter / friction) / diameter
+    outlet = inlet
+    for _ in range(200):
+        square = inlet * inlet - g_flux * g_flux * inlet / density * (resistance + 2 * math.log(inlet / outlet))
+        if square <= 0:
+            return None
+        new = math.sqrt(square)
+        if abs(new - outlet) < 1e-9 * inlet:
+            return new
+        outlet = new
+    return None
+
+
 def _window(candidates: Sequence[CandidateResult], chosen: str | None) -> list[dict[str, Any]]:
     """One size below the selected one to two above (all rated sizes when none is selected)."""
     labels = [c.candidate.nps for c in candidates]
@@ -242,9 +286,9 @@ def _window(candidates: Sequence[CandidateResult], chosen: str | None) -> list[d
     for c in shown:
         h, worst = c.hydraulics, c.worst
         rows.append({"nps": c.candidate.nps, "schedule": c.candidate.schedule,
-                     "id": _num(c.candidate.inside_diameter * 1e3), "velocity": _num(h.velocity),
-                     "drop": _num(h.drop_per_length / 10.0), "reynolds": _num(h.reynolds),
-                     "friction": _num(h.friction_factor), "regime": h.regime,
+                     "id": _q(c.candidate.inside_diameter * 1e3), "velocity": _q(h.velocity),
+                     "drop": _q(h.drop_per_length / 10.0), "reynolds": _q(h.reynolds),
+                     "friction": _q(h.friction_factor), "regime": h.regime,
                      "worst": worst.criterion if worst else "-",
                      "utilisation": _pct(worst.utilisation if worst else None),
                      "result": "pass" if c.passed else "fail", "selected": c.candidate.nps == chosen})
@@ -252,7 +296,7 @@ def _window(candidates: Sequence[CandidateResult], chosen: str | None) -> list[d
 
 
 def _verdicts(case: LineResult) -> list[dict[str, str]]:
-    return [{"criterion": v.criterion, "status": v.status, "value": _num(v.value), "limit": _num(v.limit),
+    return [{"criterion": v.criterion, "status": v.status, "value": _q(v.value), "limit": _q(v.limit),
              "unit": v.unit, "utilisation": _pct(v.utilisation), "reason": v.reason, "source": v.source}
             for v in (case.selected.verdicts if case.selected else ())]
 

@@ -104,8 +104,8 @@ controlling criterion: {{ line.controlling }}{% if line.case %}; governing case:
 {% if case.error %}<p class="error">{{ case.error }}</p>{% endif %}
 <div class="pair">
 {% if case.given %}
-<table><tr><th>Input (as given{% if case.differs_from is not none %}; what differs from case {{ case.differs_from }}{% endif %})</th><th>Value</th><th>Default unit of the column</th></tr>
-{% for name, value, unit in case.given %}<tr><td>{{ name }}</td><td>{{ value }}</td><td>{{ unit }}</td></tr>{% endfor %}
+<table><tr><th>Input (as given{% if case.differs_from is not none %}; what differs from case {{ case.differs_from }}{% endif %})</th><th>Value</th>{% if case.given | map(attribute=2) | select | list %}<th>Default unit of the column</th>{% endif %}</tr>
+{% for name, value, unit in case.given %}<tr><td>{{ name }}</td><td>{{ value }}</td>{% if case.given | map(attribute=2) | select | list %}<td>{{ unit }}</td>{% endif %}</tr>{% endfor %}
 </table>
 {% endif %}
 {% if case.used %}
