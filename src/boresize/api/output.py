@@ -192,7 +192,8 @@ class StreamedOutput:
     that :meth:`commit` renames over it (:meth:`discard`: removed, the target left as it was). The bytes are those
     :data:`WRITERS` write for the whole run (tests/test_output_identity.py). A write that fails (disk full) stops
     this output only: its temporary file is removed and :attr:`error` says why; the run goes on.
-    measured (benchmarks/bench_scale.py, 50,000 lines to .jsonl): peak memory see README (Performance).
+    measured: 50,000 lines (bench_scale.py's list) to .jsonl, `boresize size -o out.jsonl --workers 1`, peak
+    478 MB against 908 MB when the run kept full records until written (2 cores, load average 6; /usr/bin/time).
 
     :param headers: the line list's input headers (a CSV output needs them before its first row)
     """
