@@ -98,3 +98,32 @@ def test_the_fixed_list_covers_what_it_says(run) -> None:  # type: ignore[no-unt
     statuses = [r.status for r in run.results]
     assert len(run.results) == 24 and statuses.count("error") == 6 and statuses.count("fail") == 1
     assert any(len(r.cases) > 1 for r in run.results)
+
+
+@pytest.mark.parametrize("keep", ["full", "selected"])
+@pytest.mark.parametrize("workers", [1, 2])
+def test_outputs_streamed_as_lines_are_sized_are_byte_identical(tmp_path: Path, keep: str, workers: int) -> None:
+    """run_lines(stream=...) writes .csv and .jsonl one line at a time (what ``boresize size -o`` uses): the same
+    bytes as the golden files, nothing left beside them, on one process and on two."""
+    here = Path.cwd()
+    os.chdir(ROOT)
+    try:
+        run = run_lines(LINES, CRITERIA, plugins=False, workers=workers, keep=keep,  # type: ignore[arg-type]
+                        stream=[tmp_path / "s.csv", tmp_path / "s.jsonl"])
+    finally:
+        os.chdir(here)
+    assert run.streamed == ((tmp_path / "s.csv", None), (tmp_path / "s.jsonl", None))
+    assert (tmp_path / "s.csv").read_bytes() == (GOLDEN / "identity.csv").read_bytes()
+    assert (tmp_path / "s.jsonl").read_bytes() == (GOLDEN / "identity.jsonl").read_bytes()
+    assert sorted(p.name for p in tmp_path.iterdir()) == ["s.csv", "s.jsonl"]
+    assert len(run.results) == 24
+
+
+def test_a_stream_path_that_cannot_be_written_is_refused_before_sizing(tmp_path: Path) -> None:
+    for bad, message in ((tmp_path / "x.xlsx", "cannot be written as lines are sized"),
+                         (tmp_path / "no" / "x.csv", "does not exist"),
+                         (ROOT / LINES, "is the line list being read")):
+        with pytest.raises(InputError, match=message) as caught:
+            run_lines(ROOT / LINES, CRITERIA, plugins=False, stream=[bad])
+        assert caught.value.field == "output" and not bad.exists() or bad == ROOT / LINES
+    assert list(tmp_path.iterdir()) == []

@@ -37,6 +37,7 @@ from boresize.units import BarePressure, bare_pressure_mode
 if TYPE_CHECKING:
     import pandas as pd
 
+    from boresize.api.output import StreamedOutput
     from boresize.io.line_items import Cells
     from boresize.sizing.engine import Sizer
 
@@ -94,6 +95,8 @@ class Run:
     sizing_seconds: float = 0.0
     document_block: DocumentBlock | None = None
     keep: Keep = "full"
+    #: (path, None) for each output :func:`run_lines` wrote as lines were sized, (path, the error) for one it could not
+    streamed: tuple[tuple[Path, InputError | None], ...] = ()
 
     def _need_full(self, what: str) -> None:
         """:raises InputError: (field "keep") when this run kept only each line's selected size."""
@@ -181,7 +184,8 @@ def run_lines(lines: LineSource, criteria: str | Path | None = None, *, workers:
               corroded_roughness: str | float | None = None,
               plugins: bool = True, progress: bool | None = False, headroom: bool = False,
               units_row: bool | None = None, bare_pressure: BarePressure | None = None,
-              document: DocumentBlock | Mapping[str, Any] | str | Path | None = None, keep: Keep = "full") -> Run:
+              document: DocumentBlock | Mapping[str, Any] | str | Path | None = None, keep: Keep = "full",
+              stream: Sequence[str | Path] = ()) -> Run:
     """Size (or check) every line of a line list; see the module docstring for what ``lines`` may be.
 
     :param criteria: a criteria TOML file (the shipped sets when None)
@@ -203,7 +207,11 @@ def run_lines(lines: LineSource, criteria: str | Path | None = None, *, workers:
     :param keep: ``full`` (default) keeps every rated candidate of each line; ``selected`` only the selected size
         and its verdicts, dropping the rest as each line is sized (memory for long lists; the run then writes only
         CSV and the table, :data:`KEEP`)
-    :raises InputError: an unreadable line list, a bad option (naming it), a bad document block
+    :param stream: .csv and .jsonl files written as each line is sized (one line's rows at a time, each file renamed
+        into place at the end: :class:`~boresize.api.output.StreamedOutput`), so that a long run need not keep what
+        only they read; :attr:`Run.streamed` says which were written. Byte for byte what :meth:`Run.write` writes
+    :raises InputError: an unreadable line list, a bad option (naming it), a bad document block, a ``stream`` path
+        that cannot be written
     """
     if isinstance(workers, bool) or not isinstance(workers, int) or workers < 1:
         raise InputError(f"workers {workers!r} is not a whole number of 1 or more", field="workers", value=workers,
@@ -216,18 +224,74 @@ def run_lines(lines: LineSource, criteria: str | Path | None = None, *, workers:
     spec = spec_for(criteria, plugins, roughness, every_size=every_size)
     line_list, items, cells = _read(lines, units_row, mode)
     sizer = default_sizer(spec)
+    streams = _open_streams(stream, line_list)
     seconds: dict[str, float] = {}
+    rooms: list[Headroom] = []
+    own_cells = iter(cells) if cells is not None else None
+
+    def each(result: LineResult) -> LineResult:
+        """Each line as it is sized: its cells joined, its headroom rated, written to the streams, kept (lean)."""
+        done: LineResult = SizingResult.of(result if own_cells is None else _with_cells(result, next(own_cells)))
+        room = _headroom(sizer, done) if headroom and streams else None  # else rated after the run, as before
+        if room is not None:
+            rooms.append(room)
+        for output in streams:
+            output.add(done, room)
+        return SizingResult.of(_lean(done)) if keep == "selected" else done
+
     start = time.perf_counter()
-    results = run_items(items, spec, sizer=sizer, executor=executor, workers=workers, progress=progress,
-                        retry_hint="one process (workers=1, or --workers 1 on the command line)",
-                        criterion_seconds=seconds, each=_lean if keep == "selected" else None)
+    try:
+        results = run_items(items, spec, sizer=sizer, executor=executor, workers=workers, progress=progress,
+                            retry_hint="one process (workers=1, or --workers 1 on the command line)",
+                            criterion_seconds=seconds, each=each)
+    except BaseException:
+        for output in streams:
+            output.discard()
+        raise
     wall = (time.perf_counter() - start) * (workers if executor is None else 1)
     times = tuple(CriterionTime(ident, _owner(sizer, ident), spent) for ident, spent in seconds.items())
-    if cells is not None:
-        results = [_with_cells(result, own) for result, own in zip(results, cells)]
-    rooms = tuple(_headroom(sizer, r) for r in results) if headroom else None
     trace = _trace(sizer, spec, line_list, str(criteria) if criteria else sizer.config.origin)
-    return Run(tuple(SizingResult.of(r) for r in results), line_list, trace, rooms, times, wall, block, keep)
+    if headroom and not streams:
+        rooms = [_headroom(sizer, r) for r in results]
+    written = tuple(_commit(output) for output in streams)
+    return Run(cast(tuple[SizingResult, ...], tuple(results)), line_list, trace, tuple(rooms) if headroom else None,
+               times, wall, block, keep, written)
+
+
+def _open_streams(paths: Sequence[str | Path], line_list: LineList) -> list[StreamedOutput]:
+    """A streamed output for each path (checked first, every one, before any is opened).
+
+    :raises InputError: (field "output") a path :func:`check_output` refuses, one not .csv or .jsonl, a CSV for
+        a line list without headers (Lines given: its columns are known only once every line is sized)
+    """
+    from boresize.api.output import STREAMED_SUFFIXES, StreamedOutput, check_outputs
+
+    checked = check_outputs(paths, [line_list.source])
+    for path, target in zip(paths, checked):
+        if isinstance(target, InputError):
+            raise target
+        suffix = target.suffix.lower()
+        if suffix not in STREAMED_SUFFIXES or (suffix == ".csv" and not line_list.headers):
+            raise InputError(f"{str(path)!r} cannot be written as lines are sized", field="output", value=str(path),
+                             expected=f"a file ending in {', '.join(STREAMED_SUFFIXES)} (a CSV only for a line "
+                                      "list read from a file), or Run.write after the run")
+    opened: list[StreamedOutput] = []
+    try:
+        for target in checked:
+            opened.append(StreamedOutput(cast(Path, target), line_list.headers))
+    except OSError as exc:
+        for output in opened:
+            output.discard()
+        raise InputError(f"cannot write {str(target)!r}: {exc.strerror or exc}", field="output",
+                         value=str(target), expected="a file this user may write") from exc
+    return opened
+
+
+def _commit(output: StreamedOutput) -> tuple[Path, InputError | None]:
+    try:
+        return output.commit(), None
+    except InputError as exc:
+        return output.path, exc
 
 
 def _lean(result: LineResult) -> LineResult:

@@ -5,9 +5,11 @@ from __future__ import annotations
 import argparse
 import sys
 from pathlib import Path
+from typing import cast
 
 from boresize import api
 from boresize.api import tools
+from boresize.api.output import STREAMED_SUFFIXES
 from boresize.api.run import LEAN_OUTPUTS, Keep
 from boresize.cli.fields import SINGLE_LINE_FIELDS, print_json
 from boresize.errors import InputError, UsageError, printable
@@ -71,11 +73,17 @@ def _check_outputs(paths: list[str], lines: str | api.LineList) -> list[Path] | 
 
 
 def _write_outputs(run: api.Run, outputs: list[Path], quiet: bool = False) -> bool:
-    """Write every output it can: one that fails is reported with its path and the others still written."""
+    """Write every output it can (those streamed as lines were sized are already written, or failed): one that
+    fails is reported with its path and the others still written."""
     written = True
+    streamed = dict(run.streamed)
     for path in outputs:
         try:
-            run.write(path)
+            if path in streamed:
+                if streamed[path] is not None:
+                    raise cast(InputError, streamed[path])
+            else:
+                run.write(path)
         except InputError as exc:
             print(f"boresize: error: {printable(str(exc), newlines=True)}", file=sys.stderr)
             written = False
@@ -95,10 +103,17 @@ def _note_slow_criteria(run: api.Run) -> None:
 
 
 def _keep(json: bool, outputs: list[Path]) -> Keep:
-    """``selected`` when nothing asked for reads the other rated sizes (the table, CSV files), else ``full``.
+    """``selected`` when nothing written after the run reads the other rated sizes (the table, CSV files; the
+    streamed outputs, :func:`_streamed`, are written as lines are sized), else ``full``.
     measured: 50,000 lines to CSV, peak memory see benchmarks/bench_scale.py and README (Performance)."""
-    lean = not json and all(path.suffix.lower() in LEAN_OUTPUTS for path in outputs)
+    lean = not json and all(path.suffix.lower() in LEAN_OUTPUTS for path in outputs if path not in _streamed(outputs))
     return "selected" if lean else "full"
+
+
+def _streamed(outputs: list[Path]) -> list[Path]:
+    """The outputs written as each line is sized (.csv, .jsonl): never the whole run in memory.
+    measured: 50,000 lines to .jsonl, peak memory see benchmarks/bench_scale.py and README (Performance)."""
+    return [path for path in outputs if path.suffix.lower() in STREAMED_SUFFIXES]
 
 
 def run_size(args: argparse.Namespace) -> int:
@@ -114,7 +129,7 @@ def run_size(args: argparse.Namespace) -> int:
     run = api.run_lines(lines, args.criteria, workers=_workers(args), every_size=args.every_size,
                         corroded_roughness=roughness, plugins=not args.no_plugins, progress=progress,
                         headroom=args.headroom, bare_pressure=args.bare_pressure, document=document,
-                        keep=_keep(args.json, outputs))
+                        keep=_keep(args.json, outputs), stream=_streamed(outputs))
     written = _write_outputs(run, outputs, args.quiet)
     _note_slow_criteria(run)
     if args.timings:

@@ -17,7 +17,7 @@ from boresize.io.rows import parse_header
 from boresize.model import LineResult
 
 __all__ = ["RESULT_COLUMNS", "CANDIDATE_HEADERS", "case_name", "case_rows", "input_headers", "result_rows",
-           "candidate_rows"]
+           "candidate_rows", "input_fields", "line_rows", "result_head"]
 
 #: (header, key of the case's JSON entry); the line's own status and size come first.
 RESULT_COLUMNS: tuple[tuple[str, str], ...] = (
@@ -81,12 +81,26 @@ def result_rows(results: Sequence[LineResult],
                 headers: Sequence[str] | None = None) -> tuple[list[str], list[list[Any]]]:
     """Header row and one row per input row: input cells (text as given) then result cells."""
     shown = input_headers(results, headers)
-    fields = [parse_header(h).field for h in shown]
+    fields = input_fields(shown)
     table = []
     for line in results:
-        for case in case_rows(line):
-            table.append(_input_cells(case, fields) + _result_cells(line, case))
-    return shown + [RESULT_PREFIX + name for name, _ in RESULT_COLUMNS], table
+        table += line_rows(line, fields)
+    return result_head(shown), table
+
+
+def input_fields(shown: Sequence[str]) -> list[str]:
+    """The field each input header names (``"length [m]"`` -> ``length``)."""
+    return [parse_header(h).field for h in shown]
+
+
+def result_head(shown: Sequence[str]) -> list[str]:
+    """The header row: the input headers shown, then the result columns."""
+    return list(shown) + [RESULT_PREFIX + name for name, _ in RESULT_COLUMNS]
+
+
+def line_rows(line: LineResult, fields: Sequence[str]) -> list[list[Any]]:
+    """One line's rows (one per case): its input cells for ``fields`` then its result cells."""
+    return [_input_cells(case, fields) + _result_cells(line, case) for case in case_rows(line)]
 
 
 def _candidate_row(tag: str, case: str, selected: str | None, c: Any) -> list[Any]:
