@@ -1,6 +1,6 @@
 """Smoke subset for the lowest-versions install (.ci/lowest-versions): a pure fluid, three mixtures (aqueous,
-GERG-2008, thermo's cubic EOS), the HTML report, the PDF sheet and the workbook, through the installed `boresize`
-command. Plain asserts: needs no test extra."""
+GERG-2008, thermo's cubic EOS), a two-phase line (fluids' correlations), the HTML report, the workbook and the PDF
+calculation sheet, through the installed `boresize` command. Plain asserts: needs no test extra."""
 
 from __future__ import annotations
 
@@ -11,13 +11,15 @@ import sys
 import tempfile
 from pathlib import Path
 
-LINES = """tag,fluid,flow,pressure,temperature,length [m],service,backend
-S-PURE,water,45 t/h,9 barg,30 degC,100,pump-discharge,
-S-GAS,methane,12000 Sm3/h,6 barg,25 degC,100,,
-S-MEG,"mass: water 0.7, ethylene glycol 0.3",20 t/h,3 barg,20 degC,100,,
-S-NG,"mole: methane 0.9, ethane 0.07, propane 0.03",5 t/h,40 bara,20 degC,100,,
-S-PR,"mole: methane 0.9, ethane 0.07, propane 0.03",5 t/h,40 bara,20 degC,100,,thermo
+LINES = """tag,fluid,flow,pressure,temperature,quality,length [m],service,backend
+S-PURE,water,45 t/h,9 barg,30 degC,,100,pump-discharge,
+S-GAS,methane,12000 Sm3/h,6 barg,25 degC,,100,,
+S-MEG,"mass: water 0.7, ethylene glycol 0.3",20 t/h,3 barg,20 degC,,100,,
+S-NG,"mole: methane 0.9, ethane 0.07, propane 0.03",5 t/h,40 bara,20 degC,,100,,
+S-PR,"mole: methane 0.9, ethane 0.07, propane 0.03",5 t/h,40 bara,20 degC,,100,,thermo
+S-2PH,water,5 t/h,3 bara,,0.1,100,two-phase,
 """
+TAGS = ("S-PURE", "S-GAS", "S-MEG", "S-NG", "S-PR", "S-2PH")
 
 
 def main() -> int:
@@ -36,7 +38,7 @@ def main() -> int:
         assert "Traceback" not in done.stderr, "a traceback reached the user"
         document = json.loads(outputs[0].read_text(encoding="utf-8"))
         results = {item["tag"]: item for item in document["lines"]}
-        for tag in ("S-PURE", "S-GAS", "S-MEG", "S-NG", "S-PR"):
+        for tag in TAGS:
             assert tag in results, f"{tag} missing from the JSON document"
             item = results[tag]
             assert item["status"] == "pass", f"{tag}: {item['status']} {item.get('notes')} {item.get('reason', '')}"
@@ -48,9 +50,10 @@ def main() -> int:
         book = load_workbook(outputs[2])
         cells = {str(cell.value) for sheet in book.worksheets for row in sheet.iter_rows() for cell in row}
         assert "S-MEG" in cells, "the workbook lacks the lines"
+        assert results["S-2PH"]["phase"] == "two-phase", "S-2PH is not rated as a two-phase line"
         sheet = outputs[3].read_bytes()  # fpdf2's floor (the report extra): a summary sheet, then one a line at least
         assert sheet.startswith(b"%PDF-") and sheet.count(b"/Type /Page\n") >= 1 + len(results), "the PDF sheet"
-    print("smoke: pure fluid, mixtures, HTML report, PDF sheet and workbook: ok")
+    print("smoke: pure fluid, mixtures, two-phase line, HTML report, PDF sheet and workbook: ok")
     return 0
 
 
