@@ -54,7 +54,7 @@ LOOSER: dict[tuple[str, str], int] = {
 }
 #: Options that are not a limit (a flag, a display band, or an exponent whose sense depends on the density).
 NOT_A_LIMIT = {("flashing", "warn_only"), ("npsh-margin", "at_bubble_point"), ("gravity-drain", "clearing_froude"),
-               ("noise-velocity", "b")}
+               ("noise-velocity", "b"), ("flow-regime", "fail")}  # a list of regime names, not a limit
 
 
 # ---------------------------------------------------------------------------------------------
@@ -143,11 +143,23 @@ def gas_lines(draw: st.DrawFn, service: str) -> Line:
                 fittings_method=draw(METHODS), elevation=draw(st.floats(-20.0, 20.0)), **draw(PIPES))
 
 
+@st.composite
+def two_phase_lines(draw: st.DrawFn, service: str) -> Line:
+    """Steam-water by quality (CoolProp's saturated phases), on a line that may rise or fall."""
+    return Line(tag="T", fluid="water", flow=Flow("mass", 1.0), pressure=draw(_log_uniform(1.5e5, 40e5)),
+                temperature=373.15, quality=draw(st.floats(0.02, 0.9)), length=draw(_log_uniform(5.0, 500.0)),
+                service=service, elevation=draw(st.floats(-10.0, 10.0)), fittings=draw(FITTINGS), **draw(PIPES))
+
+
 def lines_for(service: Service) -> st.SearchStrategy[Line]:
+    if service.phase == "two-phase":
+        return two_phase_lines(service.name)
     return liquid_lines(service.name) if service.phase == "liquid" else gas_lines(service.name)
 
 
 def flow_for(service: Service) -> st.SearchStrategy[float]:
+    if service.phase == "two-phase":
+        return _log_uniform(0.05, 40.0)
     return _log_uniform(0.05, 400.0) if service.phase == "liquid" else _log_uniform(0.005, 40.0)
 
 
@@ -211,6 +223,18 @@ SERVICE_RUNS = (
     + [pytest.param(tuple(ALONE), settings(QUICK, max_examples=60), id="each-criterion-alone-quick")]
     + [pytest.param(tuple(SHIPPED + ALONE), settings(SWEEP, max_examples=2000), id="sweep", marks=pytest.mark.slow)]
 )
+# The size-monotonic invariants (more flow, a looser limit) leave out the services that judge the flow regime: the
+# Taitel-Dukler regime moves both ways with the flow and the bore (slug at one size, annular at the next), so a
+# service failing slug flow may rightly select a smaller size for more flow. The other invariants hold for them.
+_REGIME = ("two-phase", "two-phase-intermittent", "/flow-regime")
+MONOTONE_RUNS = (
+    [pytest.param((name,), settings(QUICK, max_examples=12), id=f"{name}-quick") for name in SHIPPED
+     if not name.endswith(_REGIME)]
+    + [pytest.param(tuple(n for n in ALONE if not n.endswith(_REGIME)), settings(QUICK, max_examples=60),
+                    id="each-criterion-alone-quick")]
+    + [pytest.param(tuple(n for n in SHIPPED + ALONE if not n.endswith(_REGIME)), settings(SWEEP, max_examples=2000),
+                    id="sweep", marks=pytest.mark.slow)]
+)
 
 
 @st.composite
@@ -229,7 +253,7 @@ def test_every_registered_criterion_is_exercised_and_every_option_has_a_directio
             assert key in LOOSER or key in NOT_A_LIMIT, f"say which way option {key} is looser (LOOSER)"
 
 
-@pytest.mark.parametrize(("names", "budget"), SERVICE_RUNS)
+@pytest.mark.parametrize(("names", "budget"), MONOTONE_RUNS)
 def test_more_flow_never_selects_a_smaller_size(lab: Sizer, names: tuple[str, ...], budget: settings) -> None:
     @budget
     @given(case=service_lines(lab, names), factor=st.floats(1.0, 5.0))
@@ -262,7 +286,7 @@ def _loosened(service: Service, factor: float) -> Service:
     return replace(service, name=service.name + " (looser)", criteria=tuple(pairs))
 
 
-@pytest.mark.parametrize(("names", "budget"), SERVICE_RUNS)
+@pytest.mark.parametrize(("names", "budget"), MONOTONE_RUNS)
 def test_a_looser_limit_never_selects_a_larger_size(lab: Sizer, names: tuple[str, ...], budget: settings) -> None:
     @budget
     @given(case=service_lines(lab, names), factor=st.floats(1.0, 3.0))
@@ -395,7 +419,8 @@ def test_no_passing_line_cannot_flow_or_flashes(lab: Sizer, names: tuple[str, ..
         p_vap = sized.state.vapour_pressure if sized.state is not None else None
         if "/" not in service.name and service.phase == "liquid":
             assert p_vap is not None  # a shipped liquid service judges flashing: unknown P_vap is no pass
-            assert min(line.pressure, hyd.outlet_pressure) >= p_vap
+            if hyd.two_phase is None:  # a letdown line may pass as the two-phase line it becomes past its flash point
+                assert min(line.pressure, hyd.outlet_pressure) >= p_vap
         for rated in sized.candidates:  # every size judged, the rejected ones too
             _judged_on_its_own_method(sized, line, rated.hydraulics, rated.verdicts)
 

@@ -165,7 +165,7 @@ def test_trace_hooks_prints_each_hook_call_with_its_plugin_and_what_it_registere
     assert run.stderr.splitlines() == [
         "boresize: trace: boresize_register_criteria(register) of plugin 'boresize.criteria.builtin' registered "
         "criterion erosional, drop-per-length, velocity, npsh-margin, gravity-drain, flashing, momentum, "
-        "noise-velocity, mach, outlet-pressure, property-crosscheck, line-feasibility",
+        "noise-velocity, mach, outlet-pressure, property-crosscheck, flow-regime, line-feasibility",
         "boresize: trace: boresize_register_property_backends(register) of plugin 'boresize.properties.builtin' "
         "registered property backend table, coolprop, aqueous, aqueous-mixing, coolprop-mixture, gerg-2008, thermo",
         "boresize: trace: boresize_register_pipe_classes(register) of plugin 'boresize.pipes.builtin' registered "

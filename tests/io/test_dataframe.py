@@ -134,7 +134,7 @@ def test_result_columns_are_the_json_keys(reordered):
     frame, table = reordered
     assert "velocity_m_s" in table.columns and not any(" " in c or "[" in c for c in table.columns[len(frame.columns):])
     assert [c for c in table.columns if c.startswith("result_")] == ["result_nps", "result_schedule", "result_service",
-                                                                          "result_phase"]
+                                                                          "result_phase", "result_two_phase_method"]
     from boresize.api import run_lines
     from boresize.io.sheet_rows import case_rows
 

@@ -68,7 +68,9 @@ class Wrapped:
         self.source, self.options = f"company, after {inner.source}", inner.options
 
     def check_options(self, values: Mapping[str, float], where: str) -> None:
-        self.inner.check_options(values, where)
+        check = getattr(self.inner, "check_options", None)  # optional in the protocol (flow-regime has none)
+        if check is not None:
+            check(values, where)
 
     def evaluate(self, context: CriterionContext) -> Verdict:
         return replace(self.inner.evaluate(context), criterion=self.id, source=self.source)
@@ -88,6 +90,7 @@ COMPANY_TRAITS = {
     "flashing": ("larger-passes", False),
     "outlet-pressure": ("larger-passes", False),
     "property-crosscheck": ("larger-passes", False),
+    "flow-regime": (None, False),  # the regime moves both ways with the bore: no trend to declare
 }
 
 

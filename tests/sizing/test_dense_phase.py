@@ -51,7 +51,7 @@ def test_a_dense_line_in_a_service_that_does_not_accept_it_is_refused_naming_tho
     assert result.status == "error" and result.error_field == "temperature"
     assert result.error == (
         "line C-1: temperature: CarbonDioxide is dense at 40 degC and 100 bar abs (coolprop); service 'gas' needs "
-        "a gas; services that accept a dense fluid: liquid, pump-discharge; expected conditions at which the fluid "
+        "a gas line; services that accept a dense fluid: liquid, pump-discharge; expected conditions at which the fluid "
         "is gas, or a service that accepts a dense fluid")
 
 

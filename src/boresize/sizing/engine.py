@@ -188,6 +188,13 @@ class Sizer:
         """Rate one candidate: a gas line whose drop exceeds the simple method's limit is marched, whatever its
         verdicts, so that every number it reports comes from the method its verdicts used."""
         letdown = _letdown(p.service, p.state)
+        if letdown and p.state.vapour_pressure is None and p.state.bubble_pressure is None:
+            # where it flashes is unknown: unevaluated is not a pass (a liquid-only service judges it by flashing)
+            raise InputError(f"service {p.service.name!r} rates a liquid line as two-phase past its bubble pressure, "
+                             f"which the {p.state.source} backend does not give for {p.line.fluid}",
+                             field="vapour_pressure", value="",
+                             expected="the line's vapour_pressure, a backend that gives it, or a liquid-only service"
+                             ).for_line(p.line.tag)
         hyd = self._hydraulics(p.line, p.state, candidate, p.mass_flow, p.service.two_phase_method, letdown)
         return CandidateResult(candidate, hyd, self._verdicts(p, candidate, hyd))
 
