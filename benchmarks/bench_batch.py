@@ -38,12 +38,13 @@ TARGET = 1.5
 Point = tuple[str, float, float]
 
 
-def build_line_list(count: int, folder: Path) -> Path:
-    """Write a ``count``-line CSV made from the demo lines (no cases: every row is a line)."""
+def build_line_list(count: int, folder: Path, pure_only: bool = False, digits: int = 4) -> Path:
+    """Write a ``count``-line CSV made from the demo lines (no cases: every row is a line), varied
+    deterministically; ``pure_only`` keeps the demo's CoolProp lines (no table values); tags get ``digits``."""
     with open(DEMO / "lines.csv", encoding="utf-8") as handle:
         reader = csv.DictReader(handle)
         headers = [h for h in reader.fieldnames or () if h != "case"]
-        demo = list(reader)
+        demo = [row for row in reader if not (pure_only and row["density"])]
     path = folder / f"lines-{count}.csv"
     with open(path, "w", encoding="utf-8", newline="") as handle:
         writer = csv.DictWriter(handle, headers, extrasaction="ignore")
@@ -55,7 +56,7 @@ def build_line_list(count: int, folder: Path) -> Path:
             row["flow"] = f"{float(number) * scale:.5g} {unit}"
             t_number, t_unit = row["temperature"].split(" ", 1)
             row["temperature"] = f"{float(t_number) + ((i * 104729) % 100) / 10.0 - 5.0:.3f} {t_unit}"
-            row["tag"] = f"{row['tag']}-{i:04d}"
+            row["tag"] = f"{row['tag']}-{i:0{digits}d}"
             writer.writerow(row)
     return path
 

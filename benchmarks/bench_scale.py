@@ -24,7 +24,6 @@ Run: ``.venv/bin/python benchmarks/bench_scale.py [--repeats 3] [--big 50000] [-
 from __future__ import annotations
 
 import argparse
-import csv
 import json
 import os
 import subprocess
@@ -56,24 +55,10 @@ for name, p, t in points:
 
 def build_pure_list(count: int, folder: Path) -> Path:
     """A ``count``-line CSV of the demo's CoolProp lines (no table values, no cases), varied deterministically."""
-    with open(DEMO / "lines.csv", encoding="utf-8") as handle:
-        reader = csv.DictReader(handle)
-        headers = [h for h in reader.fieldnames or () if h != "case"]
-        demo = [row for row in reader if not row["density"]]
-    path = folder / f"lines-{count}.csv"
-    with open(path, "w", encoding="utf-8", newline="") as handle:
-        writer = csv.DictWriter(handle, headers, extrasaction="ignore")
-        writer.writeheader()
-        for i in range(count):
-            row = dict(demo[i % len(demo)])
-            scale = 0.6 + 0.8 * ((i * 7919) % 1000) / 1000.0
-            number, unit = row["flow"].split(" ", 1)
-            row["flow"] = f"{float(number) * scale:.5g} {unit}"
-            t_number, t_unit = row["temperature"].split(" ", 1)
-            row["temperature"] = f"{float(t_number) + ((i * 104729) % 100) / 10.0 - 5.0:.3f} {t_unit}"
-            row["tag"] = f"{row['tag']}-{i:05d}"
-            writer.writerow(row)
-    return path
+    sys.path.insert(0, str(Path(__file__).resolve().parent))
+    from bench_batch import build_line_list
+
+    return build_line_list(count, folder, pure_only=True, digits=5)
 
 
 def points_file(lines: Path) -> Path:

@@ -165,27 +165,25 @@ class CoolPropBackend:
             return self._liquid_enthalpy(line, inlet)  # a letdown line: the liquid flashes downstream
         if inlet.phase != "two-phase" or inlet.vapour_fraction is None or inlet.pressure is None:
             return None
-        name = self.resolve(line.fluid)
-        with self._lock:
-            state = self._abstract_state(name)
-            try:
-                state.update(_cp().PQ_INPUTS, inlet.pressure, inlet.vapour_fraction)
-            except ValueError as exc:
-                raise PropertyError(f"coolprop: CoolProp failed for {name} at {inlet.pressure / 1e5:.6g} bar abs, "
-                                    f"quality {inlet.vapour_fraction:g}: {exc}") from exc
-            return _Isenthalpic(self, name, float(state.hmass()))
+        return self._from_enthalpy(line, "PQ_INPUTS", inlet.pressure, inlet.vapour_fraction,
+                                   f"quality {inlet.vapour_fraction:g}")
 
     def _liquid_enthalpy(self, line: Line, inlet: FluidState) -> _Isenthalpic:
         """The isenthalpic flash from a liquid inlet (CoolProp's PT flash gives its enthalpy)."""
         assert inlet.pressure is not None and inlet.temperature is not None
+        return self._from_enthalpy(line, "PT_INPUTS", inlet.pressure, inlet.temperature, f"{inlet.temperature:.6g} K")
+
+    def _from_enthalpy(self, line: Line, inputs: str, pressure: float, other: float, shown: str) -> _Isenthalpic:
+        """The isenthalpic flash at the specific enthalpy of the inlet CoolProp's ``inputs`` update
+        (pressure [Pa abs] and quality or temperature [K]) gives; ``shown`` names the second input for errors."""
         name = self.resolve(line.fluid)
         with self._lock:
             state = self._abstract_state(name)
             try:
-                state.update(_cp().PT_INPUTS, inlet.pressure, inlet.temperature)
+                state.update(getattr(_cp(), inputs), pressure, other)
             except ValueError as exc:
-                raise PropertyError(f"coolprop: CoolProp failed for {name} at {inlet.pressure / 1e5:.6g} bar abs, "
-                                    f"{inlet.temperature:.6g} K: {exc}") from exc
+                raise PropertyError(f"coolprop: CoolProp failed for {name} at {pressure / 1e5:.6g} bar abs, "
+                                    f"{shown}: {exc}") from exc
             return _Isenthalpic(self, name, float(state.hmass()))
 
     def saturation_temperature(self, fluid: str, pressure: float) -> tuple[str, float]:
