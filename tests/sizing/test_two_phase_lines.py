@@ -138,3 +138,16 @@ def test_critical_two_phase_flow_says_why_it_cannot_flow(sizer):
     assert result.status == "fail"
     worst = result.candidates[-1].hydraulics
     assert worst.choked and "acceleration term diverges" in worst.method and worst.outlet_pressure == 0.0
+
+
+def test_the_drop_verdict_of_a_two_phase_line_names_the_correlation_not_darcy_weisbach(sizer):
+    """Every number a line reports comes from the method its verdict used: a two-phase line's drop-per-length
+    verdict cites the two-phase correlation that gave the drop."""
+    result = sizer.run(line_from_row(STEAM | {"service": "two-phase"}))
+    assert result.selected is not None
+    drop = next(v for v in result.selected.verdicts if v.criterion == "drop-per-length")
+    assert "Beggs-Brill" in drop.source and "Darcy-Weisbach" not in drop.source
+    liquid = sizer.run(line_from_row({"tag": "W", "fluid": "water", "flow": "10 t/h", "pressure": "5 bar",
+                                      "temperature": "20 degC", "service": "liquid"}))
+    assert liquid.selected is not None
+    assert "Darcy-Weisbach" in next(v for v in liquid.selected.verdicts if v.criterion == "drop-per-length").source

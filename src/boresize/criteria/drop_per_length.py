@@ -2,6 +2,8 @@
 
 from __future__ import annotations
 
+from dataclasses import replace
+
 from collections.abc import Mapping
 
 from boresize.criteria.base import Criterion, CriterionContext, OptionSpec, verdict
@@ -32,6 +34,15 @@ class DropPerLength(Criterion):
         check_range(values, where, "kPa/100 m", PA_PER_M_PER_KPA_100M)
 
     def evaluate(self, context: CriterionContext) -> Verdict:
+        judged = self._judge(context)
+        two = context.hydraulics.two_phase
+        if two is None:
+            return judged
+        # the drop of a two-phase line is the correlation's, not Darcy-Weisbach's: the source names what was used
+        return replace(judged, source=f"company practice (the shipped values are common practice); drop by the "
+                                      f"two-phase {two.method} method as recorded (fluids.two_phase)")
+
+    def _judge(self, context: CriterionContext) -> Verdict:
         h = context.hydraulics
         if h.choked and "max" in context.options:  # the marched drop covers only the length reached (0 if choked
             shown = h.drop_per_length / PA_PER_M_PER_KPA_100M  # at the inlet): no drop carries this flow here
