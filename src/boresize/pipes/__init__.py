@@ -18,7 +18,8 @@ from boresize.pipes.catalogue import (
     read_catalogue_file,
     read_catalogue_text,
 )
-from boresize.pipes.classes import DEFAULT_PIPE_CLASS, PipeClass, pipe_class_from_table
+from boresize.pipes.catalogue_class import pipe_class_from_table
+from boresize.pipes.classes import DEFAULT_PIPE_CLASS, PipeClass
 
 __all__ = [
     "DEFAULT_PIPE_CLASS",

@@ -15,11 +15,11 @@ from pathlib import Path
 from boresize.errors import CatalogueError, CriteriaFileError, InputError
 from boresize.model import Candidate
 from boresize.pipes.catalogue import Catalogue, normalise_nps
-from boresize.pipes.classes import PipeClass, _check_roughness
+from boresize.pipes.classes import PipeClass, _check_roughness, _material, _roughness, asme_class_from_table
 from boresize.pipes.fluids_tables import BUILTIN_CATALOGUES, builtin_sizes
 from boresize.pipes.tables import TableSize, read_table_file, size_key
 
-__all__ = ["CATALOGUE_CLASS_KEYS", "CataloguePipeClass", "catalogue_class_from_table"]
+__all__ = ["CATALOGUE_CLASS_KEYS", "CataloguePipeClass", "catalogue_class_from_table", "pipe_class_from_table"]
 
 #: Keys of a ``[pipe_class.NAME]`` table that names a catalogue; only ``catalogue`` is required.
 CATALOGUE_CLASS_KEYS = ("catalogue", "material", "roughness", "schedule", "sizes")
@@ -166,3 +166,23 @@ def _only_series(sizes: tuple[TableSize, ...]) -> str:
 
 def _expected_catalogue() -> str:
     return f"one of {', '.join(BUILTIN_CATALOGUES)}, or a CSV file (path relative to the criteria file)"
+
+
+def pipe_class_from_table(name: str, table: Mapping[str, object], folder: Path | None = None) -> PipeClass:
+    """A criteria file's ``[pipe_class.NAME]`` table as a pipe class: over the ASME catalogue
+    (:func:`boresize.pipes.classes.asme_class_from_table`), or, with a ``catalogue`` key (a built-in name or a CSV
+    file relative to ``folder``), over that catalogue; ``material`` and ``roughness`` are then optional.
+
+    :raises CriteriaFileError: an unknown or missing key, or a value that cannot be read (the field names it)
+    """
+    if not (isinstance(table, Mapping) and "catalogue" in table):
+        return asme_class_from_table(name, table)
+    where = f"pipe_class.{name}"
+    try:
+        material = _material(table["material"], f"{where}.material") if "material" in table else None
+        roughness = _roughness(table["roughness"], f"{where}.roughness") if "roughness" in table else None
+    except CriteriaFileError:
+        raise
+    except InputError as exc:
+        raise CriteriaFileError(exc.message, field=exc.field, value=exc.value, expected=exc.expected) from None
+    return catalogue_class_from_table(name, table, folder, material, roughness)

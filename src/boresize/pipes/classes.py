@@ -10,14 +10,13 @@ from __future__ import annotations
 import math
 from collections.abc import Iterable, Mapping, Sequence
 from dataclasses import dataclass
-from pathlib import Path
 from typing import cast
 
 from boresize.errors import CatalogueError, CriteriaFileError, InputError
 from boresize.model import Candidate
 from boresize.pipes.catalogue import Catalogue, load_catalogue, normalise_nps, normalise_schedule, nps_value
 
-__all__ = ["CLASS_KEYS", "DEFAULT_PIPE_CLASS", "MAX_ROUGHNESS", "PipeClass", "pipe_class_from_table"]
+__all__ = ["CLASS_KEYS", "DEFAULT_PIPE_CLASS", "MAX_ROUGHNESS", "PipeClass", "asme_class_from_table"]
 
 #: Keys of a ``[pipe_class.NAME]`` table; the first three are required.
 CLASS_KEYS = ("material", "roughness", "schedule", "sizes", "min_nps")
@@ -159,31 +158,20 @@ DEFAULT_PIPE_CLASS = PipeClass(
 )
 
 
-def pipe_class_from_table(name: str, table: Mapping[str, object], folder: Path | None = None) -> PipeClass:
+def asme_class_from_table(name: str, table: Mapping[str, object]) -> PipeClass:
     """Build a pipe class from the criteria file's ``[pipe_class.NAME]`` table.
 
     Keys: ``material`` (text), ``roughness`` (a number in mm, or a length with its unit such as
     "0.045 mm" or "0.0018 in"), ``schedule`` (a schedule, or a table ``{ default = "40", "14" = "STD" }``),
     ``sizes`` (list of NPS; default: the default class's sizes), ``min_nps``. With a ``catalogue`` key (a
     built-in name or a CSV file, relative to ``folder``) the sizes come from that catalogue instead
-    (:mod:`boresize.pipes.catalogue_class`); ``material`` and ``roughness`` are then optional.
+    (:func:`boresize.pipes.catalogue_class.pipe_class_from_table` chooses; this is the ASME class).
 
     :raises CriteriaFileError: an unknown or missing key, or a value that cannot be read; the field reads
         like ``pipe_class.NAME.schedule`` and, for a size without its wall, the message lists the
         schedules that exist at that NPS
     """
     where = f"pipe_class.{name}"
-    if isinstance(table, Mapping) and "catalogue" in table:
-        from boresize.pipes.catalogue_class import catalogue_class_from_table
-
-        try:
-            material = _material(table["material"], f"{where}.material") if "material" in table else None
-            roughness = _roughness(table["roughness"], f"{where}.roughness") if "roughness" in table else None
-        except CriteriaFileError:
-            raise
-        except InputError as exc:
-            raise CriteriaFileError(exc.message, field=exc.field, value=exc.value, expected=exc.expected) from None
-        return catalogue_class_from_table(name, table, folder, material, roughness)
     _check_keys(table, where)
     try:
         default, overrides = _schedule_table(table["schedule"], f"{where}.schedule")
