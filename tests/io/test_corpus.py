@@ -51,7 +51,7 @@ def _in_corpus(plugins: list[str]) -> Iterator[None]:
 
     # The process's sizers are cached by spec, not by which entry points exist: one built by an earlier test with
     # the real entry points would hide this case's plugins (a test-order failure), so each case starts clean.
-    batch._SIZERS.clear()
+    batch.clear_sizers()
     here = os.getcwd()
     os.chdir(CORPUS)
     try:
@@ -60,7 +60,7 @@ def _in_corpus(plugins: list[str]) -> Iterator[None]:
             yield
     finally:
         os.chdir(here)
-        batch._SIZERS.clear()
+        batch.clear_sizers()
 
 
 @functools.cache

@@ -137,3 +137,14 @@ def test_chunks_come_back_in_input_order_from_the_workers(spec: SizerSpec) -> No
 def _items(pairs):  # type: ignore[no-untyped-def]
     """The lines of (row, units) pairs, read as the run reads them."""
     return line_items(pairs).items
+
+
+def test_clear_sizers_makes_the_next_run_build_its_sizer_anew(spec: SizerSpec) -> None:
+    # An embedding program that installs a plugin while it runs calls clear_sizers(); the sizer built before
+    # (with the old plugins) must not answer for the spec after it.
+    before = batch.shared_sizer(spec)
+    assert batch.shared_sizer(spec) is before  # cached while nothing is cleared
+    batch.clear_sizers()
+    after = batch.shared_sizer(spec)
+    assert after is not before
+    assert batch.shared_sizer(spec) is after

@@ -39,7 +39,7 @@ from boresize.sizing import cases as _cases
 from boresize.sizing.engine import Sizer
 from boresize.sizing.selection import error_result
 
-__all__ = ["PROGRESS_THRESHOLD", "ExecutorLike", "Item", "executor_workers", "is_executor", "SizerSpec", "process_pool", "run_items", "run_chunks", "shared_sizer", "WORKER_DIED",
+__all__ = ["PROGRESS_THRESHOLD", "ExecutorLike", "Item", "executor_workers", "is_executor", "SizerSpec", "clear_sizers", "process_pool", "run_items", "run_chunks", "shared_sizer", "WORKER_DIED",
            "size_item", "spec_for", "summary"]
 
 #: A run of at least this many lines shows a progress bar on a terminal without being asked [lines].
@@ -138,6 +138,14 @@ def shared_sizer(spec: SizerSpec) -> Sizer:
                 del _SIZERS[old]
             _SIZERS[spec] = spec.build()
         return _SIZERS[spec]
+
+
+def clear_sizers() -> None:
+    """Forget this process's built sizers (:func:`shared_sizer`), so the next run loads plugins and criteria anew:
+    for a caller that changes which plugins are installed while the process lives (an embedding program, a test
+    that replaces the entry points)."""
+    with _SIZERS_LOCK:
+        _SIZERS.clear()
 
 
 def spec_for(criteria_file: str | Path | None, load_entry_points: bool, check_roughness: float | None, *,
