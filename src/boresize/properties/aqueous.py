@@ -34,7 +34,7 @@ from typing import Any
 
 from boresize.errors import InputError, PropertyError
 from boresize.model import FluidState, Line
-from boresize.properties.base import ZERO_CELSIUS, check_plausible, describe_conditions, is_mixture
+from boresize.properties.base import ZERO_CELSIUS, check_absolute, check_plausible, describe_conditions, is_mixture
 from boresize.properties.composition import Basis, basis_of, parse_composition
 from boresize.properties.saturation import refuse_quality
 
@@ -260,10 +260,7 @@ def check_liquid_inputs(line: Line, backend: str, pressure: float, temperature: 
     if line.eos and line.eos.strip():
         raise InputError(f"the {backend} backend has no equation of state {line.eos!r}", field="eos",
                          value=line.eos, expected="eos left blank (backend thermo offers cubic EOS)")
-    for field, value in (("pressure", pressure), ("temperature", temperature)):
-        if not (math.isfinite(value) and value > 0.0):
-            raise InputError(f"{value:g} is not above zero", field=field, value=value,
-                             expected=f"an absolute {field} above zero")
+    check_absolute(pressure, temperature)
 
 
 def unifac_liquid(cas: Sequence[str], groups: Sequence[dict[int, int]]) -> Any:

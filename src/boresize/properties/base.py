@@ -10,7 +10,7 @@ from __future__ import annotations
 import math
 from typing import Protocol, runtime_checkable
 
-from boresize.errors import PropertyError
+from boresize.errors import InputError, PropertyError
 from boresize.model import FluidState, Line
 
 __all__ = [
@@ -19,6 +19,7 @@ __all__ = [
     "VISCOSITY_RANGE",
     "ZERO_CELSIUS",
     "describe_conditions",
+    "check_absolute",
     "check_plausible",
     "is_mixture",
 ]
@@ -69,6 +70,18 @@ def describe_conditions(pressure: float, temperature: float) -> str:
     :param temperature: [K]
     """
     return f"{pressure / 1e5:.6g} bar abs, {round(temperature - ZERO_CELSIUS, 2):g} degC"
+
+
+def check_absolute(pressure: float, temperature: float) -> None:
+    """Refuse a pressure [Pa abs] or temperature [K] that is not a finite number above zero (every backend's first
+    check).
+
+    :raises InputError: naming the field, the value and what was expected
+    """
+    for field, value in (("pressure", pressure), ("temperature", temperature)):
+        if not (math.isfinite(value) and value > 0.0):
+            raise InputError(f"{value:g} is not above zero", field=field, value=value,
+                             expected=f"an absolute {field} above zero")
 
 
 def check_plausible(

@@ -46,7 +46,7 @@ from typing import Any
 
 from boresize.errors import BoresizeError, InputError, PropertyError
 from boresize.model import Flow, FluidState, Line, Phase
-from boresize.properties.base import ZERO_CELSIUS, check_plausible, describe_conditions, is_mixture
+from boresize.properties.base import ZERO_CELSIUS, check_absolute, check_plausible, describe_conditions, is_mixture
 from boresize.properties.coolprop_heos import GAS_Z_RANGE
 
 __all__ = ["GergBackend", "GERG_COMPONENTS", "NORMAL_RANGE", "EXTENDED_RANGE", "CRICONDENTHERM_MARGIN",
@@ -164,10 +164,7 @@ class GergBackend:
         if line.eos and line.eos.strip().upper() not in ("GERG-2008", "GERG", "HEOS"):
             raise InputError(f"the gerg-2008 backend has no equation of state {line.eos!r}", field="eos",
                              value=line.eos, expected="GERG-2008 (or leave eos blank); backend thermo offers cubic EOS")
-        for field, value in (("pressure", pressure), ("temperature", temperature)):
-            if not (math.isfinite(value) and value > 0.0):
-                raise InputError(f"{value:g} is not above zero", field=field, value=value,
-                                 expected=f"an absolute {field} above zero")
+        check_absolute(pressure, temperature)
         fluid = self._thermo.fluid(line.fluid, _basis(line))
         outside = [name for name, cas in zip(fluid.names, fluid.cas) if cas not in GERG_COMPONENTS]
         if outside:

@@ -38,7 +38,7 @@ from dataclasses import dataclass
 
 from boresize.errors import InputError, PropertyError
 from boresize.model import FluidState, Line
-from boresize.properties.base import check_plausible, describe_conditions
+from boresize.properties.base import check_absolute, check_plausible, describe_conditions
 from boresize.properties.composition import Basis, Composition, basis_of, parse_composition
 from boresize.properties.coolprop import SATURATION_TOLERANCE, is_mixture
 from boresize.properties.thermo_evaluate import evaluate_mixture, evaluate_pure, gas_direct, liquid_direct, no_envelope
@@ -137,10 +137,7 @@ class ThermoBackend:
             property outside the plausible range
         """
         refuse_quality(line, self.id)  # a saturated state by quality: pure fluids of coolprop only
-        for field, value in (("pressure", pressure), ("temperature", temperature)):
-            if not (math.isfinite(value) and value > 0.0):
-                raise InputError(f"{value:g} is not above zero", field=field, value=value,
-                                 expected=f"an absolute {field} above zero")
+        check_absolute(pressure, temperature)
         fluid = self.fluid(line.fluid, basis_of(line.extra))
         eos = eos_id(line.eos)
         own = math.isclose(pressure, line.pressure) and math.isclose(temperature, line.temperature)
