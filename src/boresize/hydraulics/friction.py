@@ -18,7 +18,7 @@ import math
 from typing import Literal
 
 from boresize.errors import InputError
-from boresize.hydraulics.wright import wright_omega  # measured: see below
+from boresize.hydraulics.wright import wright_omega  # measured: see hydraulics/wright.py
 
 __all__ = [
     "LAMINAR_LIMIT",
