@@ -12,8 +12,9 @@ from typing import Any
 from boresize.api.run import run_lines
 from boresize.errors import InputError
 from boresize.report.diff import Diff
+from boresize.units.quantities import leave_dask_out_of_pint
 
-__all__ = ["Diff", "compare_revisions", "criteria_text", "diff_text", "nps_text", "pipe_classes_text",
+__all__ = ["Diff", "compare_revisions", "leave_dask_out_of_pint", "criteria_text", "diff_text", "nps_text", "pipe_classes_text",
            "read_revision"]
 
 

@@ -130,6 +130,9 @@ def _dispatch(parser: argparse.ArgumentParser, argv: Sequence[str] | None) -> in
     if args.command is None:
         parser.print_help()
         return 2
+    from boresize.api.tools import leave_dask_out_of_pint
+
+    leave_dask_out_of_pint()  # before anything imports pint
     import boresize.cli.commands  # the API loads only when a command runs: --help and --version stay quick
 
     return int(getattr(boresize.cli.commands, f"run_{args.command}")(args))

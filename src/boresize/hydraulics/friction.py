@@ -17,9 +17,8 @@ from __future__ import annotations
 import math
 from typing import Literal
 
-from scipy.special import wrightomega
-
 from boresize.errors import InputError
+from boresize.hydraulics.wright import wright_omega  # measured: see hydraulics/wright.py
 
 __all__ = [
     "LAMINAR_LIMIT",
@@ -106,7 +105,7 @@ def _colebrook(reynolds: float, relative_roughness: float) -> float:
     """:func:`colebrook` on inputs already checked (Re [-] finite > 0, 0 <= e/D < 1); returns f [-]."""
     a_over_b = relative_roughness * reynolds / (3.7 * 2.51)
     bk = 2.51 * _K / reynolds
-    omega = float(wrightomega(a_over_b / _K - math.log(bk)))
+    omega = wright_omega(a_over_b / _K - math.log(bk))
     k_omega = _K * omega
     if a_over_b <= 0.5 * k_omega:
         x = k_omega - a_over_b

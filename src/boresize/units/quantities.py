@@ -43,11 +43,13 @@ from __future__ import annotations
 import functools
 import math
 import re
+import sys
 from tokenize import TokenError
 from typing import TYPE_CHECKING, Literal, NamedTuple
 
 from boresize.errors import InputError
 from boresize.model import Flow, FlowBasis
+from boresize.units.common import TABLE
 from boresize.units.text import (
     _ABSOLUTE,
     _DEFINITIONS,
@@ -105,6 +107,7 @@ def registry() -> pint.UnitRegistry[float]:
     standard-volume units (Sm3, Nm3, scf, MMSCFD), m3/m2 spellings, gpm (US), and the display units
     kPa_per_100m, bar_per_km, psi_per_100ft.
     """
+    _import_pint()
     import pint
 
     try:
@@ -114,6 +117,32 @@ def registry() -> pint.UnitRegistry[float]:
     for line in _definition_lines():
         ureg.define(line)
     return ureg
+
+
+_WITHOUT_DASK: list[bool] = []  # set by leave_dask_out_of_pint(): the command line's processes hold no dask array
+
+
+def leave_dask_out_of_pint() -> None:
+    """Have pint, when this process first imports it, load without its dask support (the command line's choice).
+
+    pint 0.25 imports dask whenever it is installed (``pint.compat``), and dask brings jinja2, yaml, psutil and
+    toolz: about a third of a second of each run. Only Quantities wrapping dask arrays need it, and the command
+    line makes none; a library caller keeps pint as it is. dask stays importable by anything after pint.
+    """
+    if not _WITHOUT_DASK:
+        _WITHOUT_DASK.append(True)
+
+
+def _import_pint() -> None:
+    """Import pint, without dask if :func:`leave_dask_out_of_pint` asked and neither is loaded yet."""
+    if _WITHOUT_DASK and "pint" not in sys.modules and "dask" not in sys.modules:
+        # measured: -0.28 s, 1.01 -> 0.73 s, one line in units outside units/common.py's table
+        # (CPU of a one-line run after `import CoolProp`, least of 5, interleaved; benchmarks/bench_scale.py --one-line)
+        sys.modules["dask"] = None  # type: ignore[assignment]  # find_spec("dask") then answers None
+        try:
+            import pint  # noqa: F401  # loaded here, without dask; used by the caller
+        finally:
+            del sys.modules["dask"]
 
 
 def _definition_lines() -> list[str]:
@@ -136,6 +165,7 @@ def application_registry() -> pint.UnitRegistry[float]:
     and nothing is redefined. The parser keeps its own registry (:func:`registry`): what a cell means does not
     depend on the caller's definitions.
     """
+    _import_pint()
     import pint
 
     app = pint.get_application_registry()  # type: ignore[no-untyped-call]
@@ -243,7 +273,8 @@ class _Parsed(NamedTuple):
 
 def _build(number: float, expression: str, cell: _Cell) -> _Parsed:
     """``number`` times the unit ``expression``, with pint's faults turned into UnitError."""
-    import pint  # already loaded by registry()
+    _import_pint()  # the first pint import of a parse: before registry()
+    import pint
 
     try:
         if expression in _OFFSET:  # offset units are built, never multiplied
@@ -382,6 +413,10 @@ class _Conversion(NamedTuple):
 
 
 _CONVERSIONS: dict[tuple[str, str], _Conversion] = {}  # measured: +84 % on rows (benchmarks/bench_parsing.py)
+# the commonest spellings, as read through pint (tests/units/test_common_units.py checks each to the last bit), so
+# that a run reading only these never imports pint, numpy nor scipy: measured: -0.43 s, 0.73 -> 0.30 s, one line
+# (CPU of a one-line run after `import CoolProp`, least of 5, interleaved; benchmarks/bench_scale.py --one-line)
+_CONVERSIONS.update((key, _Conversion(*row)) for key, row in TABLE.items())
 _CONVERSIONS_KEPT = 4096  # unit spellings remembered; a line list uses a handful
 
 
