@@ -199,3 +199,15 @@ def test_a_circular_payload_is_still_refused() -> None:
         with pytest.raises(RecursionError):
             dumps(loop)
 
+
+def test_the_rows_values_are_the_records_own(run) -> None:  # type: ignore[no-untyped-def]
+    """A CSV or workbook row reads sheet_values (a few keys), not the whole record: the same values, for every line
+    and case of the fixed list (passes, a fail, errors, cases, two-phase and mixtures)."""
+    from boresize.io.document import SHEET_KEYS, result_to_dict, sheet_values
+    from boresize.io.sheet_rows import RESULT_COLUMNS
+
+    assert {key for _, key in RESULT_COLUMNS} - {"line_status", "governs"} <= set(SHEET_KEYS)
+    for result in run.results:
+        for one in (result, *result.cases):
+            entry = result_to_dict(one)
+            assert sheet_values(one) == {key: entry.get(key) for key in SHEET_KEYS}

@@ -15,7 +15,7 @@ from typing import Any
 from boresize import __version__
 from boresize.model import CandidateResult, FluidState, LineResult, TwoPhaseFlow, Verdict, bare_pressure_count
 
-__all__ = ["CAUTION", "SCHEMA_VERSION", "TWO_PHASE_CAUTION", "two_phase_count", "document", "document_schema", "dumps_strict", "dumps_record", "result_to_dict", "verdict_to_dict", "candidate_to_dict"]
+__all__ = ["CAUTION", "SCHEMA_VERSION", "TWO_PHASE_CAUTION", "two_phase_count", "document", "document_schema", "dumps_strict", "dumps_record", "result_to_dict", "sheet_values", "SHEET_KEYS", "verdict_to_dict", "candidate_to_dict"]
 
 CAUTION = (
     "boresize results are screening calculations. They must be checked by a competent engineer against the "
@@ -113,6 +113,50 @@ def result_to_dict(result: LineResult) -> dict[str, Any]:
     entry["input"] = dict(result.raw)
     entry["cases"] = [result_to_dict(c) for c in result.cases]
     return entry
+
+
+#: The keys of a line's entry that the spreadsheet rows show (:mod:`boresize.io.sheet_rows`), in entry order.
+SHEET_KEYS = ("status", "mode", "nps", "schedule", "inside_diameter_mm", "velocity_m_s", "dp_kpa_per_100m",
+              "density_kg_m3", "viscosity_mpa_s", "controlling", "utilisation", "error", "service", "criteria_set",
+              "notes", "phase", "property_source", "vapour_fraction", "total_drop_kpa", "outlet_pressure_bar_abs",
+              "two_phase_method", "flow_regime", "liquid_holdup", "superficial_liquid_velocity_m_s",
+              "superficial_gas_velocity_m_s", "mixture_density_kg_m3")
+
+
+def sheet_values(result: LineResult) -> dict[str, Any]:
+    """The :data:`SHEET_KEYS` of :func:`result_to_dict`'s entry (None where the entry has no such key), without
+    building the rest of the record (verdicts, candidates, the input, the cases) that a CSV or table never shows.
+    measured: 0.23 s to 0.065 s CPU for the 2,000 lines' CSV rows (`boresize size lines-2000.csv --workers 1
+    --quiet -o x.csv`, the rows timed alone in the process, least of 7)."""
+    sel, state = result.selected, result.state
+    h = sel.hydraulics if sel else None
+    flow = _two_phase_flow(h.two_phase) if h is not None and h.two_phase is not None else {}
+    return {
+        "status": result.status,
+        "mode": result.mode,
+        "nps": sel.candidate.nps if sel else None,
+        "schedule": sel.candidate.schedule if sel else None,
+        "inside_diameter_mm": _r(sel.candidate.inside_diameter * 1e3) if sel else None,
+        "velocity_m_s": _r(h.velocity) if h else None,
+        "dp_kpa_per_100m": _r(h.drop_per_length / 10.0) if h else None,
+        "density_kg_m3": _r(state.density) if state else None,
+        "viscosity_mpa_s": _r(state.viscosity * 1e3) if state else None,
+        "controlling": result.controlling,
+        "utilisation": _r(sel.worst.utilisation, 4) if sel and sel.worst else None,
+        "error": result.error or None,
+        "service": result.service,
+        "criteria_set": result.criteria_set,
+        "notes": list(result.notes),
+        "phase": state.phase if state is not None else None,
+        "property_source": state.source if state is not None else None,
+        "vapour_fraction": _r(state.vapour_fraction) if state is not None else None,
+        "total_drop_kpa": _r(h.total_drop / 1e3) if h is not None else None,
+        "outlet_pressure_bar_abs": _r(h.outlet_pressure / 1e5) if h is not None and h.outlet_pressure is not None
+        else None,
+        **{key: flow.get(key) for key in ("two_phase_method", "flow_regime", "liquid_holdup",
+                                          "superficial_liquid_velocity_m_s", "superficial_gas_velocity_m_s",
+                                          "mixture_density_kg_m3")},
+    }
 
 
 def _case(result: LineResult) -> str | None:
