@@ -127,3 +127,87 @@ def test_a_stream_path_that_cannot_be_written_is_refused_before_sizing(tmp_path:
             run_lines(ROOT / LINES, CRITERIA, plugins=False, stream=[bad])
         assert caught.value.field == "output" and not bad.exists() or bad == ROOT / LINES
     assert list(tmp_path.iterdir()) == []
+
+
+def _as_before(payload: object, indent: int | None) -> str:
+    """The writers' bytes as they were before the fast paths (issue 19): every value walked for NaN and infinity,
+    then the json module (its pure-Python encoder when indented)."""
+    from boresize.io.document import _finite
+
+    separators = None if indent else (",", ":")
+    return json.dumps(_finite(payload, "", None), indent=indent, ensure_ascii=False, allow_nan=False,
+                      separators=separators)
+
+
+_NAN, _INF = float("nan"), float("inf")
+HOSTILE = {  # payloads on the fast paths' edges: each must give the bytes it gave before
+    "nan at the top": {"notes": [], "utilisation": _NAN},
+    "inf in a nested list": {"notes": ["given"], "verdicts": [{"value": 1.0, "limit": [0.0, -_INF]}]},
+    "nested notes": {"notes": [], "cases": [{"notes": ["own"], "utilisation": _INF}, {"drop": _NAN}]},
+    "no notes anywhere": {"a": [_NAN, 1.5], "b": {"c": -_INF}},
+    "a bare nan": _NAN,
+    "non-ASCII and control text": {"tag": "P-ü€漢😀\u2028\u2029\x00\x1f\"\\/\n\r\t", "notes": ["Δp ≤ 1 %"]},
+    "empty containers": {"a": [], "b": {}, "c": [[], {}], "d": [[[]]], "": ""},
+    "tuples and odd numbers": {"t": (1, 2.5, (True, None)), "big": 10**40, "neg0": -0.0, "tiny": 5e-324,
+                               "huge": 1.7976931348623157e308, "bools": [True, False], "int-like": 1.0},
+    "keys that are not text": {1: "one", 2.5: "x", None: "n", False: "f"},
+    "many lines": {"notes": [], "lines": [{"tag": f"L-{n}", "v": n / 7, "notes": []} for n in range(3000)]},
+    "inf on the last of many": {"lines": [{"notes": [], "v": float(n) if n < 499 else _INF} for n in range(500)]},
+    "empty run": {"summary": {"lines": 0}, "lines": []},
+}
+
+
+@pytest.mark.parametrize("name", list(HOSTILE))
+def test_the_fast_writers_give_the_bytes_the_walk_and_the_json_module_gave(name: str) -> None:
+    from boresize.io.document import dumps_record, dumps_strict
+
+    payload = HOSTILE[name]
+    assert dumps_strict(payload) == _as_before(payload, 2)
+    assert dumps_record(payload) == _as_before(payload, None)
+
+
+def test_a_nan_or_infinity_in_a_record_is_written_as_null_with_its_note(run) -> None:  # type: ignore[no-untyped-def]
+    """A line's entry with an infinite utilisation and a NaN verdict value (a fail no size can meet; the values are
+    made up here, set on the fixed list's first passing line): null in the JSON, each named in the line's notes,
+    the other lines' bytes as before."""
+    from boresize.io.document import document, dumps_record, dumps_strict, result_to_dict
+
+    doc = document(run.results, criteria_source=CRITERIA, lines_source=LINES)
+    first = next(n for n, r in enumerate(run.results) if r.status == "pass")
+    entry = doc["lines"][first]
+    entry["utilisation"] = _INF
+    entry["verdicts"][0]["value"] = _NAN
+    written = json.loads(dumps_strict(doc))["lines"][first]
+    assert written["utilisation"] is None and written["verdicts"][0]["value"] is None
+    assert written["notes"][-2:] == [
+        f"lines[{first}].utilisation inf is written as null (JSON has no NaN or infinity)",
+        f"lines[{first}].verdicts[0].value nan is written as null (JSON has no NaN or infinity)"]
+    assert dumps_strict(doc) == _as_before(doc, 2)
+    record = json.loads(dumps_record(entry))
+    assert record["notes"][-1] == "verdicts[0].value nan is written as null (JSON has no NaN or infinity)"
+    assert dumps_record(entry) == _as_before(entry, None)
+    assert [dumps_record(result_to_dict(r)) for r in run.results] == \
+        [_as_before(result_to_dict(r), None) for r in run.results]
+
+
+def test_a_circular_payload_is_still_refused() -> None:
+    from boresize.io.document import dumps_record, dumps_strict
+
+    loop: dict[str, object] = {"notes": []}
+    loop["self"] = loop
+    for dumps in (dumps_strict, dumps_record):
+        with pytest.raises(RecursionError):
+            dumps(loop)
+
+
+def test_the_rows_values_are_the_records_own(run) -> None:  # type: ignore[no-untyped-def]
+    """A CSV or workbook row reads sheet_values (a few keys), not the whole record: the same values, for every line
+    and case of the fixed list (passes, a fail, errors, cases, two-phase and mixtures)."""
+    from boresize.io.document import SHEET_KEYS, result_to_dict, sheet_values
+    from boresize.io.sheet_rows import RESULT_COLUMNS
+
+    assert {key for _, key in RESULT_COLUMNS} - {"line_status", "governs"} <= set(SHEET_KEYS)
+    for result in run.results:
+        for one in (result, *result.cases):
+            entry = result_to_dict(one)
+            assert sheet_values(one) == {key: entry.get(key) for key in SHEET_KEYS}

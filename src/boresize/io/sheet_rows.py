@@ -12,7 +12,7 @@ from collections.abc import Sequence
 from typing import Any
 
 from boresize.io.csv_reader import RESULT_PREFIX
-from boresize.io.document import result_to_dict
+from boresize.io.document import sheet_values
 from boresize.io.rows import parse_header
 from boresize.model import LineResult
 
@@ -67,7 +67,7 @@ def _input_cells(result: LineResult, fields: Sequence[str]) -> list[str]:
 
 
 def _result_cells(line: LineResult, case: LineResult) -> list[Any]:
-    entry = result_to_dict(case)
+    entry = sheet_values(case)  # not the whole record: a row shows these few keys
     entry["line_status"] = line.status
     entry["nps"], entry["schedule"] = (line.selected.candidate.nps, line.selected.candidate.schedule) \
         if line.selected else (entry["nps"], entry["schedule"])

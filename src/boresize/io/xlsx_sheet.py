@@ -14,7 +14,7 @@ from pathlib import Path
 from typing import Any
 
 from boresize.io.csv_reader import RESULT_PREFIX
-from boresize.io.document import result_to_dict
+from boresize.io.document import verdict_to_dict
 from boresize.io.safety import FORMULA_STARTS
 from boresize.io.sheet_rows import case_rows
 from boresize.model import LineResult
@@ -48,7 +48,8 @@ def number_format(heading: str) -> str | None:
 
 
 def _verdicts(case: LineResult) -> dict[str, Mapping[str, Any]]:
-    return {str(v["criterion"]): v for v in result_to_dict(case).get("verdicts") or ()}
+    """The selected size's verdicts as the record has them (its ``verdicts``), without building the whole record."""
+    return {v.criterion: verdict_to_dict(v) for v in case.selected.verdicts} if case.selected else {}
 
 
 def verdict_columns(results: Sequence[LineResult]) -> tuple[list[str], list[list[Any]]]:
