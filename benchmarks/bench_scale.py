@@ -12,7 +12,9 @@ time of each is kept. Printed:
     (start-up), and the 50k/1k ratio (flat: 1.0);
 (c) peak memory of 50,000 lines to CSV and to JSON Lines (``.jsonl``; ``.json`` where it is not written);
 (d) one line through the command line against the floor for one line (with its CoolProp import): the
-    difference (target: the floor + 0.3 s).
+    difference (target: the floor + 0.3 s);
+(e) memory growth per 1,000 lines between 1,000 and 10,000 lines to CSV (``--quiet -o results.csv``: a run that
+    keeps counts, not results; flat: about 0 MB).
 
 The line lists are the demo unit's lines whose properties CoolProp gives (the heavy fuel oil with table values
 left out) repeated with flows scaled 0.6-1.4x and temperatures moved +/-5 K (``bench_batch.build_line_list``'s
@@ -153,17 +155,22 @@ def main() -> None:
               f"(target {TARGET_RATIO}x: {'met' if ratio <= TARGET_RATIO else 'NOT met'})")
         start = one_line(folder, args.repeats)
         per_line: dict[int, float] = {}
+        peaks: dict[int, float] = {}
         memory: dict[str, float] = {}
         for count in sorted({1000, 10000, args.big}):
             lines = build_pure_list(count, folder)
             runs = args.repeats if count <= 10000 else 1
             cpu, peak = least([child(boresize(lines, "-o", str(folder / "out.csv"))) for _ in range(runs)])
             per_line[count] = (cpu - start) / (count - 1)
+            peaks[count] = peak
             print(f"(b) {count:>6} lines to CSV: {cpu:.2f} s CPU, {per_line[count] * 1e3:.3f} ms/line beyond the "
                   f"one-line run's {start:.2f} s (start-up), peak {peak:.0f} MB")
             if count == args.big:
                 memory[".csv"] = peak
                 _, memory[stream] = child(boresize(lines, "-o", str(folder / f"out{stream}")))
+        growth = (peaks[10000] - peaks[1000]) / 9.0
+        print(f"(e) memory growth per 1,000 lines, 1,000 to 10,000 lines to CSV: {growth:+.2f} MB "
+              f"({peaks[1000]:.0f} MB to {peaks[10000]:.0f} MB; flat: about 0)")
         flat = per_line[args.big] / per_line[1000]
         print(f"(b) time per line {args.big} / 1,000 lines: {flat:.2f} (flat: 1.0)")
         for suffix, peak in memory.items():

@@ -14,6 +14,7 @@ from typing import Literal
 __all__ = [
     "BareReading",
     "bare_pressure_count",
+    "bare_pressure_note",
     "bare_pressure_text",
     "Flow",
     "Line",
@@ -427,5 +428,9 @@ def bare_pressure_count(results: Sequence[LineResult]) -> int:
 
 def bare_pressure_text(results: Sequence[LineResult]) -> str:
     """The run summary's count of lines with a pressure in a bare unit ("" when none has one)."""
-    bare = bare_pressure_count(results)
+    return bare_pressure_note(bare_pressure_count(results))
+
+
+def bare_pressure_note(bare: int) -> str:
+    """The run summary's note for ``bare`` lines with a pressure in a bare unit ("" when none)."""
     return f"; {bare} with a pressure in a bare unit (neither g nor a: see the line's notes)" if bare else ""

@@ -17,9 +17,9 @@ from __future__ import annotations
 import hashlib
 import sys
 import time
-from collections.abc import Callable, Iterable, Mapping, Sequence
+from collections.abc import Callable, Collection, Iterable, Mapping, Sequence
 from concurrent.futures import Executor
-from dataclasses import dataclass, replace
+from dataclasses import dataclass, field, replace
 from pathlib import Path
 from typing import IO, TYPE_CHECKING, Any, Literal, Union, cast
 
@@ -28,9 +28,10 @@ from boresize.api.result import SizingResult
 from boresize.errors import InputError
 from boresize.io.csv_reader import LineList
 from boresize.io.document_block import DocumentBlock, document_block as as_document_block
+from boresize.io.line_items import LazyItems
 from boresize.model import Line, LineResult
 from boresize.report.trace import Traceability, traceability
-from boresize.sizing.batch import ExecutorLike, SizerSpec, run_items, spec_for, summary
+from boresize.sizing.batch import ExecutorLike, SizerSpec, run_items, spec_for, summary, summary_text
 from boresize.sizing.headroom import Headroom
 from boresize.units import BarePressure, bare_pressure_mode
 
@@ -41,7 +42,8 @@ if TYPE_CHECKING:
     from boresize.io.line_items import Cells
     from boresize.sizing.engine import Sizer
 
-__all__ = ["KEEP", "SLOW_CRITERION_SECONDS", "SLOW_CRITERION_SHARE", "CriterionTime", "LineSource", "Run", "read_lines", "roughness_value", "run_lines", "size_dataframe", "size_rows"]
+__all__ = ["KEEP", "SLOW_CRITERION_SECONDS", "SLOW_CRITERION_SHARE", "CriterionTime", "LineSource", "Run", "Tally",
+           "read_lines", "roughness_value", "run_lines", "size_dataframe", "size_rows"]
 
 #: What :func:`run_lines` reads lines from.
 LineSource = Union[str, Path, IO[str], IO[bytes], "pd.DataFrame", LineList, Iterable[LineItem]]
@@ -71,6 +73,33 @@ class CriterionTime:
     seconds: float
 
 
+@dataclass
+class Tally:
+    """What a run that kept no results (``run_lines(count_only=True)``) counted as each line was sized: enough for its
+    summary, its exit status and its error messages, whatever the number of lines."""
+
+    lines: int = 0
+    passed: int = 0
+    failed: int = 0
+    errors: int = 0
+    bare_pressure: int = 0  #: lines with a pressure in a bare unit
+    two_phase: int = 0  #: lines two-phase in any case
+    error_texts: list[str] = field(default_factory=list)  #: each error line's message, in input order
+
+    def add(self, result: LineResult) -> None:
+        from boresize.io.document import two_phase_count
+        from boresize.model import bare_pressure_count
+
+        self.lines += 1
+        self.passed += result.status == "pass"
+        self.failed += result.status == "fail"
+        self.errors += result.status == "error"
+        self.bare_pressure += bare_pressure_count([result])
+        self.two_phase += two_phase_count([result])
+        if result.error:
+            self.error_texts.append(result.error)
+
+
 @dataclass(frozen=True)
 class Run:
     """The results of one run, the line list as read, and the record of what produced them.
@@ -85,6 +114,9 @@ class Run:
         times its worker processes
     :param document_block: the calculation sheet's project, number, revision, signatures (the HTML page's head)
     :param keep: what was kept of each result (:data:`KEEP`): ``selected`` writes only CSV and the table
+    :param tally: the counts of a run that kept no result (``count_only``): its ``results`` are then empty, and it
+        gives its summary, :attr:`passed` and error messages, and writes nothing more (its streamed outputs are
+        written)
     """
 
     results: tuple[SizingResult, ...]
@@ -97,9 +129,19 @@ class Run:
     keep: Keep = "full"
     #: (path, None) for each output :func:`run_lines` wrote as lines were sized, (path, the error) for one it could not
     streamed: tuple[tuple[Path, InputError | None], ...] = ()
+    tally: Tally | None = None
+
+    def _need_results(self, what: str) -> None:
+        """:raises InputError: (field "count_only") when this run kept no result, only counts."""
+        if self.tally is not None:
+            raise InputError(f"{what} needs each line's result, and this run kept only counts (count_only=True: its "
+                             f"outputs were written as lines were sized)", field="count_only", value=True,
+                             expected="a run made with count_only=False (the default), or its outputs given as "
+                                      "run_lines(stream=...)")
 
     def _need_full(self, what: str) -> None:
         """:raises InputError: (field "keep") when this run kept only each line's selected size."""
+        self._need_results(what)
         if self.keep != "full":
             raise InputError(f"{what} needs every rated size of each line, and this run kept only the selected "
                              f"ones (keep={self.keep!r})", field="keep", value=self.keep,
@@ -121,17 +163,29 @@ class Run:
     @property
     def passed(self) -> bool:
         """True when there are lines and every one passed."""
+        if self.tally is not None:
+            return self.tally.lines > 0 and self.tally.passed == self.tally.lines
         return bool(self.results) and all(r.status == "pass" for r in self.results)
+
+    @property
+    def error_texts(self) -> list[str]:
+        """Each error line's message, in input order (``boresize size --quiet`` prints them)."""
+        if self.tally is not None:
+            return list(self.tally.error_texts)
+        return [r.error for r in self.results if r.error]
 
     def summary(self) -> str:
         """One line: how many lines were sized or checked, passed, failed and had errors."""
+        if self.tally is not None:
+            t = self.tally
+            return summary_text(t.lines, t.passed, t.failed, t.errors, t.bare_pressure)
         return summary(self.results)
 
     def two_phase_caution(self) -> str | None:
         """The caution on two-phase lines when the run has any (the table prints it itself), else None."""
         from boresize.io.document import TWO_PHASE_CAUTION, two_phase_count
 
-        count = two_phase_count(self.results)
+        count = self.tally.two_phase if self.tally is not None else two_phase_count(self.results)
         return f"{count} two-phase line{'s' if count > 1 else ''}: {TWO_PHASE_CAUTION}" if count else None
 
     def document(self, timings: bool = False) -> dict[str, Any]:
@@ -156,6 +210,7 @@ class Run:
         """The terminal table (and the headroom list when asked for)."""
         from boresize.report.terminal import render_table
 
+        self._need_results("the table")
         text = render_table(self.results, self.trace.criteria_source, self.trace.criteria_set)
         return text + (_headroom_text(self.headrooms) if self.headrooms is not None else "")
 
@@ -175,6 +230,8 @@ class Run:
 
         if Path(path).suffix.lower() in set(WRITERS) - set(LEAN_OUTPUTS):  # an unknown one: write_run names it
             self._need_full(f"writing {str(path)!r}")
+        if Path(path).suffix.lower() in WRITERS:
+            self._need_results(f"writing {str(path)!r}")
         block = as_document_block(document)
         return write_run(path, self if block is None else replace(self, document_block=block))
 
@@ -185,7 +242,7 @@ def run_lines(lines: LineSource, criteria: str | Path | None = None, *, workers:
               plugins: bool = True, progress: bool | None = False, headroom: bool = False,
               units_row: bool | None = None, bare_pressure: BarePressure | None = None,
               document: DocumentBlock | Mapping[str, Any] | str | Path | None = None, keep: Keep = "full",
-              stream: Sequence[str | Path] = ()) -> Run:
+              stream: Sequence[str | Path] = (), count_only: bool = False) -> Run:
     """Size (or check) every line of a line list; see the module docstring for what ``lines`` may be.
 
     :param criteria: a criteria TOML file (the shipped sets when None)
@@ -210,6 +267,10 @@ def run_lines(lines: LineSource, criteria: str | Path | None = None, *, workers:
     :param stream: .csv and .jsonl files written as each line is sized (one line's rows at a time, each file renamed
         into place at the end: :class:`~boresize.api.output.StreamedOutput`), so that a long run need not keep what
         only they read; :attr:`Run.streamed` says which were written. Byte for byte what :meth:`Run.write` writes
+    :param count_only: keep no result, only counts (:class:`Tally`: the summary, :attr:`Run.passed`, each error
+        line's message): with ``stream``, memory that does not grow with the number of lines (one process: rows
+        read are parsed as they are sized and a line list read here lets go of its rows). The run then writes
+        nothing more and has no table or document
     :raises InputError: an unreadable line list, a bad option (naming it), a bad document block, a ``stream`` path
         that cannot be written
     """
@@ -222,21 +283,31 @@ def run_lines(lines: LineSource, criteria: str | Path | None = None, *, workers:
     roughness = None if corroded_roughness is None else roughness_value(corroded_roughness)
     mode = None if bare_pressure is None else bare_pressure_mode(bare_pressure)
     spec = spec_for(criteria, plugins, roughness, every_size=every_size)
-    line_list, items, cells = _read(lines, units_row, mode)
+    lazy = count_only and workers == 1 and executor is None
+    line_list, items, cells = _read(lines, units_row, mode, lazy=lazy)
     sizer = default_sizer(spec)
     streams = _open_streams(stream, line_list)
     seconds: dict[str, float] = {}
     rooms: list[Headroom] = []
-    own_cells = iter(cells) if cells is not None else None
+    tally = Tally() if count_only else None
+    own_cells: Callable[[], tuple[Cells, ...]] | None = None
+    if isinstance(items, LazyItems):
+        own_cells = items.take_cells
+    elif cells is not None:
+        own_cells = iter(cells).__next__
 
-    def each(result: LineResult) -> LineResult:
-        """Each line as it is sized: its cells joined, its headroom rated, written to the streams, kept (lean)."""
-        done: LineResult = SizingResult.of(result if own_cells is None else _with_cells(result, next(own_cells)))
-        room = _headroom(sizer, done) if headroom and streams else None  # else rated after the run, as before
-        if room is not None:
+    def each(result: LineResult) -> LineResult | None:
+        """Each line as it is sized: its cells joined, its headroom rated, written to the streams, kept (lean) or
+        counted."""
+        done: LineResult = SizingResult.of(result if own_cells is None else _with_cells(result, own_cells()))
+        room = _headroom(sizer, done) if headroom and (streams or tally) else None  # else rated after the run
+        if room is not None and tally is None:
             rooms.append(room)
         for output in streams:
             output.add(done, room)
+        if tally is not None:
+            tally.add(done)
+            return None
         return SizingResult.of(_lean(done)) if keep == "selected" else done
 
     start = time.perf_counter()
@@ -251,11 +322,11 @@ def run_lines(lines: LineSource, criteria: str | Path | None = None, *, workers:
     wall = (time.perf_counter() - start) * (workers if executor is None else 1)
     times = tuple(CriterionTime(ident, _owner(sizer, ident), spent) for ident, spent in seconds.items())
     trace = _trace(sizer, spec, line_list, str(criteria) if criteria else sizer.config.origin)
-    if headroom and not streams:
+    if headroom and not streams and tally is None:
         rooms = [_headroom(sizer, r) for r in results]
     written = tuple(_commit(output) for output in streams)
-    return Run(cast(tuple[SizingResult, ...], tuple(results)), line_list, trace, tuple(rooms) if headroom else None,
-               times, wall, block, keep, written)
+    return Run(cast(tuple[SizingResult, ...], tuple(results)), line_list, trace,
+               tuple(rooms) if headroom and tally is None else None, times, wall, block, keep, written, tally)
 
 
 def _open_streams(paths: Sequence[str | Path], line_list: LineList) -> list[StreamedOutput]:
@@ -448,9 +519,14 @@ def _from_text(text: str | bytes, source: str, parse_csv: Callable[[str, str], L
     return line_list
 
 
-def _read(lines: LineSource, units_row: bool | None, bare_pressure: BarePressure | None = None,
-          ) -> tuple[LineList, Sequence[Any], tuple[tuple[Cells, ...], ...] | None]:
-    """(the line list, the lines to size, each line's rows' cells) from any line source."""
+def _read(lines: LineSource, units_row: bool | None, bare_pressure: BarePressure | None = None, lazy: bool = False,
+          ) -> tuple[LineList, Collection[Any], tuple[tuple[Cells, ...], ...] | None]:
+    """(the line list, the lines to size, each line's rows' cells) from any line source.
+
+    :param lazy: the lines as :class:`~boresize.io.line_items.LazyItems` (parsed as they are sized, cells taken
+        from it), and a line list read here (not given as a LineList) without its rows, which the items hold
+        until each is parsed
+    """
     given = _given_lines(lines)
     if given is not None:
         items = [reread_item(checked_item(value, i), bare_pressure) for i, value in enumerate(given, start=1)]
@@ -458,6 +534,11 @@ def _read(lines: LineSource, units_row: bool | None, bare_pressure: BarePressure
     from boresize.io.line_items import line_items
 
     line_list = read_lines(lines, units_row)
+    if lazy:
+        lazy_items = LazyItems(line_list.pairs(), bare_pressure or "absolute")
+        if line_list is not lines:
+            line_list = replace(line_list, rows=[], row_units=[])
+        return line_list, lazy_items, None
     read = line_items(line_list.pairs(), bare_pressure or "absolute")
     return line_list, read.items, read.cells
 

@@ -24,7 +24,7 @@ import math
 import multiprocessing
 import sys
 import threading
-from collections.abc import Callable, Iterator, Sequence
+from collections.abc import Callable, Collection, Iterator, Sequence
 from concurrent.futures import Executor, Future, ProcessPoolExecutor, as_completed
 from concurrent.futures.process import BrokenProcessPool
 from contextlib import AbstractContextManager, contextmanager, nullcontext
@@ -34,13 +34,13 @@ from typing import Any, Protocol, TextIO, Union, runtime_checkable
 
 from boresize.errors import BoresizeError, InputError
 from boresize.io.line_items import RowFault
-from boresize.model import Line, LineResult, bare_pressure_text
+from boresize.model import Line, LineResult, bare_pressure_count, bare_pressure_note
 from boresize.sizing import cases as _cases
 from boresize.sizing.engine import Sizer
 from boresize.sizing.selection import error_result
 
 __all__ = ["PROGRESS_THRESHOLD", "ExecutorLike", "Item", "executor_workers", "is_executor", "SizerSpec", "clear_sizers", "process_pool", "run_items", "run_chunks", "shared_sizer", "WORKER_DIED",
-           "size_item", "spec_for", "summary"]
+           "size_item", "spec_for", "summary", "summary_text"]
 
 #: A run of at least this many lines shows a progress bar on a terminal without being asked [lines].
 PROGRESS_THRESHOLD = 50
@@ -308,14 +308,15 @@ def _progress(total: int, show: bool | None, stream: TextIO | None) -> Iterator[
         yield lambda n: bar.advance(task, n)
 
 
-def run_items(items: Sequence[Item], spec: SizerSpec | None = None, *, sizer: Sizer | None = None,
+def run_items(items: Collection[Item], spec: SizerSpec | None = None, *, sizer: Sizer | None = None,
               executor: Executor | ExecutorLike | None = None, workers: int = 1, progress: bool | None = None,
               chunk_size: int | None = None, progress_stream: TextIO | None = None,
               retry_hint: str = "--workers 1", criterion_seconds: dict[str, float] | None = None,
-              each: Callable[[LineResult], LineResult] | None = None) -> list[LineResult]:
+              each: Callable[[LineResult], LineResult | None] | None = None) -> list[LineResult]:
     """Size or check every line; one result per item, in input order.
 
-    :param items: the lines (see :data:`Item`), e.g. :func:`boresize.io.line_items.line_items`'s
+    :param items: the lines (see :data:`Item`), e.g. :func:`boresize.io.line_items.line_items`'s; in this process
+        any sized iterable (read as it is sized: :class:`~boresize.io.line_items.LazyItems`), else a sequence
     :param spec: how workers build their sizer (also used here when ``sizer`` is not given)
     :param sizer: the sizer to use in this process; in a parallel run on processes started here it sizes the
         first line before they start, so that forked workers inherit the property libraries it loaded
@@ -328,7 +329,8 @@ def run_items(items: Sequence[Item], spec: SizerSpec | None = None, *, sizer: Si
     :param criterion_seconds: given, the seconds spent in each criterion's evaluate over these lines are added
         to it (criterion id -> seconds, summed over every process)
     :param each: given, what is kept of each result is ``each(result)``, applied as each line is sized here (so a
-        run in this process never holds the full results of all lines at once), or as each chunk comes back
+        run in this process never holds the full results of all lines at once), or as each chunk comes back; a
+        result for which it returns None is not kept (the list returned then holds only those kept)
     :raises InputError: a parallel run given a ``sizer`` but no ``spec`` (workers could not rebuild it), an
         executor without ``submit`` and ``map``
     """
@@ -352,10 +354,13 @@ def run_items(items: Sequence[Item], spec: SizerSpec | None = None, *, sizer: Si
         with _COLLECTOR_PAUSE, bar() as advance:
             for item in items:
                 result = size_item(engine, item)
-                results.append(result if each is None else each(result))
+                kept = result if each is None else each(result)
+                if kept is not None:
+                    results.append(kept)
                 advance(1)
         _add(criterion_seconds, _since(before, engine.criterion_seconds()))
         return results
+    items = items if isinstance(items, Sequence) else list(items)
     head: list[LineResult] = []
     if sizer is not None and executor is None and items:
         before = sizer.criterion_seconds()
@@ -368,7 +373,9 @@ def run_items(items: Sequence[Item], spec: SizerSpec | None = None, *, sizer: Si
     done = head + run_chunks(_run_chunk, spec, _chunks(rest, count, chunk_size), executor=executor,
                              workers=workers, retry_hint=retry_hint, progress=bar, already_done=len(head),
                              lost=_lost, criterion_seconds=criterion_seconds)
-    return done if each is None else [each(result) for result in done]
+    if each is None:
+        return done
+    return [kept for kept in (each(result) for result in done) if kept is not None]
 
 
 def _lost(item: Item, cause: str) -> LineResult:
@@ -480,7 +487,11 @@ def summary(results: Sequence[LineResult]) -> str:
     """One line: how many lines were sized or checked, passed, failed and had errors, and how many gave a pressure
     in a bare unit (when any did)."""
     counts = {s: sum(1 for r in results if r.status == s) for s in ("pass", "fail", "error")}
-    text = f"{len(results)} lines: {counts['pass']} pass, {counts['fail']} fail, {counts['error']} error"
-    return text + bare_pressure_text(results)
+    return summary_text(len(results), counts["pass"], counts["fail"], counts["error"], bare_pressure_count(results))
+
+
+def summary_text(lines: int, passed: int, failed: int, errors: int, bare: int) -> str:
+    """:func:`summary`'s line from its counts (a run that kept counts instead of results, ``count_only``)."""
+    return f"{lines} lines: {passed} pass, {failed} fail, {errors} error" + bare_pressure_note(bare)
 
 
