@@ -111,6 +111,7 @@ class CoolPropMixtureBackend:
         self._cached = functools.lru_cache(maxsize=cache_size)(self._compute)
         self._gas_flashes: collections.Counter[tuple[Any, ...]] = collections.Counter()
         self._gas_known: set[tuple[Any, ...]] = set()
+        self._saturation: dict[tuple[Any, ...], tuple[float | None, float | None]] = {}
 
     def version(self) -> str:
         """CoolProp's version (no import)."""
@@ -196,6 +197,7 @@ class CoolPropMixtureBackend:
         except ValueError as exc:
             raise PropertyError(f"coolprop-mixture: CoolProp failed for {label} at "
                                 f"{describe_conditions(pressure, temperature)}: {exc}") from None
+        bubble, dew = self._bubble_dew(names, key, pressure) if point.phase == "two-phase" else (None, None)
         notes = ((note,) if note else ()) + point.notes
         model = (f"CoolProp {_coolprop_version()} HEOS mixture (multi-fluid Helmholtz model, GERG-2008 parameters "
                  f"where available); at {describe_conditions(pressure, temperature)}" + "".join(f"; {n}" for n in notes))
@@ -204,8 +206,33 @@ class CoolPropMixtureBackend:
                           molar_mass=state.molar_mass(), fluid_name=label, backend_version=_coolprop_version(),
                           eos="HEOS", pressure=pressure, temperature=temperature,
                           composition=tuple(zip(names, zs)), notes=notes, family="mixture (CoolProp HEOS, named)",
+                          bubble_pressure=bubble, dew_pressure=dew,
                           validity="CoolProp's multi-fluid model where its binary parameters are fitted (GERG-2008 "
                                    "pairs); estimated elsewhere", **point.phase_fields())
+
+    def _bubble_dew(self, names: tuple[str, ...], key: tuple[Any, ...], pressure: float
+                    ) -> tuple[float | None, float | None]:
+        """(bubble, dew) pressure [Pa abs] of the mixture at the key's temperature by CoolProp's QT saturation
+        (about 0.4 ms each, once per mixture and temperature), each None where CoolProp finds none or it does not
+        bracket ``pressure`` (a two-phase state lies between them; a retrograde mixture's other dew point is not it).
+        The march of a two-phase line makes no flash below the dew pressure (the mixture is all gas there)."""
+        from CoolProp import CoolProp as CP
+
+        if key not in self._saturation:
+            _, fractions, basis, temperature = key
+            state = self._heos_phases(names)
+            found: list[float | None] = []
+            for quality in (0.0, 1.0):
+                try:
+                    set_fractions(state, fractions, basis)
+                    state.update(CP.QT_INPUTS, quality, temperature)
+                    found.append(float(state.p()))
+                except ValueError:
+                    found.append(None)
+            self._saturation[key] = (found[0], found[1])
+        bubble, dew = self._saturation[key]
+        return (bubble if bubble is not None and bubble > pressure else None,
+                dew if dew is not None and 0.0 < dew < pressure else None)
 
     def _heos_phases(self, names: tuple[str, ...]) -> Any:
         """A second AbstractState of the same components, for the phases of a two-phase state."""
