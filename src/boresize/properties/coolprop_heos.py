@@ -94,7 +94,12 @@ def heos_point(state: Any, phases: Any, names: tuple[str, ...], pressure: float,
         if gas_known:
             state.unspecify_phase()
     phase = "gas" if gas_known else _map_phase(int(state.phase()), " & ".join(names), pressure, temperature)
-    _guard_z(state.compressibility_factor(), phase, names, pressure, temperature)
+    # a two-phase state's Z is the bulk p / (rho R T): CoolProp's compressibility_factor() evaluates the Helmholtz
+    # energy at the bulk density, inside the spinodal, and gave Z = -0.27 just below propane/n-butane's bubble
+    # pressure (11.75 bar abs, 50 degC), where p / (rho R T) = 0.049
+    z = (pressure / (state.rhomolar() * state.gas_constant() * temperature) if phase == "two-phase"
+         else state.compressibility_factor())
+    _guard_z(z, phase, names, pressure, temperature)
     if phase != "two-phase":
         notes = ("gas phase imposed: no bubble or dew point at this temperature",) if gas_known else ()
         quality = 0.0 if phase == "liquid" else 1.0
