@@ -9,6 +9,12 @@ re-flashed along the line where its drop needs it); each run moves the inlet pre
 property cache answers the inlet flash. Cases: water by quality (CoolProp, isenthalpic re-flash), and
 propane 0.6 / n-butane 0.4 at 10 bar abs, 50 degC through each mixture backend (the CoolProp ones fill the
 surface tension from thermo). The first line of each case (imports, databases) is not timed.
+
+A mixture line makes about two flashes (6-9 ms each with its phases): the inlet, and one on the march's 10 % grid
+for the size whose drop needs a march (none below the dew pressure). Measured on CPU time (process_time, least of 3
+medians of 10, a loaded machine): water 3.0 -> 3.2 ms (unchanged code), thermo 8.1 -> 6.0 ms (noise), gerg-2008 20.8
+-> 15.2 ms, coolprop-mixture 24.9 -> 14.0 ms, before and after the interpolated 10 % grid; this script prints wall
+time, which a loaded machine inflates.
 """
 
 from __future__ import annotations

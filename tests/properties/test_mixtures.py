@@ -133,8 +133,9 @@ def test_heos_natural_gas_matches_coolprop(mixture_backend: CoolPropMixtureBacke
 
 
 @pytest.mark.parametrize(("fluid", "pressure", "temperature", "message"), [
-    # water/methane at 300 K, 50 bar: CoolProp gives Z = -0.23 (measured here)
-    ("water:0.5, methane:0.5", 50e5, 300.0, r"compressibility factor Z = -0.2\d+"),
+    # water/methane at 300 K, 50 bar: a two-phase flash whose compressibility_factor() is -0.23 (CoolProp's Helmholtz
+    # energy at the bulk density; the bulk p/(rho R T) is 0.48, which the guard now takes): refused by its viscosity
+    ("water:0.5, methane:0.5", 50e5, 300.0, r"viscosity nan Pa s .* outside the plausible range"),
     # propane/n-butane 60/40 at 20 degC: 231 kg/m3 at 21.13 bar abs, 540 kg/m3 at 20 and 25 bar
     ("propane:0.6, n-butane:0.4", 21.13e5, T0 + 20.0, r"density 231.2\d+ kg/m3 .* a wrong root"),
     # water/methanol 80/20 mol at 25 degC: CoolProp 9.5 mPa s; measured mixtures are about 1.3 mPa s

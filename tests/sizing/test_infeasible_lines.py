@@ -118,7 +118,7 @@ def test_a_company_file_may_still_only_warn(host, tmp_path: Path):
     assert _verdict(result, "flashing").status == "warn" and result.status == "pass"
 
 
-MIXTURE = {"tag": "MX-1", "fluid": "n-hexane:0.5, n-heptane:0.5", "backend": "coolprop-mixture", "flow": "20 t/h",
+MIXTURE = {"tag": "MX-1", "fluid": "INCOMP::T66", "backend": "coolprop-mixture", "flow": "20 t/h",
            "pressure": "3 barg", "temperature": "25 degC", "length": "15 m", "service": "pump-suction",
            "source_pressure": "3 barg", "liquid_level": "3 m", "npsh_required": "3 m"}
 NO_BUBBLE = ("the vapour or bubble pressure is unknown (backend 'coolprop-mixture' gives none): name the fluid so that "
@@ -127,7 +127,7 @@ NO_BUBBLE = ("the vapour or bubble pressure is unknown (backend 'coolprop-mixtur
 
 
 def test_a_mixture_pump_suction_the_backend_cannot_judge_is_an_error_not_a_pass(sizer: Sizer):
-    # CoolProp's mixture backend gives no bubble pressure: NPSH margin and flashing cannot be judged.
+    # CoolProp's incompressible liquids have no vapour pressure: NPSH margin and flashing cannot be judged.
     result = sizer.run(line_from_row(MIXTURE))
     assert result.state is not None and result.state.source == "coolprop-mixture"
     assert result.state.bubble_pressure is None and result.state.vapour_pressure is None
@@ -137,6 +137,21 @@ def test_a_mixture_pump_suction_the_backend_cannot_judge_is_an_error_not_a_pass(
     statuses = {(v.criterion, v.status) for c in result.candidates for v in c.verdicts
                 if v.criterion in ("npsh-margin", "flashing")}
     assert statuses == {("npsh-margin", "error"), ("flashing", "error")}
+
+
+def test_a_coolprop_mixture_liquid_is_judged_at_coolprops_bubble_pressure(sizer: Sizer):
+    """A HEOS mixture's liquid state carries CoolProp's QT bubble pressure at T (source: CoolProp, the same mixture),
+    so NPSH margin and flashing judge it (they could not before)."""
+    from CoolProp import CoolProp as CP
+
+    result = sizer.run(line_from_row({**MIXTURE, "fluid": "n-hexane:0.5, n-heptane:0.5"}))
+    mix = CP.AbstractState("HEOS", "n-Hexane&n-Heptane")
+    mix.set_mole_fractions([0.5, 0.5])
+    mix.update(CP.QT_INPUTS, 0.0, 298.15)
+    assert result.state is not None and result.state.bubble_pressure == pytest.approx(mix.p(), rel=1e-9)
+    assert result.status in ("pass", "fail"), result.error
+    assert {v.status for c in result.candidates for v in c.verdicts
+            if v.criterion in ("npsh-margin", "flashing")} <= {"pass", "fail"}
 
 
 def test_the_same_mixture_checked_at_a_size_fails_and_says_why(sizer: Sizer):

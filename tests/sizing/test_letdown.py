@@ -73,3 +73,37 @@ def test_the_report_labels_a_two_phase_lines_acceleration_without_gas(sizer):
     assert "acceleration" in labels and "acceleration (gas)" not in labels
     liquid = [row[0] for row in _totals(sizer.run(line_from_row(HOT_WATER | {"length": "20 m"})))]
     assert "acceleration (gas)" in liquid
+
+
+MIXED_LIQUID = {"tag": "LD-MIX", "fluid": "propane:0.6, n-butane:0.4", "backend": "coolprop-mixture",
+                "flow": "12 t/h", "pressure": "14 bara", "temperature": "50 degC", "length": "300 m", "nps": "2",
+                "service": "letdown", "design_margin": "0 %"}
+
+
+def test_a_subcooled_mixture_letdown_flashes_where_the_liquid_gradient_reaches_its_bubble_pressure(sizer):
+    """Propane 0.6 / n-butane 0.4 (mole), liquid at 14 bar abs, 50 degC (bubble pressure 11.77 bar abs). Outside
+    references: CoolProp's QT bubble pressure and PT liquid density and viscosity of the same HEOS mixture, fluids'
+    Colebrook friction factor, Darcy-Weisbach."""
+    from CoolProp import CoolProp as CP
+    from fluids.friction import friction_factor
+
+    result = sizer.run(line_from_row(MIXED_LIQUID))
+    assert result.status in ("pass", "fail"), result.error
+    h, pipe = result.selected.hydraulics, result.selected.candidate
+    mix = CP.AbstractState("HEOS", "n-Propane&n-Butane")
+    mix.set_mole_fractions([0.6, 0.4])
+    mix.update(CP.QT_INPUTS, 0.0, 323.15)
+    bubble = mix.p()
+    mix.update(CP.PT_INPUTS, 14e5, 323.15)
+    rho, mu = mix.rhomass(), mix.viscosity()
+    v = (12000 / 3600) / (rho * math.pi * pipe.inside_diameter**2 / 4)
+    f = friction_factor(Re=rho * v * pipe.inside_diameter / mu, eD=pipe.roughness / pipe.inside_diameter,
+                        Method="Colebrook")
+    gradient = f * rho * v * v / (2 * pipe.inside_diameter)
+    assert result.state is not None and result.state.phase == "liquid"
+    assert result.state.bubble_pressure == pytest.approx(bubble, rel=1e-9)
+    two = h.two_phase
+    assert two is not None and two.flash_point == pytest.approx((14e5 - bubble) / gradient, rel=0.01)
+    assert 0 < two.flash_point < 300 and not h.choked and h.outlet_pressure < bubble
+    assert two.outlet_vapour_fraction is not None and 0 < two.outlet_vapour_fraction < 1
+    assert "letdown: liquid for" in h.method and "then two-phase" in h.method

@@ -36,13 +36,15 @@ REGIME_NAMES = ("stratified smooth", "stratified wavy", "intermittent", "annular
 FITTINGS_METHOD = ("homogeneous two-phase multiplier, K rho_m v_m^2/2 at the no-slip density (Collier & Thome, "
                    "Convective Boiling and Condensation, 3rd ed., 1994)")
 _REEVALUATE = 0.02  # re-flash when the pressure has fallen 2 % since the last flash (a pure fluid's HmassP flash)
-#: a mixture's flash (a CoolProp HEOS PT flash takes 25-35 ms) is redone each 5 % of pressure fall, on the same grid
-#: for every size of the line (cached by the backend)
-# measured (benchmarks/bench_two_phase.py, propane 0.6 / n-butane 0.4, 10 bar abs, 50 degC, median of 10, 2 cores
-# shared): 2 % -> 5 %: coolprop-mixture 447 -> 61 ms a line, gerg-2008 331 -> 69 ms; water by quality unchanged
-# (9.8 ms, its HmassP flash keeps 2 %). The inlet's own HEOS PT flash takes 25-35 ms, so 20 ms is out of reach for
-# a line whose inlet is not already cached.
-_REEVALUATE_SLOW = 0.05
+#: a mixture's flash (a CoolProp HEOS PT flash: 6-9 ms with its phases) is made at the inlet pressure times
+#: (1 - 10 %)^k, a grid shared by every size of the line (cached by the backend), and the properties are linearly
+#: interpolated in pressure between the flashes that bracket the local pressure; below the state's dew pressure at
+#: T (the mixture all gas there) no flash is made, the last two-phase one held.
+# measured: coolprop-mixture 24.9 -> 14.0 ms a line, gerg-2008 20.8 -> 15.2 ms (3 -> 2 flashes a line; CPU, least of
+# 3 medians of 10 lines, loaded machine: benchmarks/bench_two_phase.py's cases timed by process_time, main at e8854d3
+# against this) for a 5 % grid holding each flash's properties; and closer to a march re-flashed at every segment
+# (tests/hydraulics/test_two_phase_march.py: within 0.2 % and 1 %, where the held 5 % grid gave 15 % low)
+_REEVALUATE_SLOW = 0.10
 _MARCH = 0.05  # march in segments when the drop is above 5 % of the inlet pressure
 _SEGMENTS = 20
 
@@ -311,14 +313,28 @@ def _march(line: Line, name: str, m: float, inlet: _Phases, bore: tuple[float, f
     along = properties is not None and segments > 1 and state.source != "table"
     how = str(getattr(properties, "label", f"at (p, inlet T = {line.temperature:.5g} K), isothermal"))
     held = ""
-    every = _REEVALUATE if getattr(properties, "cheap", False) else _REEVALUATE_SLOW
+    cheap = getattr(properties, "cheap", False)
+    every = _REEVALUATE if cheap else _REEVALUATE_SLOW
+    nodes = [(line.pressure, inlet)]  # a mixture's flashes, highest pressure first, interpolated between
     for i in range(segments):
-        if along and not held and p < p_flash * (1 - every):
+        if along and not held and cheap and p < p_flash * (1 - every):
             p_flash = _grid(line.pressure, p, every)  # on a grid, so the sizes of one line share their flashes (cached)
             new, held = _reflash(properties, p_flash, line)
             if new is not None:
                 ph = _phases(new, line.tag)
                 out.outlet_x = ph.x
+        elif along and not cheap:
+            while not held and p < nodes[-1][0]:
+                node = _grid_below(line.pressure, p, every)
+                if state.dew_pressure is not None and node < state.dew_pressure:
+                    held = (f"below the dew pressure {state.dew_pressure / 1e5:.4g} bar abs at T the mixture is all "
+                            f"gas")
+                    break
+                new, held = _reflash(properties, node, line)
+                if new is not None:
+                    nodes.append((node, _phases(new, line.tag)))
+            ph = _interpolate(nodes, p)
+            out.outlet_x = ph.x
         step = _segment(name, m, ph, p, bore, dx, dz, line.tag)[0]
         drop = step.friction + step.static + step.acceleration
         if not math.isfinite(drop) or drop >= p:
@@ -328,18 +344,41 @@ def _march(line: Line, name: str, m: float, inlet: _Phases, bore: tuple[float, f
                        "critical two-phase flow)" if math.isinf(step.acceleration) else
                        "the correlation gives no finite drop there")
             out.friction += step.friction * (out.reached - i * dx) / dx if dx > 0 else 0.0
-            out.note = _note(segments, how, held, along, every) + " until the line could not flow"
+            out.note = _note(segments, how, held, along, every, cheap) + " until the line could not flow"
             return out
         out.friction += step.friction
         out.static += step.static
         out.acceleration += step.acceleration
         p -= drop
         out.reached = (i + 1) * dx
-    if along and not held and p < p_flash and getattr(properties, "cheap", False):  # the outlet's own quality
+    if along and not held and p < p_flash and cheap:  # the outlet's own quality
         new, held = _reflash(properties, p, line)
         out.outlet_x = new.vapour_fraction if new is not None else out.outlet_x
-    out.note = _note(segments, how, held, along, every)
+    elif along and not cheap and len(nodes) > 1:
+        out.outlet_x = _interpolate(nodes, p).x  # the outlet's, where the flashes bracket it (else the lowest's)
+    out.note = _note(segments, how, held, along, every, cheap)
     return out
+
+
+def _grid_below(inlet: float, p: float, every: float) -> float:
+    """The highest pressure [Pa abs] of the grid inlet * (1 - every)^k at or below ``p``."""
+    k = math.ceil(math.log(p / inlet) / math.log(1.0 - every))
+    return inlet * (1.0 - every) ** k
+
+
+def _interpolate(nodes: list[tuple[float, _Phases]], p: float) -> _Phases:
+    """The properties at ``p`` [Pa abs], linear in pressure between the two flashes (highest pressure first) that
+    bracket it; the nearest flash's outside them (above the inlet on a downhill line, below the last flash)."""
+    if p >= nodes[0][0]:
+        return nodes[0][1]
+    for (p_hi, hi), (p_lo, lo) in zip(nodes, nodes[1:]):
+        if p >= p_lo:
+            w = (p_hi - p) / (p_hi - p_lo)
+            sigma = (hi.sigma + w * (lo.sigma - hi.sigma)) if hi.sigma is not None and lo.sigma is not None else \
+                (hi.sigma if w < 0.5 else lo.sigma)
+            return _Phases(hi.x + w * (lo.x - hi.x), hi.rhol + w * (lo.rhol - hi.rhol), hi.rhog + w * (lo.rhog - hi.rhog),
+                           hi.mul + w * (lo.mul - hi.mul), hi.mug + w * (lo.mug - hi.mug), sigma)
+    return nodes[-1][1]
 
 
 def _grid(inlet: float, p: float, every: float = _REEVALUATE) -> float:
@@ -349,9 +388,13 @@ def _grid(inlet: float, p: float, every: float = _REEVALUATE) -> float:
     return inlet * (1.0 - every) ** k
 
 
-def _note(segments: int, how: str, held: str, along: bool, every: float = _REEVALUATE) -> str:
+def _note(segments: int, how: str, held: str, along: bool, every: float = _REEVALUATE, cheap: bool = True) -> str:
     if segments == 1:
         return "at the inlet (drop within 5 % of the inlet pressure: one segment)"
+    if not cheap and along:
+        grid = (f"re-flashed {how} at the inlet pressure times {1 - every:g}^k, linearly interpolated in pressure "
+                f"between those flashes")
+        return f"{grid}, then held: {held}" if held else grid
     if held:
         return f"re-flashed {how} each {every:.0%} of pressure fall, then held: {held}"
     if along:

@@ -15,14 +15,15 @@ the ``aqueous`` backend first (:mod:`boresize.properties.aqueous`: the same fits
 
 Guards on HEOS mixture states (each a :class:`~boresize.errors.PropertyError` naming the backend and
 the value): compressibility factor Z <= 0, or outside 0.05..2 for a gas (Z = 163 for methane/n-decane
-and Z < 0 for water/methane were measured); a viscosity that is not a finite number; a liquid whose
+and Z < 0 for water/methane were measured; a two-phase state's Z is its bulk p / (rho R T)); a viscosity that is not a finite number; a liquid whose
 density differs by more than 10 % from the densities at 0.9 and 1.1 times the pressure (a wrong root:
 propane/n-butane 60/40 at 20 degC gives 231 kg/m3 from 20.5 to 21.5 bar abs and 540 kg/m3 at 20 and 22
 bar abs); a liquid viscosity more
 than a factor 2 from the logarithmic mixing of its components' own CoolProp viscosities (CoolProp's
 liquid-mixture viscosity gave 9.5 mPa s for water/methanol 80/20 mol at 25 degC). A two-phase state
 carries the homogeneous density and the McAdams viscosity of its phases, each evaluated with its phase
-imposed. Speed: after a few gas states of one mixture at one temperature with no bubble or dew point
+imposed, and its bubble and dew pressures at T (CoolProp's QT saturation; a liquid state its bubble pressure, so
+``flashing``, ``npsh-margin`` and a letdown line judge it). Speed: after a few gas states of one mixture at one temperature with no bubble or dew point
 there, later gas states at that temperature are evaluated with the gas phase imposed (about 50 times
 faster), see :mod:`boresize.properties.coolprop_heos`.
 
@@ -111,6 +112,7 @@ class CoolPropMixtureBackend:
         self._cached = functools.lru_cache(maxsize=cache_size)(self._compute)
         self._gas_flashes: collections.Counter[tuple[Any, ...]] = collections.Counter()
         self._gas_known: set[tuple[Any, ...]] = set()
+        self._saturation: dict[tuple[Any, ...], tuple[float | None, float | None]] = {}
 
     def version(self) -> str:
         """CoolProp's version (no import)."""
@@ -196,6 +198,7 @@ class CoolPropMixtureBackend:
         except ValueError as exc:
             raise PropertyError(f"coolprop-mixture: CoolProp failed for {label} at "
                                 f"{describe_conditions(pressure, temperature)}: {exc}") from None
+        bubble, dew = self._bubble_dew(names, key, pressure, point.phase)
         notes = ((note,) if note else ()) + point.notes
         model = (f"CoolProp {_coolprop_version()} HEOS mixture (multi-fluid Helmholtz model, GERG-2008 parameters "
                  f"where available); at {describe_conditions(pressure, temperature)}" + "".join(f"; {n}" for n in notes))
@@ -204,8 +207,39 @@ class CoolPropMixtureBackend:
                           molar_mass=state.molar_mass(), fluid_name=label, backend_version=_coolprop_version(),
                           eos="HEOS", pressure=pressure, temperature=temperature,
                           composition=tuple(zip(names, zs)), notes=notes, family="mixture (CoolProp HEOS, named)",
+                          bubble_pressure=bubble, dew_pressure=dew,
                           validity="CoolProp's multi-fluid model where its binary parameters are fitted (GERG-2008 "
                                    "pairs); estimated elsewhere", **point.phase_fields())
+
+    def _bubble_dew(self, names: tuple[str, ...], key: tuple[Any, ...], pressure: float, phase: str
+                    ) -> tuple[float | None, float | None]:
+        """(bubble, dew) pressure [Pa abs] of a liquid or two-phase state by CoolProp's QT saturation of the mixture
+        at the key's temperature (about 0.4 ms each, once per mixture and temperature); None where CoolProp finds
+        none or where it contradicts the state (a liquid lies above its bubble pressure, a two-phase state between
+        the two; a retrograde mixture's other dew point is not the one). The march of a two-phase line makes no flash
+        below the dew pressure (all gas there); a liquid letdown line flashes at the bubble pressure, and
+        ``flashing`` and ``npsh-margin`` judge a liquid against it. None for a gas (not needed; not computed)."""
+        from CoolProp import CoolProp as CP
+
+        if phase not in ("liquid", "two-phase"):
+            return None, None
+        if key not in self._saturation:
+            _, fractions, basis, temperature = key
+            state = self._heos_phases(names)
+            found: list[float | None] = []
+            for quality in (0.0, 1.0):
+                try:
+                    set_fractions(state, fractions, basis)
+                    state.update(CP.QT_INPUTS, quality, temperature)
+                    found.append(float(state.p()))
+                except ValueError:
+                    found.append(None)
+            self._saturation[key] = (found[0], found[1])
+        bubble, dew = self._saturation[key]
+        if phase == "liquid":
+            return (bubble if bubble is not None and 0.0 < bubble < pressure else None), None
+        return (bubble if bubble is not None and bubble > pressure else None,
+                dew if dew is not None and 0.0 < dew < pressure else None)
 
     def _heos_phases(self, names: tuple[str, ...]) -> Any:
         """A second AbstractState of the same components, for the phases of a two-phase state."""
