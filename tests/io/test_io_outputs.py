@@ -54,7 +54,7 @@ def test_json_mode_puts_the_summary_on_stderr(capsys):
     assert code == 0
     # no timings unless asked for (--timings): the same input gives the same document
     assert json.loads(captured.out)["summary"] == {"lines": 1, "pass": 1, "fail": 0, "error": 0, "bare_pressure": 0}
-    assert "1 lines: 1 pass, 0 fail, 0 error" in captured.err
+    assert "1 line: 1 pass, 0 fail, 0 error" in captured.err
     assert "1/1" in captured.err  # the progress bar, asked for
 
 

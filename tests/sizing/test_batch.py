@@ -183,3 +183,11 @@ def test_check_mode_with_corroded_roughness_and_a_given_schedule(host, water_siz
 def _items(pairs):  # type: ignore[no-untyped-def]
     """The lines of (row, units) pairs, read as the run reads them."""
     return line_items(pairs).items
+
+
+def test_the_summary_says_line_for_one_line_and_lines_for_more() -> None:
+    from boresize.sizing.batch import summary_text
+
+    assert summary_text(1, 1, 0, 0, 0) == "1 line: 1 pass, 0 fail, 0 error"
+    assert summary_text(0, 0, 0, 0, 0) == "0 lines: 0 pass, 0 fail, 0 error"
+    assert summary_text(2, 1, 1, 0, 0) == "2 lines: 1 pass, 1 fail, 0 error"

@@ -127,7 +127,7 @@ def _sha256(path: str) -> str:
 
 def _counts(results: Sequence[LineResult]) -> str:
     counted = {status: sum(1 for r in results if r.status == status) for status in ("pass", "fail", "error")}
-    return (f"{len(results)} lines sized: {counted['pass']} pass, {counted['fail']} fail, "
+    return (f"{len(results)} line{'' if len(results) == 1 else 's'} sized: {counted['pass']} pass, {counted['fail']} fail, "
             f"{counted['error']} error")
 
 

@@ -49,7 +49,7 @@ def render_table(results: Sequence[LineResult], criteria_source: str, criteria_s
     out.insert(1, "  ".join("-" * w for w in widths))
     counts = {s: sum(1 for r in results if r.status == s) for s in ("pass", "fail", "error")}
     out.append("")
-    out.append(f"{len(results)} lines: {counts['pass']} pass, {counts['fail']} fail, {counts['error']} error"
+    out.append(f"{len(results)} line{'' if len(results) == 1 else 's'}: {counts['pass']} pass, {counts['fail']} fail, {counts['error']} error"
                f"{bare_pressure_text(results)}   "
                f"(criteria: {printable(criteria_source)}, set {printable(criteria_set)})")
     details = [r for r in results if r.status != "pass" or r.notes]

@@ -492,6 +492,6 @@ def summary(results: Sequence[LineResult]) -> str:
 
 def summary_text(lines: int, passed: int, failed: int, errors: int, bare: int) -> str:
     """:func:`summary`'s line from its counts (a run that kept counts instead of results, ``count_only``)."""
-    return f"{lines} lines: {passed} pass, {failed} fail, {errors} error" + bare_pressure_note(bare)
+    return f"{lines} line{'' if lines == 1 else 's'}: {passed} pass, {failed} fail, {errors} error" + bare_pressure_note(bare)
 
 
