@@ -209,3 +209,34 @@ def test_the_cases_of_a_line_stand_side_by_side_in_one_table(demo):
     assert "Input (as given" not in section and "As used" not in section  # no repeated input blocks
     single = html[html.index('id="line-1"'):html.index('id="line-2"')]
     assert "Input (as given" in single and "Cases side by side" not in single
+
+
+def test_a_long_list_keeps_every_line_in_the_summary_and_says_which_records_it_left_out(demo):
+    # The demo's 10 lines with a limit of 4 records: every fail and error line keeps its record first, then the
+    # first passing lines; every line stays in the summary table, and the page counts what it left out.
+    _, results, trace = demo
+    html = render_html(results, trace=trace, title="demo", max_records=4, max_plots=2)
+    parsed = _parse(html)
+    text = " ".join(parsed.text)
+    not_passing = [i for i, r in enumerate(results) if r.status != "pass"]
+    assert not_passing and len(not_passing) < 4
+    kept = not_passing + [i for i, r in enumerate(results) if r.status == "pass"][:4 - len(not_passing)]
+    for i, result in enumerate(results):
+        record = f'id="line-{i + 1}"' in html
+        assert record == (i in kept), result.tag
+        assert (f'href="#line-{i + 1}"' in html) == record  # no link to a record the page does not hold
+        assert result.tag in text  # still in the summary table
+    summary_rows = [row for row in _tables(html)[0 if 'id="document"' not in html else 1][1:]]
+    assert len(summary_rows) == len(results)
+    counts = {s: sum(1 for i, r in enumerate(results) if r.status == s and i not in kept) for s in ("pass", "fail")}
+    assert (f"the calculation records of 4 of {len(results)} lines" in text
+            and f"the records of {len(results) - 4} lines ({counts['pass']} pass)" in text)
+    assert parsed.tags.count("svg") == 2 and "plots are drawn in the first 2 records only" in text
+    # the print heading numbers a record by its place in the list, not among the records shown
+    assert f"line {kept[-1] + 1} of {len(results)}" in text
+
+
+def test_a_list_within_the_limit_leaves_nothing_out(demo):
+    html, results, _ = demo
+    assert "Left out." not in html and "left out" not in html
+    assert all(f'id="line-{i + 1}"' in html for i in range(len(results)))

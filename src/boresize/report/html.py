@@ -27,6 +27,10 @@ __all__ = ["MAX_PLOTS", "render_html", "write_html"]
 
 #: Lines that get a plot; a longer list is still reported in full, with a note (plots cost ~0.1 s each).
 MAX_PLOTS = 300
+#: Lines that get a full calculation record on the page; a longer list keeps every line in its summary table and the
+#: records of its failing and error lines first, then its first passing lines, and says how many it left out (a page
+#: of 50,000 records is one no reader or browser can use; every record is in the JSON and JSON Lines outputs).
+MAX_RECORDS = 500
 
 
 _FLOW_UNITS = {"mass": "kg/h", "volume": "m3/h at line conditions", "standard-volume": "m3/h", "molar": "kmol/h"}
@@ -302,10 +306,13 @@ def _verdicts(case: LineResult) -> list[dict[str, str]]:
 
 
 def _line_view(result: LineResult, headers: Mapping[str, str], units: Mapping[str, str | None],
-               plot: bool) -> dict[str, Any]:
+               plot: bool, number: int = 1, record: bool = True) -> dict[str, Any]:
+    """The template's view of one line: its summary row, and its calculation record when ``record``."""
     from boresize.report.plot import line_plot_svg
 
-    sel, chosen = result.selected, result.selected.candidate.nps if result.selected else None
+    chosen = result.selected.candidate.nps if result.selected else None
+    if not record:
+        return {**_summary_view(result), "number": number, "record": False, "cases": [], "plot": None, "side": None}
     cases: list[dict[str, Any]] = [{"name": case_name(c) or "", "status": c.status, "error": c.error if result.cases else None,
               "given": _given(c, headers, units), "used": _used(c), "candidates": _window(c.candidates, chosen),
               "verdicts": _verdicts(c), "two_phase": _two_phase(c), "totals": _totals(c), "fittings": _fittings(c),
@@ -313,6 +320,13 @@ def _line_view(result: LineResult, headers: Mapping[str, str], units: Mapping[st
     side = _side_by_side(case_rows(result), cases) if len(cases) > 1 else None
     for case in cases if side else ():  # the inputs and key results are in the side-by-side table
         case["given"], case["used"] = [], []
+    return {**_summary_view(result), "number": number, "record": True, "cases": cases,
+            "plot": line_plot_svg(result) if plot else None, "side": side}
+
+
+def _summary_view(result: LineResult) -> dict[str, Any]:
+    """A line's summary-table values (and what its record heading shows)."""
+    sel = result.selected
     return {"tag": result.tag, "status": result.status, "mode": result.mode, "service": result.service or "-",
             "case_count": len(result.cases) or 1, "nps": sel.candidate.nps if sel else "",
             "schedule": sel.candidate.schedule if sel else "",
@@ -325,8 +339,7 @@ def _line_view(result: LineResult, headers: Mapping[str, str], units: Mapping[st
             "temperature": "-" if result.line is None else f"{result.line.temperature - 273.15:.1f}",
             "controlling": _controlling(result), "utilisation": _pct(controlling_utilisation(result)[0]),
             "case": case_name(result) if result.cases else "", "governing": list(result.governing),
-            "error": result.error, "notes": list(result.notes), "cases": cases,
-            "plot": line_plot_svg(result) if plot else None, "side": side}
+            "error": result.error, "notes": list(result.notes)}
 
 
 def _union(lists: Sequence[Sequence[tuple[str, str, str]]]) -> list[tuple[str, str]]:
@@ -390,8 +403,11 @@ def _trace_rows(trace: Mapping[str, Any]) -> list[tuple[str, str]]:
 
 def render_html(results: Sequence[LineResult], *, trace: Mapping[str, Any], title: str,
                 headers: Sequence[str] | None = None, units: Mapping[str, str | None] | None = None,
-                max_plots: int = MAX_PLOTS, document: DocumentBlock | None = None) -> str:
-    """The report as one HTML string (no external files, scripts or fonts)."""
+                max_plots: int = MAX_PLOTS, document: DocumentBlock | None = None,
+                max_records: int = MAX_RECORDS) -> str:
+    """The report as one HTML string (no external files, scripts or fonts): every line in the summary table, the
+    calculation records of at most ``max_records`` lines (failing and error lines first, then the first passing
+    ones; the page says how many it left out), plots in the first ``max_plots`` records."""
     from boresize.optional import needs
 
     with needs("the HTML report"):
@@ -400,18 +416,48 @@ def render_html(results: Sequence[LineResult], *, trace: Mapping[str, Any], titl
     from boresize.report.html_template import TEMPLATE
 
     by_field = {parse_header(h).field: h for h in headers or ()}
-    lines = [_line_view(r, by_field, units or {}, i < max_plots) for i, r in enumerate(results)]
+    kept = _kept_records(results, max_records)
+    lines, plotted = [], 0
+    for number, result in enumerate(results, start=1):
+        record = number - 1 in kept
+        lines.append(_line_view(result, by_field, units or {}, record and plotted < max_plots, number, record))
+        plotted += record
     cautions = [f"{r.tag}: {note}" for r in results for note in r.notes]
     cautions += [r.error for r in results if r.error]
     if two_phase_count(results):
         cautions.insert(0, TWO_PHASE_CAUTION)
-    if len(results) > max_plots:
-        cautions.append(f"plots are drawn for the first {max_plots} lines only")
+    if len(kept) > max_plots:
+        cautions.append(f"plots are drawn in the first {max_plots} records only")
+    left_out = _left_out_text(results, kept)  # shown under the summary line and above the records
     env = Environment(autoescape=True, undefined=StrictUndefined, trim_blocks=True, lstrip_blocks=True)
     return env.from_string(TEMPLATE).render(title=title, document=document.rows() if document else [],
                                             caution=CAUTION, summary=summary(results), lines=lines,
                                             cautions=cautions, two_phase_caution=TWO_PHASE_CAUTION,
+                                            left_out=left_out,
                                             trace=_trace_rows(trace))
+
+
+def _kept_records(results: Sequence[LineResult], limit: int) -> set[int]:
+    """Indices of the lines whose records the page shows: all of them up to ``limit``; past it the failing and
+    error lines first (in list order), then the first passing ones."""
+    if len(results) <= limit:
+        return set(range(len(results)))
+    order = [i for i, r in enumerate(results) if r.status != "pass"] + [i for i, r in enumerate(results)
+                                                                         if r.status == "pass"]
+    return set(order[:max(limit, 0)])
+
+
+def _left_out_text(results: Sequence[LineResult], kept: set[int]) -> str:
+    """What the page leaves out, by status ('' when nothing)."""
+    if len(kept) == len(results):
+        return ""
+    counts = {s: sum(1 for i, r in enumerate(results) if r.status == s and i not in kept)
+              for s in ("pass", "fail", "error")}
+    which = ", ".join(f"{n} {s}" for s, n in counts.items() if n)
+    return (f"this page shows the calculation records of {len(kept)} of {len(results)} lines (failing and error "
+            f"lines first, then the first passing ones); the records of {len(results) - len(kept)} lines ({which}) "
+            f"are left out: every line is in the summary table, and every record is in the JSON (--json, -o x.json) "
+            f"and JSON Lines (-o x.jsonl) outputs")
 
 
 def write_html(path: str | Path, results: Sequence[LineResult], **kwargs: Any) -> None:

@@ -60,6 +60,7 @@ table.document th { width: 8em; } td.tag { white-space: nowrap; } td.eq { font-f
 {% endif %}
 <p class="caution"><strong>Caution.</strong> {{ caution }}</p>
 <p>{{ summary }}</p>
+{% if left_out %}<p class="caution" id="left-out"><strong>Left out.</strong> {{ left_out }}.</p>{% endif %}
 
 <h2 id="summary">Summary</h2>
 <table>
@@ -67,7 +68,7 @@ table.document th { width: 8em; } td.tag { white-space: nowrap; } td.eq { font-f
 <th>P in [bar abs]</th><th>T [degC]</th><th>NPS</th><th>Sch</th>
 <th>v [m/s]</th><th>Total dP [kPa]</th><th>dP [kPa/100 m]</th><th>Controlling</th><th>Utilisation</th><th>Governing case</th></tr>
 {% for line in lines %}
-<tr><td class="tag"><a href="#line-{{ loop.index }}">{{ line.tag }}</a></td><td class="num">{{ line.case_count }}</td>
+<tr><td class="tag">{% if line.record %}<a href="#line-{{ line.number }}">{{ line.tag }}</a>{% else %}{{ line.tag }}{% endif %}</td><td class="num">{{ line.case_count }}</td>
 <td class="{{ line.status }}">{{ line.status }}</td><td>{{ line.mode }}</td><td>{{ line.service }}</td>
 <td>{{ line.fluid }}</td><td class="num">{{ line.flow }}</td><td class="num">{{ line.pressure }}</td>
 <td class="num">{{ line.temperature }}</td>
@@ -78,9 +79,10 @@ table.document th { width: 8em; } td.tag { white-space: nowrap; } td.eq { font-f
 </table>
 
 <h2 class="records-head">Calculation records</h2>
-{% for line in lines %}
-<div class="line" id="line-{{ loop.index }}">
-<div class="print-head">{% if title %}{{ title }}{% else %}line sizing report{% endif %}{% for name, value in document if name in ("unit", "date", "prepared", "checked", "approved") and value %} &middot; {{ name }} {{ value }}{% endfor %} &middot; line {{ loop.index }} of {{ lines | length }}</div>
+{% if left_out %}<p class="caution"><strong>Left out.</strong> {{ left_out }}.</p>{% endif %}
+{% for line in lines if line.record %}
+<div class="line" id="line-{{ line.number }}">
+<div class="print-head">{% if title %}{{ title }}{% else %}line sizing report{% endif %}{% for name, value in document if name in ("unit", "date", "prepared", "checked", "approved") and value %} &middot; {{ name }} {{ value }}{% endfor %} &middot; line {{ line.number }} of {{ lines | length }}</div>
 <h2>{{ line.tag }} <span class="{{ line.status }}">&nbsp;{{ line.status }}&nbsp;</span></h2>
 {% if line.error %}<p class="error">{{ line.error }}</p>{% endif %}
 {% if line.nps %}<p>Selected: NPS {{ line.nps }} Sch {{ line.schedule }} ({{ line.mode }});
