@@ -122,24 +122,32 @@ def build_result(line: Line, state: FluidState, service: Service, rated: tuple[C
 
 def controlling_below(rated: Sequence[Sequence[CandidateResult]], index: int) -> tuple[str, int] | None:
     """The criterion that fails on the size below ``index`` (the next smaller size) in any of a line's cases
-    (``rated``: per case, the candidates rated, in the same order), with the case's place: of the failing
-    verdicts there, the one with the highest utilisation (a fail without one before an error verdict).
+    (``rated``: per case, the candidates rated, in the same order), with the case's place. Of the verdicts that
+    fail there (a fail before an error verdict), the one whose criterion is nearest its limit at the size selected
+    (the highest utilisation there, in the same case): the binding one. Several criteria often fail on the size
+    below, and the one furthest past its limit there is not the one that binds (a short water line whose outlet
+    falls below zero absolute on the size below fails flashing without bound, yet at the size chosen its drop per
+    length is at 81 % and its flashing margin at 0.2 %). Ties, and criteria with no utilisation at the size
+    selected, go to the worst fail on the size below (no utilisation counting as unbounded).
     None when ``index`` is the first size rated (the smallest the pipe class allows: the scan always rates the
     size below the one it selects) or nothing fails there.
     """
     if index <= 0:
         return None
-    found: list[tuple[int, float, str, int]] = []
+    found: list[tuple[int, float, float, str, int]] = []
     for k, case in enumerate(rated):
+        above = {v.criterion: v.utilisation for v in case[index].verdicts} if index < len(case) else {}
         for verdict in case[index - 1].verdicts:
             if verdict.status in ("fail", "error"):
                 rank = 1 if verdict.status == "fail" else 0
-                found.append((rank, verdict.utilisation if verdict.utilisation is not None else math.inf,
+                there = above.get(verdict.criterion)
+                found.append((rank, there if there is not None and math.isfinite(there) else -math.inf,
+                              verdict.utilisation if verdict.utilisation is not None else math.inf,
                               verdict.criterion, k))
     if not found:
         return None
-    best = max(found, key=lambda item: (item[0], item[1]))
-    return best[2], best[3]
+    best = max(found, key=lambda item: (item[0], item[1], item[2]))
+    return best[3], best[4]
 
 
 def controlling_utilisation(result: LineResult) -> tuple[float | None, str | None]:
