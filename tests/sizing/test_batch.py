@@ -191,3 +191,43 @@ def test_the_summary_says_line_for_one_line_and_lines_for_more() -> None:
     assert summary_text(1, 1, 0, 0, 0) == "1 line: 1 pass, 0 fail, 0 error"
     assert summary_text(0, 0, 0, 0, 0) == "0 lines: 0 pass, 0 fail, 0 error"
     assert summary_text(2, 1, 1, 0, 0) == "2 lines: 1 pass, 1 fail, 0 error"
+
+
+class _LazyFuture:
+    """A future whose task runs when its result is asked for (any object with result() is one to run_items)."""
+
+    def __init__(self, events: list[str], fn, args) -> None:  # type: ignore[no-untyped-def]
+        self.events, self.fn, self.args = events, fn, args
+
+    def result(self):  # type: ignore[no-untyped-def]
+        self.events.append(f"chunk of {len(self.args[1])}")
+        return self.fn(*self.args)
+
+
+class _LazyExecutor:
+    def __init__(self, events: list[str]) -> None:
+        self.events = events
+
+    def submit(self, fn, /, *args, **kwargs):  # type: ignore[no-untyped-def]
+        return _LazyFuture(self.events, fn, args)
+
+    def map(self, fn, *iterables, **kwargs):  # type: ignore[no-untyped-def]
+        return map(fn, *iterables)
+
+
+def test_a_parallel_run_applies_each_in_input_order_as_chunks_come_back_not_at_the_end():
+    # A run that streams its results (CSV, JSON Lines) or counts them hands each result on as soon as every earlier
+    # line is back, so it never holds every line's full result: here the first line is handed on before the
+    # second chunk is even run, and what each() returns None for is not kept.
+    text = "tag,fluid,flow,pressure,temperature\n" + "".join(
+        f"L{i},water,{10 + i} t/h,3 barg,20 degC\n" for i in range(6))
+    events: list[str] = []
+
+    def each(result):  # type: ignore[no-untyped-def]
+        events.append(result.tag)
+        return result if result.tag in ("L0", "L5") else None
+
+    kept = run_items(_items(_rows(text)), SizerSpec(load_entry_points=False), executor=_LazyExecutor(events),
+                     chunk_size=2, each=each)
+    assert [r.tag for r in kept] == ["L0", "L5"]
+    assert events == ["chunk of 2", "L0", "L1", "chunk of 2", "L2", "L3", "chunk of 2", "L4", "L5"]
