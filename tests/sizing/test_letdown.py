@@ -76,7 +76,7 @@ def test_the_report_labels_a_two_phase_lines_acceleration_without_gas(sizer):
 
 
 MIXED_LIQUID = {"tag": "LD-MIX", "fluid": "propane:0.6, n-butane:0.4", "backend": "coolprop-mixture",
-                "flow": "12 t/h", "pressure": "14 bara", "temperature": "50 degC", "length": "300 m", "nps": "2",
+                "flow": "12 t/h", "pressure": "14 bara", "temperature": "50 degC", "length": "280 m", "nps": "2",
                 "service": "letdown", "design_margin": "0 %"}
 
 
@@ -104,6 +104,6 @@ def test_a_subcooled_mixture_letdown_flashes_where_the_liquid_gradient_reaches_i
     assert result.state.bubble_pressure == pytest.approx(bubble, rel=1e-9)
     two = h.two_phase
     assert two is not None and two.flash_point == pytest.approx((14e5 - bubble) / gradient, rel=0.01)
-    assert 0 < two.flash_point < 300 and not h.choked and h.outlet_pressure < bubble
+    assert 0 < two.flash_point < 280 and not h.choked and h.outlet_pressure < bubble
     assert two.outlet_vapour_fraction is not None and 0 < two.outlet_vapour_fraction < 1
     assert "letdown: liquid for" in h.method and "then two-phase" in h.method

@@ -455,7 +455,8 @@ def _left_out_text(results: Sequence[LineResult], kept: set[int]) -> str:
               for s in ("pass", "fail", "error")}
     which = ", ".join(f"{n} {s}" for s, n in counts.items() if n)
     return (f"this page shows the calculation records of {len(kept)} of {len(results)} lines (failing and error "
-            f"lines first, then the first passing ones); the records of {len(results) - len(kept)} lines ({which}) "
+            f"lines first, then the first passing ones); the records of {len(results) - len(kept)} "
+            f"line{'' if len(results) - len(kept) == 1 else 's'} ({which}) "
             f"are left out: every line is in the summary table, and every record is in the JSON (--json, -o x.json) "
             f"and JSON Lines (-o x.jsonl) outputs")
 
