@@ -84,12 +84,12 @@ def candidate_to_dict(c: CandidateResult) -> dict[str, Any]:
     }
 
 
-def result_to_dict(result: LineResult) -> dict[str, Any]:
-    """One line's entry in the JSON document (the contract's keys first)."""
+def _headline(result: LineResult) -> dict[str, Any]:
+    """The first keys of a line's entry after its tag: status, the size and its headline numbers, what controls
+    (shared by :func:`result_to_dict` and :func:`sheet_values`, in this order)."""
     sel, state = result.selected, result.state
     h = sel.hydraulics if sel else None
-    entry: dict[str, Any] = {
-        "tag": result.tag,
+    return {
         "status": result.status,
         "mode": result.mode,
         "nps": sel.candidate.nps if sel else None,
@@ -101,6 +101,15 @@ def result_to_dict(result: LineResult) -> dict[str, Any]:
         "viscosity_mpa_s": _r(state.viscosity * 1e3) if state else None,
         "controlling": result.controlling,
         "utilisation": _r(sel.worst.utilisation, 4) if sel and sel.worst else None,
+    }
+
+
+def result_to_dict(result: LineResult) -> dict[str, Any]:
+    """One line's entry in the JSON document (the contract's keys first)."""
+    sel = result.selected
+    entry: dict[str, Any] = {
+        "tag": result.tag,
+        **_headline(result),
         "verdicts": [verdict_to_dict(v) for v in sel.verdicts] if sel else [],
         "case": _case(result),
         "governing": dict(result.governing),
@@ -132,17 +141,7 @@ def sheet_values(result: LineResult) -> dict[str, Any]:
     h = sel.hydraulics if sel else None
     flow = _two_phase_flow(h.two_phase) if h is not None and h.two_phase is not None else {}
     return {
-        "status": result.status,
-        "mode": result.mode,
-        "nps": sel.candidate.nps if sel else None,
-        "schedule": sel.candidate.schedule if sel else None,
-        "inside_diameter_mm": _r(sel.candidate.inside_diameter * 1e3) if sel else None,
-        "velocity_m_s": _r(h.velocity) if h else None,
-        "dp_kpa_per_100m": _r(h.drop_per_length / 10.0) if h else None,
-        "density_kg_m3": _r(state.density) if state else None,
-        "viscosity_mpa_s": _r(state.viscosity * 1e3) if state else None,
-        "controlling": result.controlling,
-        "utilisation": _r(sel.worst.utilisation, 4) if sel and sel.worst else None,
+        **_headline(result),
         "error": result.error or None,
         "service": result.service,
         "criteria_set": result.criteria_set,
