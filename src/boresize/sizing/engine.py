@@ -53,6 +53,7 @@ class _Prepared(NamedTuple):
     notes: tuple[str, ...]
     start: float  # diameter the guided candidate scan starts from [m]
     judges: Judges  # the service's (criterion, options) pairs that apply to the fluid's phase
+    letdown: bool  # a liquid line its service rates as two-phase past its flash point (_letdown)
 
 
 class _StdoutToStderr:
@@ -154,10 +155,18 @@ class Sizer:
         mass_flow = mass_flow_of(self.host, line, state) * (1.0 + margin)
         converted = flow_note(line, state)
         notes += (converted,) if converted else ()
-        return _Prepared(line, state, service, pipe_class, mass_flow, margin, mode, notes,
-                         start_diameter(service, line, state, mass_flow,
-                                        line.roughness if line.roughness is not None else pipe_class.roughness),
-                         _applicable(service, state.phase))
+        start = start_diameter(service, line, state, mass_flow,
+                               line.roughness if line.roughness is not None else pipe_class.roughness)
+        letdown = _letdown(service, state)
+        if letdown and state.vapour_pressure is None and state.bubble_pressure is None:
+            # where it flashes is unknown: unevaluated is not a pass (a liquid-only service judges it by flashing)
+            raise InputError(f"service {service.name!r} rates a liquid line as two-phase past its bubble pressure, "
+                             f"which the {state.source} backend does not give for {line.fluid}",
+                             field="vapour_pressure", value="",
+                             expected="the line's vapour_pressure, a backend that gives it, or a liquid-only service"
+                             ).for_line(line.tag)
+        return _Prepared(line, state, service, pipe_class, mass_flow, margin, mode, notes, start,
+                         _applicable(service, state.phase), letdown)
 
     def _rate_all(self, p: _Prepared) -> tuple[CandidateResult, ...]:
         return self._rate_cases([p])[0]
@@ -213,15 +222,7 @@ class Sizer:
     def _rate(self, p: _Prepared, candidate: Candidate) -> CandidateResult:
         """Rate one candidate: a gas line whose drop exceeds the simple method's limit is marched, whatever its
         verdicts, so that every number it reports comes from the method its verdicts used."""
-        letdown = _letdown(p.service, p.state)
-        if letdown and p.state.vapour_pressure is None and p.state.bubble_pressure is None:
-            # where it flashes is unknown: unevaluated is not a pass (a liquid-only service judges it by flashing)
-            raise InputError(f"service {p.service.name!r} rates a liquid line as two-phase past its bubble pressure, "
-                             f"which the {p.state.source} backend does not give for {p.line.fluid}",
-                             field="vapour_pressure", value="",
-                             expected="the line's vapour_pressure, a backend that gives it, or a liquid-only service"
-                             ).for_line(p.line.tag)
-        hyd = self._hydraulics(p.line, p.state, candidate, p.mass_flow, p.service.two_phase_method, letdown)
+        hyd = self._hydraulics(p.line, p.state, candidate, p.mass_flow, p.service.two_phase_method, p.letdown)
         return CandidateResult(candidate, hyd, self._verdicts(p, candidate, hyd))
 
     def _hydraulics(self, line: Line, state: FluidState, candidate: Candidate, mass_flow: float,
