@@ -17,7 +17,7 @@ from __future__ import annotations
 import hashlib
 import sys
 import time
-from collections.abc import Callable, Collection, Iterable, Mapping, Sequence
+from collections.abc import Callable, Iterable, Mapping, Sequence
 from concurrent.futures import Executor
 from dataclasses import dataclass, field, replace
 from pathlib import Path
@@ -31,7 +31,7 @@ from boresize.io.document_block import DocumentBlock, document_block as as_docum
 from boresize.io.line_items import LazyItems
 from boresize.model import Line, LineResult
 from boresize.report.trace import Traceability, traceability
-from boresize.sizing.batch import ExecutorLike, SizerSpec, run_items, spec_for, summary, summary_text
+from boresize.sizing.batch import ExecutorLike, SizedItems, SizerSpec, run_items, spec_for, summary, summary_text
 from boresize.sizing.headroom import Headroom
 from boresize.units import BarePressure, bare_pressure_mode
 
@@ -228,10 +228,9 @@ class Run:
         """
         from boresize.api.output import WRITERS, write_run
 
-        if Path(path).suffix.lower() in set(WRITERS) - set(LEAN_OUTPUTS):  # an unknown one: write_run names it
-            self._need_full(f"writing {str(path)!r}")
-        if Path(path).suffix.lower() in WRITERS:
-            self._need_results(f"writing {str(path)!r}")
+        suffix = Path(path).suffix.lower()
+        if suffix in WRITERS:  # an unknown one: write_run names it
+            (self._need_results if suffix in LEAN_OUTPUTS else self._need_full)(f"writing {str(path)!r}")
         block = as_document_block(document)
         return write_run(path, self if block is None else replace(self, document_block=block))
 
@@ -520,7 +519,7 @@ def _from_text(text: str | bytes, source: str, parse_csv: Callable[[str, str], L
 
 
 def _read(lines: LineSource, units_row: bool | None, bare_pressure: BarePressure | None = None, lazy: bool = False,
-          ) -> tuple[LineList, Collection[Any], tuple[tuple[Cells, ...], ...] | None]:
+          ) -> tuple[LineList, SizedItems, tuple[tuple[Cells, ...], ...] | None]:
     """(the line list, the lines to size, each line's rows' cells) from any line source.
 
     :param lazy: the lines as :class:`~boresize.io.line_items.LazyItems` (parsed as they are sized, cells taken

@@ -132,9 +132,6 @@ class LazyItems:
     def __len__(self) -> int:
         return self._count
 
-    def __contains__(self, item: object) -> bool:  # a Collection; never asked by the batch runner
-        return False
-
     def __iter__(self) -> Iterator[LineItem]:
         while self._groups:
             group = self._groups.popleft()

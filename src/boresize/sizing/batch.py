@@ -25,7 +25,7 @@ import multiprocessing
 import sys
 import threading
 from collections import deque
-from collections.abc import Callable, Collection, Iterator, Sequence
+from collections.abc import Callable, Iterator, Sequence
 from concurrent.futures import Executor, Future, ProcessPoolExecutor, as_completed
 from concurrent.futures.process import BrokenProcessPool
 from contextlib import AbstractContextManager, contextmanager, nullcontext
@@ -40,7 +40,7 @@ from boresize.sizing import cases as _cases
 from boresize.sizing.engine import Sizer
 from boresize.sizing.selection import error_result
 
-__all__ = ["PROGRESS_THRESHOLD", "ExecutorLike", "Item", "executor_workers", "is_executor", "SizerSpec", "clear_sizers", "process_pool", "run_items", "run_chunks", "shared_sizer", "WORKER_DIED",
+__all__ = ["PROGRESS_THRESHOLD", "ExecutorLike", "Item", "executor_workers", "is_executor", "SizedItems", "SizerSpec", "clear_sizers", "process_pool", "run_items", "run_chunks", "shared_sizer", "WORKER_DIED",
            "size_item", "spec_for", "summary", "summary_text"]
 
 #: A run of at least this many lines shows a progress bar on a terminal without being asked [lines].
@@ -48,6 +48,15 @@ PROGRESS_THRESHOLD = 50
 #: One line to size: a Line, a row the reader could not read, or one line's cases (Lines or faults).
 Item = Union[Line, RowFault, Sequence[Union[Line, RowFault]]]
 _SIZERS: dict[SizerSpec, Sizer] = {}
+
+
+class SizedItems(Protocol):
+    """Lines that say how many they are and are read once, in order, as they are sized
+    (:class:`~boresize.io.line_items.LazyItems`); a sequence is one too."""
+
+    def __len__(self) -> int: ...
+
+    def __iter__(self) -> Iterator[Item]: ...
 
 
 @runtime_checkable
@@ -309,7 +318,7 @@ def _progress(total: int, show: bool | None, stream: TextIO | None) -> Iterator[
         yield lambda n: bar.advance(task, n)
 
 
-def run_items(items: Collection[Item], spec: SizerSpec | None = None, *, sizer: Sizer | None = None,
+def run_items(items: SizedItems, spec: SizerSpec | None = None, *, sizer: Sizer | None = None,
               executor: Executor | ExecutorLike | None = None, workers: int = 1, progress: bool | None = None,
               chunk_size: int | None = None, progress_stream: TextIO | None = None,
               retry_hint: str = "--workers 1", criterion_seconds: dict[str, float] | None = None,
