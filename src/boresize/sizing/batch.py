@@ -37,7 +37,7 @@ from boresize.errors import BoresizeError, InputError
 from boresize.io.line_items import RowFault
 from boresize.model import Line, LineResult, bare_pressure_count, bare_pressure_note
 from boresize.sizing import cases as _cases
-from boresize.sizing.engine import Sizer
+from boresize.sizing.engine import RATED_ABOVE, Sizer
 from boresize.sizing.selection import error_result
 
 __all__ = ["PROGRESS_THRESHOLD", "ExecutorLike", "Item", "executor_workers", "is_executor", "SizedItems", "SizerSpec", "clear_sizers", "process_pool", "run_items", "run_chunks", "shared_sizer", "WORKER_DIED",
@@ -110,6 +110,8 @@ class SizerSpec:
     :param load_entry_points: False to use only boresize's built-in plugins
     :param check_roughness: corroded roughness for checked lines [m], or None
     :param every_size: rate every size of the pipe class (see :class:`~boresize.sizing.engine.Sizer`)
+    :param sizes_above: sizes rated above the selected one for the record (see
+        :class:`~boresize.sizing.engine.Sizer`)
     :param criteria_digest: SHA-256 of the criteria file's bytes (None: no file, or it cannot be read)
     :param criteria_name: the criteria file as the caller named it: messages name it so where it is that file
     :param criteria_content: the criteria file's bytes as the caller read them (None: no file, or it cannot be
@@ -124,6 +126,7 @@ class SizerSpec:
     criteria_digest: str | None = None
     criteria_name: str | None = field(default=None, compare=False)
     criteria_content: bytes | None = field(default=None, compare=False, repr=False)
+    sizes_above: int = RATED_ABOVE
 
     def build(self) -> Sizer:
         from boresize.plugins import PluginHost
@@ -133,7 +136,8 @@ class SizerSpec:
         named = self.criteria_name
         path = named if named and str(Path(named).resolve()) == self.criteria_file else self.criteria_file
         config = None if path is None else load_config(host, path, self.criteria_content)
-        return Sizer(host, config, check_roughness=self.check_roughness, every_size=self.every_size)
+        return Sizer(host, config, check_roughness=self.check_roughness, every_size=self.every_size,
+                     sizes_above=self.sizes_above)
 
 
 def shared_sizer(spec: SizerSpec) -> Sizer:
@@ -159,18 +163,19 @@ def clear_sizers() -> None:
 
 
 def spec_for(criteria_file: str | Path | None, load_entry_points: bool, check_roughness: float | None, *,
-             every_size: bool = False) -> SizerSpec:
+             every_size: bool = False, sizes_above: int = RATED_ABOVE) -> SizerSpec:
     """A spec with the criteria file's bytes as they are now (sent to workers by content) and their digest; the
     path made absolute names the file in messages."""
     if not criteria_file:
-        return SizerSpec(None, load_entry_points, check_roughness, every_size)
+        return SizerSpec(None, load_entry_points, check_roughness, every_size, sizes_above=sizes_above)
     path = Path(criteria_file).resolve()
     try:
         content: bytes | None = path.read_bytes()
     except OSError:  # the sizer's build names the file it cannot read
         content = None
     digest = None if content is None else hashlib.sha256(content).hexdigest()
-    return SizerSpec(str(path), load_entry_points, check_roughness, every_size, digest, str(criteria_file), content)
+    return SizerSpec(str(path), load_entry_points, check_roughness, every_size, digest, str(criteria_file), content,
+                     sizes_above)
 
 
 def size_item(sizer: Sizer, item: Item) -> LineResult:

@@ -93,15 +93,22 @@ class Sizer:
         ``roughness`` of their own (a corroded existing line); None keeps the pipe class's
     :param every_size: rate every size of the pipe class from the smallest (slower; the record then shows
         all the sizes below the selected one) instead of the guided scan of :mod:`boresize.sizing.scan`
+    :param sizes_above: sizes rated above the selected one, for the record only (:data:`RATED_ABOVE`, the
+        default; 0 for a run whose outputs show only the selected size: same selection, same numbers, fewer
+        candidates in ``LineResult.candidates``)
     """
 
     def __init__(self, host: PluginHost | None = None, config: SizingConfig | None = None,
                  criteria_file: str | Path | None = None, *, check_roughness: float | None = None,
-                 every_size: bool = False) -> None:
+                 every_size: bool = False, sizes_above: int = RATED_ABOVE) -> None:
+        if isinstance(sizes_above, bool) or not isinstance(sizes_above, int) or sizes_above < 0:
+            raise InputError(f"sizes_above {sizes_above!r} is not a whole number of 0 or more", field="sizes_above",
+                             value=sizes_above, expected=f"0 or more sizes (default {RATED_ABOVE})")
         self.host = host or PluginHost.load()
         self.config = config or load_config(self.host, criteria_file)
         self.check_roughness = check_roughness
         self.every_size = every_size
+        self.sizes_above = sizes_above
         #: a failing check names the smallest passing size of its pipe class (rates the class: headroom's trials
         #: turn it off)
         self.name_passing_size = True
@@ -173,7 +180,7 @@ class Sizer:
 
     def _rate_cases(self, ready: Sequence[_Prepared]) -> list[tuple[CandidateResult, ...]]:
         """Rate every case's candidates around the smallest size that passes in every case, and
-        :data:`RATED_ABOVE` sizes above it (the record shows one size below to two above).
+        :attr:`sizes_above` sizes above it (the record shows one size below to two above by default).
 
         The guided scan (:mod:`boresize.sizing.scan`) starts near the first-guess diameter and walks; when it cannot
         prove its answer (a criterion without a known trend fails, an error verdict, nothing passes), or
@@ -191,7 +198,7 @@ class Sizer:
         trends = criterion_trends([c for p in ready for c, _ in p.service.criteria], pressures, candidates)
         span = rated_span(len(candidates), rate, trends, bisect_left([c.inside_diameter for c in candidates],
                                                                      max(p.start for p in ready)),
-                          every_size=self.every_size)
+                          every_size=self.every_size, above=self.sizes_above)
         return [tuple(memo[i][k] for i in range(span[0], span[1] + 1)) for k in range(len(ready))]
 
     def _candidates_of(self, line: Line, pipe_class: PipeClass) -> tuple[Candidate, ...]:

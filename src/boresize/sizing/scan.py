@@ -33,7 +33,8 @@ from boresize.model import PASSING_STATUSES, Candidate, CandidateResult, FluidSt
 __all__ = ["RATED_ABOVE", "SizeTrend", "criterion_trends", "declared_trend", "direction", "rated_span",
            "start_diameter", "trend_of"]
 
-#: Sizes rated above the selected one when sizing (the calculation record shows one below to two above).
+#: Sizes rated above the selected one when sizing, for the calculation record (one size below to two above); the
+#: selection needs none of them, so a run whose outputs show only the selected size rates none (``Sizer.sizes_above``).
 RATED_ABOVE = 2
 #: rate(i) -> the results of candidate ``i`` in every case of the line (rated once, then remembered).
 Rate = Callable[[int], Sequence[CandidateResult]]
@@ -111,15 +112,15 @@ def criterion_trends(criteria: Iterable[Any], pressures: Iterable[float],
 
 
 def rated_span(count: int, rate: Rate, trends: Mapping[str, SizeTrend | None], start: int, *,
-               every_size: bool = False) -> tuple[int, int]:
+               every_size: bool = False, above: int = RATED_ABOVE) -> tuple[int, int]:
     """(first, last) index of the candidates rated to select the smallest size that passes every case.
 
     The guided walk from index ``start`` when it can prove its answer, else (or with ``every_size``) every size
-    from the smallest up to :data:`RATED_ABOVE` past the first that passes. Indices between first and last
-    have all been rated through ``rate``.
+    from the smallest up to ``above`` (:data:`RATED_ABOVE` unless given; 0: none) past the first that passes.
+    Indices between first and last have all been rated through ``rate``.
     """
     if not every_size and count > 2:
-        span = _walk(count, rate, trends, min(start, count - 1))
+        span = _walk(count, rate, trends, min(start, count - 1), above)
         if span is not None:
             return span
     first_pass: int | None = None
@@ -127,12 +128,13 @@ def rated_span(count: int, rate: Rate, trends: Mapping[str, SizeTrend | None], s
         passed = all(r.passed for r in rate(i))
         if first_pass is None and passed:
             first_pass = i
-        if first_pass is not None and i - first_pass >= RATED_ABOVE:
+        if first_pass is not None and i - first_pass >= above:
             return 0, i
     return 0, count - 1
 
 
-def _walk(count: int, rate: Rate, trends: Mapping[str, SizeTrend | None], i: int) -> tuple[int, int] | None:
+def _walk(count: int, rate: Rate, trends: Mapping[str, SizeTrend | None], i: int,
+          above: int = RATED_ABOVE) -> tuple[int, int] | None:
     """Walk from index ``i`` to the smallest passing size; None when a step cannot be proved."""
     low = high = i
 
@@ -157,9 +159,9 @@ def _walk(count: int, rate: Rate, trends: Mapping[str, SizeTrend | None], i: int
         if below == 1:
             break
         i -= 1
-    for above in range(i + 1, min(i + RATED_ABOVE, count - 1) + 1):
-        rate(above)
-        high = max(high, above)
+    for larger in range(i + 1, min(i + above, count - 1) + 1):  # for the record only: selection is done
+        rate(larger)
+        high = max(high, larger)
     return low, high
 
 
