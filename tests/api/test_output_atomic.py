@@ -208,3 +208,15 @@ def test_a_run_killed_while_writing_leaves_the_earlier_file_intact(reference: Ru
     assert target.read_bytes() == earlier
     left = _leftovers(tmp_path)
     assert len(left) == 1 and left[0].startswith(f".same{suffix}.boresize-tmp-") and left[0].endswith(suffix)
+
+
+@pytest.mark.parametrize("bad", [5, None, b"results.csv", ["results.csv"], 1.5])
+def test_an_output_that_is_not_a_path_is_an_input_error_naming_it(reference: Run, tmp_path: Path, bad: object) -> None:
+    """Run.write and run_lines(stream=...) refuse a value that is not text or a Path with the field and the value,
+    not a TypeError from deep inside the path handling."""
+    for attempt in (lambda: reference.write(bad),  # type: ignore[arg-type]
+                    lambda: run_lines(LINES, CRITERIA, plugins=False, keep="selected", stream=[bad])):  # type: ignore[list-item]
+        with pytest.raises(InputError) as caught:
+            attempt()
+        assert caught.value.field == "output" and repr(bad) in str(caught.value) and "file path" in str(caught.value)
+    assert not list(tmp_path.iterdir())

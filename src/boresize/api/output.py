@@ -103,6 +103,9 @@ def check_output(path: str | Path, inputs: Iterable[str | Path] = ()) -> Path:
 
     :raises InputError: (field "output") naming the path and what is accepted
     """
+    if not isinstance(path, (str, os.PathLike)) or isinstance(os.fspath(path), bytes):
+        raise InputError(f"output {path!r} is not a file path", field="output", value=repr(path),
+                         expected=f"a file path (text or pathlib.Path) ending in {', '.join(OUTPUT_SUFFIXES)}")
     target = Path(path)
     if target.is_dir():
         raise InputError(f"{str(path)!r} is a folder", field="output", value=str(path),

@@ -227,9 +227,9 @@ class Run:
         :raises InputError: (field "output") an extension boresize does not write, a missing or unwritable
             folder, a read-only file, a file that cannot be written (the earlier one is then left as it was)
         """
-        from boresize.api.output import WRITERS, write_run
+        from boresize.api.output import WRITERS, check_output, write_run
 
-        suffix = Path(path).suffix.lower()
+        suffix = check_output(path).suffix.lower()  # a path that is not text or a Path: an InputError naming it
         if suffix in WRITERS:  # an unknown one: write_run names it
             (self._need_results if suffix in LEAN_OUTPUTS else self._need_full)(f"writing {str(path)!r}")
         block = as_document_block(document)
