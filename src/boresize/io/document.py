@@ -337,7 +337,10 @@ def _indent2(payload: Any) -> str:
     measured: 0.57 s to 0.38 s CPU for the 2,000-line document (13.7 MB; `boresize size lines-2000.csv
     --workers 1 --quiet --json`, the encoder timed alone in the process, least of 7). Writing containers of leaves with
     the C encoder (its item separator the indent) measured worse (0.52 s against 0.40 s: the test for leaves cost
-    more than the C encoder saved) and was left out."""
+    more than the C encoder saved) and was left out; so, again, were the C encoder for the leaf keys of each object
+    (the nested values cut out and written in by this walk: 0.32 s against 0.30 s) and for a list of flat objects in
+    one call (the verdicts), and appending a text or float item with its key in one string (0.288 s against 0.297 s):
+    escaping the text and writing the floats, which both ways share, is most of the time."""
     out: list[str] = []
     try:
         _put(payload, "\n", out)
