@@ -139,7 +139,7 @@ def test_parse_flow_gives_a_finite_flow_with_its_basis_or_an_error_of_the_tree(b
         except BoresizeError as exc:
             _check_error(exc, "flow")
             return
-        assert isinstance(flow, Flow) and flow.basis in ("mass", "volume", "standard-volume")
+        assert isinstance(flow, Flow) and flow.basis in ("mass", "volume", "standard-volume", "molar")  # molar: kmol/h, lbmol/h
         assert math.isfinite(flow.value), flow
         if flow.basis == "standard-volume":
             assert flow.reference_t and flow.reference_p and flow.reference_name, flow
