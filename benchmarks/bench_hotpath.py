@@ -11,9 +11,18 @@ With ``--trick NAME`` it measures one trick of the hot path instead: rounds with
 gain in % of the time without it:
 
 * ``stdout-swap``: the engine's counted swap of stdout to stderr instead of ``contextlib.redirect_stdout``.
+* ``lean-records``: ``dict-filled`` and ``one-text`` together, each under 10 % alone:
+* ``dict-filled``: the hot records (``Hydraulics``, ``Verdict``, ``CandidateResult``, ``FluidState``,
+  ``CriterionContext``) filled through their ``__dict__`` (``boresize.model.filled_through_dict``) instead of
+  the ``__init__`` ``@dataclass(frozen=True)`` writes, one ``object.__setattr__`` a field;
+* ``one-text``: ``criteria.limits.judge_range`` writes only the reason text it returns, not all three endings.
+
+With ``--rating`` a trick is measured on the rating of the candidates alone (``Sizer._rate_all``; each line's
+properties and service found outside the timing), the least of the rounds printed beside the medians.
 
     PYTHONPATH=src python benchmarks/bench_hotpath.py --lines 2000
     PYTHONPATH=src python benchmarks/bench_hotpath.py --trick stdout-swap --repeat 5
+    PYTHONPATH=src python benchmarks/bench_hotpath.py --trick lean-records --rating --repeat 11
 """
 
 from __future__ import annotations
@@ -32,15 +41,30 @@ sys.path.insert(0, str(Path(__file__).resolve().parent))
 
 from bench_scale import build_pure_list  # noqa: E402
 
+from boresize.criteria import drop_per_length, limits, mach, momentum, velocity  # noqa: E402
+from boresize.criteria.base import verdict  # noqa: E402
 from boresize.io.line_items import line_items  # noqa: E402
 from boresize.io.read import read_line_list  # noqa: E402
-from boresize.model import Line  # noqa: E402
+from boresize.model import PLAIN_INITS, Line  # noqa: E402
 from boresize.plugins import PluginHost  # noqa: E402
 from boresize.sizing.engine import Sizer  # noqa: E402
 
 import boresize.sizing.engine as engine  # noqa: E402
 
 CRITERIA = Path(__file__).resolve().parents[1] / "examples" / "demo-unit" / "criteria.toml"
+
+
+def rating_round(path: Path) -> tuple[float, float, int]:
+    """(CPU seconds reading and preparing, CPU seconds rating, lines) of one round that rates each line's
+    candidates alone (``Sizer._rate_all`` on each line made ready by ``Sizer._prepare`` outside the timing)."""
+    start = time.process_time()
+    items = line_items(read_line_list(path).pairs()).items
+    sizer = Sizer(PluginHost.load(load_entry_points=False), criteria_file=CRITERIA)
+    ready = [sizer._prepare(item) for item in items if isinstance(item, Line)]
+    begin = time.process_time()
+    for p in ready:
+        sizer._rate_all(p)
+    return begin - start, time.process_time() - begin, len(items)
 
 
 def one_round(path: Path) -> tuple[float, float, int]:
@@ -58,9 +82,34 @@ def one_round(path: Path) -> tuple[float, float, int]:
     return read - start, time.process_time() - begin, len(items)
 
 
+def _plain_judge_range(criterion: object, value_si: float, options: Any, noun: str, unit: str, scale: float,
+                       where: str = "") -> Any:
+    """``limits.judge_range`` before ``one-text``: the three endings of a reason written for every verdict."""
+    shown = value_si / scale
+    high, low = options.get("max"), options.get("min")
+    util_high = value_si / high if high else 0.0
+    util_low = low / value_si if low and value_si > 0 else (float("inf") if low else 0.0)
+    above, below, within = limits._limit_texts(unit, scale, high, low)
+    if high is not None and value_si > high:
+        return verdict(criterion, "fail", f"{noun} {shown:.3g}{above}{where}", value=shown, limit=high / scale,
+                       unit=unit, utilisation=util_high)
+    if low is not None and value_si < low:
+        return verdict(criterion, "fail", f"{noun} {shown:.3g}{below}{where}", value=shown, limit=low / scale,
+                       unit=unit, utilisation=util_low)
+    binding = high if util_high >= util_low else low
+    return verdict(criterion, "pass", f"{noun} {shown:.3g}{within}{where}", value=shown,
+                   limit=(binding or 0.0) / scale, unit=unit, utilisation=max(util_high, util_low))
+
+
+_DICT_FILLED = [(cls, "__init__", init) for cls, init in PLAIN_INITS.items()]
+_ONE_TEXT = [(module, "judge_range", _plain_judge_range) for module in (velocity, drop_per_length, momentum, mach)]
+
 #: trick -> (object, attribute, the value without the trick)
 OFF: dict[str, list[tuple[Any, str, Any]]] = {
     "stdout-swap": [(engine, "_QUIET", contextlib.redirect_stdout(sys.stderr))],
+    "dict-filled": _DICT_FILLED,
+    "one-text": _ONE_TEXT,
+    "lean-records": _DICT_FILLED + _ONE_TEXT,
 }
 
 
@@ -77,16 +126,19 @@ def switched_off(trick: str, off: bool) -> Iterator[None]:
             setattr(owner, name, value)
 
 
-def measure(trick: str, path: Path, repeat: int) -> None:
-    """Rounds with and without ``trick``, alternating which goes first."""
+def measure(trick: str, path: Path, repeat: int, rating: bool = False) -> None:
+    """Rounds with and without ``trick``, alternating which goes first; ``rating``: time the rating alone."""
+    round_of = rating_round if rating else one_round
     times: dict[bool, list[float]] = {True: [], False: []}
     for i in range(repeat):
         for off in ((False, True) if i % 2 else (True, False)):
             with switched_off(trick, off):
-                times[off].append(one_round(path)[1])
+                times[off].append(round_of(path)[1])
     on, off = statistics.median(times[False]), statistics.median(times[True])
-    print(f"{trick}: size {off:.3f} s CPU without, {on:.3f} s with (medians of {repeat}): "
-          f"{(off - on) / off:+.1%}")
+    least_on, least_off = min(times[False]), min(times[True])
+    print(f"{trick}: {'rate' if rating else 'size'} {off:.3f} s CPU without, {on:.3f} s with (medians of {repeat}): "
+          f"{(off - on) / off:+.1%}; least {least_off:.3f} s without, {least_on:.3f} s with: "
+          f"{(least_off - least_on) / least_off:+.1%}")
 
 
 def main() -> None:
@@ -94,12 +146,14 @@ def main() -> None:
     parser.add_argument("--lines", type=int, default=2000)
     parser.add_argument("--repeat", type=int, default=3)
     parser.add_argument("--trick", choices=sorted(OFF))
+    parser.add_argument("--rating", action="store_true", help="with --trick: time the rating of the candidates "
+                        "alone (each line's properties and service found outside the timing)")
     args = parser.parse_args()
     with tempfile.TemporaryDirectory() as folder:
         path = build_pure_list(args.lines, Path(folder))
         one_round(path)  # start-up: imports and registries
         if args.trick:
-            measure(args.trick, path, args.repeat)
+            measure(args.trick, path, args.repeat, args.rating)
             return
         rounds = [one_round(path) for _ in range(args.repeat)]
     read, size = min(r[0] for r in rounds), min(r[1] for r in rounds)

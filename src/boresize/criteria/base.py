@@ -14,7 +14,7 @@ from dataclasses import dataclass
 from typing import Any, Literal
 
 from boresize.errors import CriteriaFileError, InputError
-from boresize.model import Candidate, FluidState, Hydraulics, Line, Verdict, VerdictStatus
+from boresize.model import Candidate, FluidState, Hydraulics, Line, Verdict, VerdictStatus, filled_through_dict
 from boresize.units import QuantityKind, format_unit_help, parse_quantity
 
 __all__ = ["OptionSpec", "CriterionContext", "Criterion", "SizeTrend", "chosen", "documented_unit", "option_text", "parse_options", "verdict"]
@@ -74,6 +74,7 @@ def _choices_value(spec: OptionSpec, raw: object, field: str) -> float:
     return float(mask)
 
 
+@filled_through_dict
 @dataclass(frozen=True)
 class CriterionContext:
     """Everything a criterion may look at for one candidate. Options are SI floats by name."""

@@ -1,0 +1,97 @@
+"""The records filled through their ``__dict__`` (``boresize.model.filled_through_dict``, a speed trick) behave as the
+``@dataclass(frozen=True)`` records they were: the same parameters, defaults and errors, equal, hashed, shown,
+pickled and replaced alike, still frozen. The comparison is with the ``__init__`` the dataclass wrote
+(``PLAIN_INITS``)."""
+
+from __future__ import annotations
+
+import dataclasses
+import pickle
+from collections.abc import Callable
+from typing import Any
+
+import pytest
+
+from boresize.criteria.base import CriterionContext
+from boresize.model import PLAIN_INITS, CandidateResult, FluidState, Hydraulics, Verdict, filled_through_dict
+
+
+def _plain(cls: type) -> Callable[..., Any]:
+    def make(*args: Any, **kwargs: Any) -> Any:
+        made = object.__new__(cls)
+        PLAIN_INITS[cls](made, *args, **kwargs)
+        return made
+    return make
+
+
+def _error(make: Callable[[], object]) -> str | None:
+    try:
+        make()
+    except TypeError as exc:
+        return str(exc)
+    return None
+
+
+def test_every_record_of_the_hot_path_is_filled_through_its_dict() -> None:
+    assert {Hydraulics, Verdict, CandidateResult, FluidState, CriterionContext} <= set(PLAIN_INITS)
+
+
+@pytest.mark.parametrize("call", [
+    lambda c: c("velocity"),
+    lambda c: c("velocity", "pass", ("r",), "s", bogus=1),
+    lambda c: c("velocity", "pass", ("r",), "s", 1.0, 2.0, "m/s", 0.5, 9),
+    lambda c: c("velocity", "pass", ("r",), "s", criterion="drop"),
+    lambda c: c(),
+])
+def test_a_wrong_call_fails_with_the_dataclass_message(call: Callable[[Any], object]) -> None:
+    ours = _error(lambda: call(Verdict))
+    assert ours is not None and ours == _error(lambda: call(_plain(Verdict)))
+
+
+def test_the_record_is_the_dataclass_record() -> None:
+    args = ("velocity", "fail", ("velocity 3.1 m/s above the maximum 3 m/s",), "practice", 3.1, 3.0, "m/s")
+    ours, plain = Verdict(*args, utilisation=1.03), _plain(Verdict)(*args, utilisation=1.03)
+    assert ours == plain and hash(ours) == hash(plain) and repr(ours) == repr(plain)
+    assert list(ours.__dict__.items()) == list(plain.__dict__.items())
+    assert pickle.loads(pickle.dumps(ours)) == ours
+    assert dataclasses.replace(ours, status="pass").status == "pass" and ours.status == "fail"
+    with pytest.raises(dataclasses.FrozenInstanceError):
+        ours.status = "pass"  # type: ignore[misc]
+    defaults = Hydraulics(1.0, 0.001, 2.0, 1e5, 0.02, "turbulent", 100.0, 1e4, 4e3)
+    assert defaults == _plain(Hydraulics)(1.0, 0.001, 2.0, 1e5, 0.02, "turbulent", 100.0, 1e4, 4e3)
+
+
+def test_a_class_it_cannot_fill_alike_is_refused() -> None:
+    @dataclasses.dataclass(frozen=True)
+    class WithFactory:
+        items: list[int] = dataclasses.field(default_factory=list)
+
+    @dataclasses.dataclass(frozen=True)
+    class WithPostInit:
+        x: float
+
+        def __post_init__(self) -> None:
+            pass
+
+    for cls in (WithFactory, WithPostInit):
+        with pytest.raises(TypeError):
+            filled_through_dict(cls)
+
+
+@pytest.mark.parametrize("high", [None, 3.0, 4.5e3])
+@pytest.mark.parametrize("low", [None, 0.7, 1.2e3])
+@pytest.mark.parametrize("value", [0.1, 1.0, 3.0, 3.5, 9e3])
+def test_judge_range_writes_the_text_the_three_endings_wrote(high: float | None, low: float | None,
+                                                            value: float) -> None:
+    """``judge_range`` writes only the reason it returns (part of lean-records): the same text as the ending
+    ``_limit_texts`` gives for that verdict."""
+    from boresize.criteria.limits import _limit_texts, judge_range
+    from boresize.criteria.velocity import VelocityLimits
+
+    options = {k: v for k, v in (("max", high), ("min", low)) if v is not None}
+    if high is not None and low is not None and low >= high:
+        return
+    got = judge_range(VelocityLimits(), value, options, "velocity", "m/s", 1.0, " at the inlet")
+    above, below, within = _limit_texts("m/s", 1.0, high, low)
+    ending = above if high is not None and value > high else below if low is not None and value < low else within
+    assert got.reason == f"velocity {value:.3g}{ending} at the inlet"
