@@ -92,3 +92,13 @@ def test_no_light_path_where_state_refuses_the_line(fields: dict[str, object]):
     assert backend.gas_march(line) is None  # the engine then marches on state(), which gives the refusal
     with pytest.raises(BoresizeError):
         backend.state(line, 9e5, 473.15)
+
+
+def test_a_subclass_with_its_own_state_is_asked_through_it():
+    class Tweaked(CoolPropBackend):
+        def state(self, line: Line, pressure: float, temperature: float):  # type: ignore[no-untyped-def]
+            return replace(super().state(line, pressure, temperature), density=1.0)
+
+    line = make_line(tag="G-4", fluid="methane", flow="1 t/h", pressure="10 bar", temperature="20 degC")
+    assert Tweaked().gas_march(line) is None  # the engine then marches on Tweaked.state
+    assert CoolPropBackend().gas_march(line) is not None

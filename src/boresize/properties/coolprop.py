@@ -171,7 +171,10 @@ class CoolPropBackend:
         CoolProp calls in the same order, without building the full record (its texts, limits, phase and
         saturation fields) nor passing the name look-up and the result cache at every point; a state the line's
         phase or the saturation curve decides, and the line's own point, come from :meth:`state` itself.
-        None where :meth:`state` refuses the line itself (unknown fluid, bad quality): it gives that refusal."""
+        None where :meth:`state` refuses the line itself (unknown fluid, bad quality): it gives that refusal; and
+        for a subclass that gives its own :meth:`state`, which the march must then ask."""
+        if type(self).state is not CoolPropBackend.state:
+            return None
         try:
             name = self.resolve(line.fluid)
             if line.quality is not None:
