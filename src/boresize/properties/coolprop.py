@@ -189,7 +189,7 @@ class CoolPropBackend:
             if pressure == line.pressure and temperature == line.temperature:
                 return self.state(line, pressure, temperature)  # the inlet: cached, and the quality holds there
             return self._gas_point(name, float(pressure), float(temperature), hint)
-        # measured: +23.8 % sizing steam lines, 57 -> 44 us a point (benchmarks/bench_rating.py --only gas-march)
+        # measured: +15-24 % sizing steam lines (4 runs), 57 -> 44 us a point (benchmarks/bench_rating.py --only gas-march)
         return at
 
     def isenthalpic(self, line: Line, inlet: FluidState) -> _Isenthalpic | None:

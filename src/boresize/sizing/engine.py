@@ -264,7 +264,7 @@ class Sizer:
                 light = getattr(backend, "gas_march", None)
                 along = (light(line) if light is not None else None) or (lambda p, t: backend.state(line, p, t))
             return along(pressure, temperature)  # type: ignore[no-any-return]
-        # measured: +23.8 % sizing steam lines, with gas_march (benchmarks/bench_rating.py --only gas-march)
+        # measured: +15-24 % sizing steam lines (4 runs), with gas_march (benchmarks/bench_rating.py --only gas-march)
         return at
 
     def _verdicts(self, p: _Prepared, candidate: Candidate, hyd: Hydraulics) -> tuple[Verdict, ...]:
