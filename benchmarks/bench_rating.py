@@ -16,10 +16,15 @@ can be measured again:
 * ``candidates-cache``: the Sizer keeps each pipe class's candidates (keyed by content) instead of building
   them for every line;
 * ``bands-memo``: the Sizer remembers, per list of candidates, whether a banded criterion's bands keep its
-  trend, instead of checking the bands for every line (case: lines on services with banded limits).
+  trend, instead of checking the bands for every line (case: lines on services with banded limits);
+* ``gas-march``: a marched gas line reads its points through the coolprop backend's ``gas_march`` (density,
+  viscosity and speed of sound only) instead of its full ``state()`` with the backend chosen at each point
+  (case: steam lines; the property caches are cleared before each variant's turn, as a list sized once meets
+  its march points once).
 
 Cases: ``demo`` is the 2,000-line list of ``bench_batch.py`` (the demo unit's lines with flows and
-temperatures varied); ``banded`` is 400 lines on the shipped services with banded limits (pump suctions:
+temperatures varied); ``steam`` its steam lines (a tenth of the pure-fluid list, many of them marched);
+``banded`` is 400 lines on the shipped services with banded limits (pump suctions:
 velocity banded by NPS; gas by pressure: momentum and drop banded by pressure).
 
 Run: ``.venv/bin/python benchmarks/bench_rating.py [--lines 2000] [--repeat 7] [--only NAME]``
@@ -48,6 +53,7 @@ from boresize.io.read import read_line_list  # noqa: E402
 from boresize.io.rows import line_from_row  # noqa: E402
 from boresize.model import Hydraulics, Line, Verdict  # noqa: E402
 from boresize.plugins import PluginHost  # noqa: E402
+from boresize.properties.select import choose_backend  # noqa: E402
 from boresize.criteria.bands import BandedCriterion  # noqa: E402
 from boresize.sizing import engine, scan  # noqa: E402
 
@@ -177,12 +183,35 @@ def bands_memo(on: bool) -> Iterator[None]:
         scan.trend_of = _TREND_OF
 
 
+_HOSTS: list[PluginHost] = []  # the sizer's host, whose backends' caches gas-march clears
+
+
+@contextmanager
+def gas_march(on: bool) -> Iterator[None]:
+    """Without: the march asks the backend's full ``state()`` at every point, the backend chosen at each."""
+    original = engine.Sizer._gas_along
+
+    def full(self: engine.Sizer, line: Line) -> Any:
+        host = self.host
+        return lambda p, t: choose_backend(host, line).state(line, p, t)
+
+    for host in _HOSTS:
+        for backend in host.backends:
+            getattr(backend, "cache_clear", lambda: None)()
+    engine.Sizer._gas_along = original if on else full  # type: ignore[method-assign]
+    try:
+        yield
+    finally:
+        engine.Sizer._gas_along = original  # type: ignore[method-assign]
+
+
 TRICKS: dict[str, tuple[Callable[[bool], Any], str]] = {
     "verdict-dict": (verdict_dict, "demo"),
     "context-dict": (context_dict, "demo"),
     "hydraulics-dict": (hydraulics_dict, "demo"),
     "candidates-cache": (candidates_cache, "demo"),
     "bands-memo": (bands_memo, "banded"),
+    "gas-march": (gas_march, "steam"),
 }
 
 
@@ -191,6 +220,13 @@ def demo_lines(count: int) -> list[list[Line]]:
     with tempfile.TemporaryDirectory() as folder:
         listed = read_line_list(build_line_list(count, Path(folder)))
     return [[line_from_row(row, listed.units, position)] for position, row in enumerate(listed.rows, start=2)]
+
+
+def steam_lines(count: int) -> list[list[Line]]:
+    with tempfile.TemporaryDirectory() as folder:
+        listed = read_line_list(build_line_list(count, Path(folder), pure_only=True, digits=5))
+    return [[line_from_row(row, listed.units, position)] for position, row in enumerate(listed.rows, start=2)
+            if row.get("service") == "steam"]
 
 
 def banded_lines(count: int) -> list[list[Line]]:
@@ -246,7 +282,9 @@ def main(argv: Sequence[str] | None = None) -> None:
     parser.add_argument("--only", choices=sorted(TRICKS), action="append")
     args = parser.parse_args(argv)
     sizer = engine.Sizer(PluginHost.load(load_entry_points=False), criteria_file=DEMO / "criteria.toml")
-    cases = {"demo": demo_lines(args.lines), "banded": banded_lines(max(args.lines // 5, 10))}
+    _HOSTS.append(sizer.host)
+    cases = {"demo": demo_lines(args.lines), "banded": banded_lines(max(args.lines // 5, 10)),
+             "steam": steam_lines(args.lines)}
     for lines in cases.values():
         size_all(sizer, lines)  # warm the property caches
     for name in args.only or TRICKS:

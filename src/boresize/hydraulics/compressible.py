@@ -24,13 +24,14 @@ from __future__ import annotations
 import math
 from collections.abc import Callable
 from dataclasses import dataclass, field
+from typing import Protocol
 
 from boresize.errors import BoresizeError, InputError
 from boresize.hydraulics.darcy import flow_area
 from boresize.hydraulics.friction import darcy_friction_factor
 from boresize.model import FluidState
 
-__all__ = ["SIMPLE_LIMIT", "MODELS", "Properties", "GasLine", "isothermal_mass_flow", "scaled_properties",
+__all__ = ["SIMPLE_LIMIT", "MODELS", "Properties", "GasState", "GasProperties", "GasLine", "isothermal_mass_flow", "scaled_properties",
            "segment_count", "march_gas_line"]
 
 SIMPLE_LIMIT = 0.10
@@ -42,6 +43,21 @@ _G = 9.80665  # standard gravity [m/s2]
 
 Properties = Callable[[float, float], FluidState]
 """(pressure [Pa abs], temperature [K]) -> FluidState: the EOS along the line."""
+
+
+class GasState(Protocol):
+    """What the march reads of a state: a FluidState, or a backend's lighter point (CoolPropBackend.gas_march)."""
+
+    @property
+    def density(self) -> float: ...  # [kg/m3]
+    @property
+    def viscosity(self) -> float: ...  # [Pa s]
+    @property
+    def speed_of_sound(self) -> float | None: ...  # [m/s]
+
+
+GasProperties = Callable[[float, float], GasState]
+"""(pressure [Pa abs], temperature [K]) -> the state's density, viscosity and speed of sound."""
 
 
 @dataclass(frozen=True)
@@ -82,7 +98,7 @@ class _Pipe:
     flux: float  # G [kg/m2 s]
     diameter: float
     roughness: float
-    properties: Properties
+    properties: GasProperties
     model: str
     friction_factor: float | None
     cp: float  # ideal-gas heat capacity for the adiabatic energy balance [J/kg K]
@@ -135,7 +151,7 @@ def _point(pipe: _Pipe, p: float, t: float) -> _Point | None:
     return _Point(p, t, 1.0 / state.density, _friction(pipe, state), state.speed_of_sound)
 
 
-def _friction(pipe: _Pipe, state: FluidState) -> float:
+def _friction(pipe: _Pipe, state: GasState) -> float:
     """The fixed friction factor, or darcy_friction_factor's at the state's Reynolds number G D / mu [-]."""
     if pipe.friction_factor is not None:
         return pipe.friction_factor
@@ -210,7 +226,7 @@ def _advance(pipe: _Pipe, a: _Point, dx: float, dz: float, depth: int = 0) -> tu
     return end, covered + more, ok
 
 
-def _heat_capacity(inlet: FluidState, p_in: float, t_in: float, model: str) -> float:
+def _heat_capacity(inlet: GasState, p_in: float, t_in: float, model: str) -> float:
     """Ideal-gas cp [J/kg K] from the isentropic exponent k = rho c^2 / p (adiabatic model only)."""
     if model == "isothermal":
         return math.inf
@@ -222,14 +238,14 @@ def _heat_capacity(inlet: FluidState, p_in: float, t_in: float, model: str) -> f
 
 
 def march_gas_line(p_in: float, t_in: float, mass_flow: float, diameter: float, roughness: float, length: float,
-                   properties: Properties, *, model: str = "isothermal", elevation: float = 0.0,
+                   properties: GasProperties, *, model: str = "isothermal", elevation: float = 0.0,
                    friction_factor: float | None = None, segments: int = 20) -> GasLine:
     """March a gas line from its inlet in ``segments`` equal lengths (halved where needed).
 
     :param p_in: inlet pressure [Pa abs]; :param t_in: inlet temperature [K]; :param mass_flow: [kg/s]
     :param diameter: inside diameter [m]; :param roughness: absolute roughness [m]
     :param length: length to march [m]: straight pipe plus the fittings' equivalent length
-    :param properties: the EOS along the line, (p [Pa abs], T [K]) -> FluidState
+    :param properties: the EOS along the line, (p [Pa abs], T [K]) -> FluidState (or a GasState)
     :param model: ``isothermal`` or ``adiabatic``
     :param elevation: outlet minus inlet elevation [m], spread evenly over ``length``
     :param friction_factor: a fixed Darcy friction factor [-]; None re-evaluates it per point by regime

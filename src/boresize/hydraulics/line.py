@@ -18,6 +18,7 @@ from dataclasses import replace
 from boresize.hydraulics.compressible import (
     SIMPLE_LIMIT,
     GasLine,
+    GasProperties,
     Properties,
     march_gas_line,
     scaled_properties,
@@ -41,7 +42,7 @@ def is_gas(state: FluidState) -> bool:
 
 def rate_line(line: Line, state: FluidState, candidate: Candidate, mass_flow: float,
               properties: Properties | None = None, two_phase_method: str | None = None,
-              letdown: bool = False) -> Hydraulics:
+              letdown: bool = False, march_properties: GasProperties | None = None) -> Hydraulics:
     """Hydraulics of ``candidate`` carrying ``mass_flow`` [kg/s] along ``line`` (SI throughout).
 
     :param line: length [m], elevation [m, rise positive], fittings, fixed_drop [Pa], inlet pressure
@@ -53,6 +54,8 @@ def rate_line(line: Line, state: FluidState, candidate: Candidate, mass_flow: fl
     :param letdown: the service accepts two-phase lines: a liquid line whose pressure falls below its vapour (or
         bubble) pressure within its length is rated two-phase from that point
         (:func:`boresize.hydraulics.two_phase.rate_letdown`)
+    :param march_properties: what a gas march reads of ``properties``, where the backend gives it cheaper (the same
+        floats); None marches on ``properties``
     :returns: Hydraulics with every drop [Pa], the outlet pressure [Pa abs] and the method text
     :raises InputError: an unknown fitting or method (field "fittings", "fittings_method", "compressible",
         "two_phase_method"), a two-phase state without its per-phase values
@@ -74,7 +77,7 @@ def rate_line(line: Line, state: FluidState, candidate: Candidate, mass_flow: fl
         hyd = Hydraulics(mass_flow=mass_flow, volume_flow=mass_flow / density, velocity=v, reynolds=re,
                          friction_factor=f, regime=regime, drop_per_length=dpl, drop=drop, momentum=density * v * v,
                          mach=mach, fittings_k=loss.k_total, fittings_method=loss.method)
-        return _compressible(line, state, hyd, loss, (diameter, roughness), properties, fraction)
+        return _compressible(line, state, hyd, loss, (diameter, roughness), properties, fraction, march_properties)
     total = drop + fittings + static + line.fixed_drop
     bubble = state.bubble_pressure if state.bubble_pressure is not None else state.vapour_pressure
     if letdown and state.phase == "liquid" and bubble is not None and line.pressure - total < bubble:
@@ -105,15 +108,16 @@ def _simple_text(state: FluidState, fraction: float, loss: FittingsLoss, regime:
 
 
 def _compressible(line: Line, state: FluidState, hyd: Hydraulics, loss: FittingsLoss, bore: tuple[float, float],
-                  properties: Properties | None, fraction: float) -> Hydraulics:
+                  properties: Properties | None, fraction: float, march_properties: GasProperties | None = None
+                  ) -> Hydraulics:
     """March the line (pipe + fittings as equivalent length); split friction between pipe and fittings.
 
     :param bore: (inside diameter [m], absolute roughness [m])
     """
     diameter, roughness = bore
     scaled = properties is None or state.source == "table"
-    along = (scaled_properties(state, line.pressure, line.temperature) if properties is None or scaled
-             else properties)
+    along: GasProperties = (scaled_properties(state, line.pressure, line.temperature) if properties is None or scaled
+                            else march_properties or properties)
     fittings_length = loss.equivalent_length + loss.k_total * diameter / hyd.friction_factor
     marched = line.length + fittings_length
     gas = march_gas_line(line.pressure, line.temperature, hyd.mass_flow, diameter, roughness, marched,
