@@ -9,7 +9,8 @@ time of each is kept. Printed:
     against the floor: a process that imports CoolProp, then per line one ``AbstractState`` PT update, density
     and viscosity (one reused state per fluid) -- the ratio of CPU times (target 1.2x, issue 19), printed for the
     whole processes and as (import + boresize after it) / (import + floor after it) with one CoolProp import time
-    for both (the least seen): that import, 3-4.5 s of every run, varies by a second between runs;
+    for both (the least seen): that import, 3-4.5 s of every run, varies by a second between runs; and the same
+    ratio for the same lines written to CSV (``-o x.csv``: no full record, no size above the selected one rated);
 (b) CPU time per line at 1,000, 10,000 and 50,000 lines (``-o results.csv``) beyond the one-line run of (d)
     (start-up), both counted after the CoolProp import (whose own time varies by a second between runs), and the
     50k/1k ratio (flat: 1.0);
@@ -219,6 +220,10 @@ def main() -> None:
               f"{args.repeats}: {cli / bare:.2f}x); with the CoolProp import counted once for both ({imported:.2f} s) "
               f"and the rest measured after it (boresize {own:.2f} s, floor {rest:.2f} s): ratio {ratio:.2f}x "
               f"(target {TARGET_RATIO}x: {'met' if ratio <= TARGET_RATIO else 'NOT met'})")
+        imported, own, rest = compared(two, folder, args.repeats, "-o", str(folder / "two.csv"))
+        print(f"(a) the same 2,000 lines to CSV (-o x.csv, --quiet; no target of its own): boresize {own:.2f} s after "
+              f"the CoolProp import ({imported:.2f} s on both), floor {rest:.2f} s: ratio "
+              f"{(imported + own) / (imported + rest):.2f}x")
         start = one_line(folder, args.repeats)
         per_line: dict[int, float] = {}
         peaks: dict[int, float] = {}
