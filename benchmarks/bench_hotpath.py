@@ -41,7 +41,7 @@ sys.path.insert(0, str(Path(__file__).resolve().parent))
 
 from bench_scale import build_pure_list  # noqa: E402
 
-from boresize.criteria import drop_per_length, limits, mach, momentum, velocity  # noqa: E402
+from boresize.criteria import drop_per_length, mach, momentum, velocity  # noqa: E402
 from boresize.criteria.base import verdict  # noqa: E402
 from boresize.io.line_items import line_items  # noqa: E402
 from boresize.io.read import read_line_list  # noqa: E402
@@ -89,7 +89,11 @@ def _plain_judge_range(criterion: object, value_si: float, options: Any, noun: s
     high, low = options.get("max"), options.get("min")
     util_high = value_si / high if high else 0.0
     util_low = low / value_si if low and value_si > 0 else (float("inf") if low else 0.0)
-    above, below, within = limits._limit_texts(unit, scale, high, low)
+    above = f" {unit} above the maximum {high / scale:.3g} {unit}" if high is not None else ""
+    below = f" {unit} below the minimum {low / scale:.3g} {unit}" if low is not None else ""
+    bounds = " and ".join(text for text in (f"at most {high / scale:.3g} {unit}" if high is not None else "",
+                                            f"at least {low / scale:.3g} {unit}" if low is not None else "") if text)
+    within = f" {unit} is {bounds}"
     if high is not None and value_si > high:
         return verdict(criterion, "fail", f"{noun} {shown:.3g}{above}{where}", value=shown, limit=high / scale,
                        unit=unit, utilisation=util_high)

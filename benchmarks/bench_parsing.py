@@ -21,7 +21,6 @@ trick taken out can be measured again:
 * ``component-names``: :mod:`boresize.properties.components`' ``lru_cache`` of component look-ups
   (``resolve_component``, ``_search``);
 * ``heos-names``: the CoolProp mixture backend's ``lru_cache`` of parsed compositions (``_heos_key``);
-* ``limit-texts``: :mod:`boresize.criteria.limits` keeps the reasons' endings per unit and limits (``_TEXTS``);
 * ``bands-context`` / ``bands-verdict``: a banded criterion builds the engine's ``CriterionContext`` and the
   ``Verdict`` directly instead of through ``dataclasses.replace`` (``bands-both``: the two together);
 * ``band-reason``: a band's note for the reasons is a ``cached_property`` (off: a property);
@@ -55,7 +54,6 @@ sys.path.insert(0, str(Path(__file__).resolve().parent))
 from bench_batch import DEMO, build_line_list  # noqa: E402
 from bench_rating import banded_lines  # noqa: E402
 
-import boresize.criteria.limits as limits  # noqa: E402
 import boresize.hydraulics.fittings as fittings  # noqa: E402
 import boresize.hydraulics.line as hydraulics_line  # noqa: E402
 import boresize.pipes.catalogue as catalogue  # noqa: E402
@@ -148,11 +146,6 @@ def heos_names(on: bool) -> Any:
     return _attributes(on, CoolPropMixtureBackend, _uncached(CoolPropMixtureBackend._heos_key))
 
 
-def limit_texts(on: bool) -> Any:
-    return _attributes(on, limits, {"_texts": lambda unit, scale, high, low: limits._limit_texts(unit, scale,
-                                                                                                  high, low)})
-
-
 def _banded_evaluate(direct_context: bool, direct_verdict: bool) -> Callable[[Any, CriterionContext], Verdict]:
     """``BandedCriterion.evaluate`` with or without each of its two direct constructions."""
 
@@ -230,7 +223,6 @@ TRICKS: dict[str, tuple[Callable[[bool], Any], str]] = {
     "thermo-names": (thermo_names, "mixtures"),
     "component-names": (component_names, "mixtures"),
     "heos-names": (heos_names, "mixtures"),
-    "limit-texts": (limit_texts, "demo"),
     "bands-context": (bands_context, "banded"),
     "bands-verdict": (bands_verdict, "banded"),
     "bands-both": (bands_both, "banded"),

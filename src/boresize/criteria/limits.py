@@ -40,7 +40,8 @@ def judge_range(criterion: object, value_si: float, options: Mapping[str, float]
     high, low = options.get("max"), options.get("min")
     util_high = value_si / high if high else 0.0
     util_low = low / value_si if low and value_si > 0 else (float("inf") if low else 0.0)
-    # only the reason text returned is written (not _limit_texts' three): part of the trick lean-records with
+    # only the reason text returned is written (not the three endings for every verdict): part of the trick
+    # lean-records with
     # boresize.model.filled_through_dict.
     # measured: lean-records +11 to +18 % of the rating of the 2,000 pure-fluid lines
     #   (benchmarks/bench_hotpath.py --trick lean-records --rating --repeat 11)
@@ -63,16 +64,3 @@ def _within(unit: str, scale: float, high: float | None, low: float | None) -> s
         return f" {unit} is at least {low / scale:.3g} {unit}"
     return f" {unit} is at most {high / scale:.3g} {unit} and at least {low / scale:.3g} {unit}"
 
-
-def _limit_texts(unit: str, scale: float, high: float | None, low: float | None) -> tuple[str, str, str]:
-    """What follows "<noun> <value>" in a reason: above the maximum, below the minimum, and within the limits
-    (judge_range writes only the one it says; kept for benchmarks/bench_parsing.py limit-texts)."""
-    above = f" {unit} above the maximum {high / scale:.3g} {unit}" if high is not None else ""
-    below = f" {unit} below the minimum {low / scale:.3g} {unit}" if low is not None else ""
-    bounds = " and ".join(
-        text for text in (
-            f"at most {high / scale:.3g} {unit}" if high is not None else "",
-            f"at least {low / scale:.3g} {unit}" if low is not None else "",
-        ) if text
-    )
-    return above, below, f" {unit} is {bounds}"

@@ -22,7 +22,7 @@ from typing import Any
 from boresize.errors import InputError
 from boresize.io.csv_reader import RESULT_PREFIX, LineList, file_digest, make_line_list, read_header, surplus_cells
 from boresize.io.rows import BEYOND_HEADER
-from boresize.io.document import _r
+from boresize.io.document import _r6
 from boresize.io.safety import FORMULA_STARTS, as_number, restore
 from boresize.io.sheet_rows import candidate_rows, result_rows
 from boresize.model import LineResult
@@ -167,7 +167,7 @@ def _fill(sheet: Any, head: Sequence[str], rows: Sequence[Sequence[Any]], format
 
 def _rounded(rows: Sequence[Sequence[Any]]) -> list[list[Any]]:
     """Floats to 6 significant figures, as the JSON document has them (``io/document.py``)."""
-    return [[_r(v) if isinstance(v, float) else v for v in row] for row in rows]
+    return [[_r6(v) if isinstance(v, float) else v for v in row] for row in rows]
 
 
 def write_xlsx(path: str | Path, results: Sequence[LineResult], headers: Sequence[str] | None = None, *,
