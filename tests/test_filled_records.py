@@ -104,3 +104,17 @@ def test_judge_range_writes_the_text_the_three_endings_wrote(high: float | None,
     above, below, within = _endings("m/s", high, low)
     ending = above if high is not None and value > high else below if low is not None and value < low else within
     assert got.reason == f"velocity {value:.3g}{ending} at the inlet"
+
+
+def test_the_filled_init_keeps_the_typed_signature() -> None:
+    """An IDE, inspect.signature and typing.get_type_hints show a plugin author the same typed parameters as the
+    dataclass __init__ (found in review: the generated __init__ had lost its annotations)."""
+    import inspect
+    import typing
+
+    from boresize.model import PLAIN_INITS, Verdict
+
+    assert str(inspect.signature(Verdict)) == str(inspect.signature(PLAIN_INITS[Verdict]).replace(
+        parameters=list(inspect.signature(PLAIN_INITS[Verdict]).parameters.values())[1:]))
+    hints = typing.get_type_hints(Verdict.__init__)
+    assert hints["criterion"] is str and hints["return"] is type(None) and "utilisation" in hints

@@ -7,6 +7,7 @@ Conversion from what the user typed happens once, in :mod:`boresize.units` and
 
 from __future__ import annotations
 
+import sys
 from collections.abc import Callable, Sequence
 from dataclasses import MISSING, dataclass, field, fields
 from typing import Any, Literal, TypeVar
@@ -60,11 +61,17 @@ def filled_through_dict(cls: type[_Record]) -> type[_Record]:
             defaults[f"_default_{f.name}"] = f.default
             params.append(f"{f.name}=_default_{f.name}")
         lines.append(f"    d[{f.name!r}] = {f.name}")
+    # made by a factory run in the class's module, so that the typed signature resolves there (typing.get_type_hints,
+    # inspect, IDEs) as the dataclass __init__'s does; the defaults come in as the factory's arguments
     made: dict[str, Any] = {}
-    exec(f"def __init__(self, {', '.join(params)}):\n    d = self.__dict__\n" + "\n".join(lines), defaults, made)
-    init = made["__init__"]
+    body = f"    def __init__(self, {', '.join(params)}):\n        d = self.__dict__\n" + \
+        "\n".join("    " + line for line in lines)
+    exec(f"def _make({', '.join(defaults)}):\n{body}\n    return __init__", sys.modules[cls.__module__].__dict__,
+         made)
+    init = made["_make"](**defaults)
     init.__qualname__ = f"{cls.__qualname__}.__init__"
     init.__module__ = cls.__module__
+    init.__annotations__ = dict(cls.__init__.__annotations__)  # the typed signature plugin authors' tools show
     PLAIN_INITS[cls] = cls.__init__
     setattr(cls, "__init__", init)
     return cls
