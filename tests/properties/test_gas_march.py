@@ -9,6 +9,8 @@ evaluated before it does not matter.
 
 from __future__ import annotations
 
+from typing import Any
+
 from dataclasses import replace
 
 import pytest
@@ -102,3 +104,46 @@ def test_a_subclass_with_its_own_state_is_asked_through_it():
     line = make_line(tag="G-4", fluid="methane", flow="1 t/h", pressure="10 bar", temperature="20 degC")
     assert Tweaked().gas_march(line) is None  # the engine then marches on Tweaked.state
     assert CoolPropBackend().gas_march(line) is not None
+
+
+def test_a_subclass_that_corrects_the_evaluation_and_a_replaced_state_march_on_state(
+        monkeypatch: pytest.MonkeyPatch) -> None:
+    """A company backend that subclasses CoolPropBackend and corrects ``_compute`` (viscosity x 1.5), or an
+    instance whose ``state`` was replaced, is marched on what its ``state()`` gives at every point (found in
+    review: the light path skipped the correction past the inlet: outlet 107.5 against 90.8 kPa abs for this
+    line). The reference is the same line marched with no light path at all (``gas_march`` giving None: state()
+    at every point, as before the light path existed); conditions of our own."""
+    from boresize.hookspecs import hookimpl
+    from boresize.plugins import PluginHost
+    from boresize.sizing.engine import Sizer
+
+    class Corrected(CoolPropBackend):
+        id, title = "coolprop-corrected", "CoolProp, viscosity x 1.5"
+
+        def _compute(self, *args):  # type: ignore[no-untyped-def]
+            state = super()._compute(*args)
+            return replace(state, viscosity=state.viscosity * 1.5)
+
+    wrapped = CoolPropBackend()
+    wrapped.id, plain = "coolprop-wrapped", wrapped.state
+    wrapped.state = lambda line, p, t: replace(plain(line, p, t), viscosity=plain(line, p, t).viscosity * 1.5)  # type: ignore[method-assign]
+
+    class Plug:
+        @hookimpl
+        def boresize_register_property_backends(self, register):  # type: ignore[no-untyped-def]
+            register.add(Corrected())
+            register.add(wrapped)
+
+    def hydraulics(backend_id: str) -> Any:
+        sizer = Sizer(PluginHost.load(load_entry_points=False, extra=[Plug()]))
+        line = make_line(tag="G-5", fluid="nitrogen", flow="20 t/h", pressure="3 barg", temperature="20 degC",
+                         length="3000 m", service="gas", backend=backend_id, nps="6")
+        result = sizer.run(line)
+        assert result.selected is not None, result.error
+        return result.selected.hydraulics
+
+    got = {b: hydraulics(b) for b in ("coolprop-corrected", "coolprop-wrapped")}
+    assert all("compressible flow in" in h.method for h in got.values())  # marched
+    monkeypatch.setattr(CoolPropBackend, "gas_march", lambda self, line: None)
+    for backend_id, h in got.items():
+        assert h == hydraulics(backend_id), backend_id

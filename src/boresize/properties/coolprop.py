@@ -172,9 +172,10 @@ class CoolPropBackend:
         saturation fields) nor passing the name look-up and the result cache at every point; a state the line's
         phase or the saturation curve decides, and the line's own point, come from :meth:`state` itself.
         None where :meth:`state` refuses the line itself (unknown fluid, bad quality): it gives that refusal; and
-        for a subclass that gives its own :meth:`state`, which the march must then ask."""
-        if type(self).state is not CoolPropBackend.state:
-            return None
+        for any subclass, or an instance whose ``state`` or evaluation was replaced, which may change what
+        :meth:`state` gives (a company's corrected viscosity): the march must then ask :meth:`state` at every point."""
+        if type(self) is not CoolPropBackend or {"state", "_compute"} & vars(self).keys():
+            return None  # a subclass or an instance that changes what state() gives: the march must ask state()
         try:
             name = self.resolve(line.fluid)
             if line.quality is not None:
